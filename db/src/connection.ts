@@ -1,4 +1,5 @@
 import knex, { type Knex } from "knex";
+import { migrationSource } from "./migration-source";
 
 /**
  * Connection settings come from DATABASE_URL (set by scripts/start.sh and scripts/test.sh, which
@@ -15,11 +16,7 @@ export function knexConfig(url = databaseUrl()): Knex.Config {
     client: "pg",
     connection: url,
     pool: { min: 0, max: Number(process.env.DB_POOL_MAX ?? 10) },
-    migrations: {
-      directory: new URL("../migrations", import.meta.url).pathname,
-      loadExtensions: [".ts"],
-      tableName: "knex_migrations",
-    },
+    migrations: { migrationSource, tableName: "knex_migrations" },
   };
 }
 

@@ -1,2 +1,3 @@
 export * from "./connection";
 export * from "./enums";
+export * from "./testing";

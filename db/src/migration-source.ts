@@ -1,0 +1,21 @@
+import type { Knex } from "knex";
+import * as coreSchema from "../migrations/20261201090000_core_schema";
+
+/**
+ * Migrations are listed here with static imports rather than discovered on disk, so the same
+ * source works under tsx, vitest and a bundler (Node cannot import .ts files by itself).
+ * db/__tests__/migration-source.test.ts fails when a file in migrations/ is missing from this list.
+ */
+export const MIGRATIONS: Record<string, Knex.Migration> = {
+  "20261201090000_core_schema": coreSchema,
+};
+
+export const migrationSource: Knex.MigrationSource<string> = {
+  getMigrations: async () => Object.keys(MIGRATIONS).sort(),
+  getMigrationName: (name) => name,
+  getMigration: async (name) => {
+    const migration = MIGRATIONS[name];
+    if (!migration) throw new Error(`unknown migration ${name}`);
+    return migration;
+  },
+};
