@@ -1,0 +1,110 @@
+import { butterworthBandSections } from "./butterworth-band-sections";
+import { type Biquad, butterworthSections } from "./butterworth-sections";
+
+/**
+ * Forward–backward filtering of a cascade of biquads, equivalent to SciPy's `sosfiltfilt` with its
+ * defaults: odd extension of padlen = 3·(2·sections + 1) samples at each end and steady-state
+ * initial conditions (`sosfilt_zi`) scaled by the first sample of each pass. Zero phase, squared
+ * magnitude (a Butterworth of order N becomes −6.02 dB at the cut-off). Input must be finite;
+ * callers filter each valid segment separately.
+ */
+export function sosFiltFilt(sections: readonly Biquad[], x: ArrayLike<number>): Float64Array {
+  const n = x.length;
+  if (n === 0) return new Float64Array(0);
+  if (n === 1) return Float64Array.of(x[0]!);
+  const padLen = Math.min(3 * (2 * sections.length + 1), n - 1);
+  const m = n + 2 * padLen;
+  const ext = new Float64Array(m);
+  const x0 = x[0]!;
+  const xn = x[n - 1]!;
+  for (let i = 0; i < padLen; i++) ext[i] = 2 * x0 - x[padLen - i]!;
+  for (let i = 0; i < n; i++) ext[padLen + i] = x[i]!;
+  for (let i = 0; i < padLen; i++) ext[padLen + n + i] = 2 * xn - x[n - 2 - i]!;
+
+  filterInPlace(sections, ext, false);
+  filterInPlace(sections, ext, true);
+  return ext.slice(padLen, padLen + n);
+}
+
+/** Direct form II transposed, each section started at its steady state for a constant input. */
+function filterInPlace(sections: readonly Biquad[], y: Float64Array, reverse: boolean): void {
+  const m = y.length;
+  let level = reverse ? y[m - 1]! : y[0]!;
+  for (const s of sections) {
+    const gain = (s.b0 + s.b1 + s.b2) / (1 + s.a1 + s.a2);
+    let z2 = (s.b2 - s.a2 * gain) * level;
+    let z1 = (s.b1 - s.a1 * gain) * level + z2;
+    const { b0, b1, b2, a1, a2 } = s;
+    if (!reverse) {
+      for (let i = 0; i < m; i++) {
+        const xi = y[i]!;
+        const yi = b0 * xi + z1;
+        z1 = b1 * xi - a1 * yi + z2;
+        z2 = b2 * xi - a2 * yi;
+        y[i] = yi;
+      }
+    } else {
+      for (let i = m - 1; i >= 0; i--) {
+        const xi = y[i]!;
+        const yi = b0 * xi + z1;
+        z1 = b1 * xi - a1 * yi + z2;
+        z2 = b2 * xi - a2 * yi;
+        y[i] = yi;
+      }
+    }
+    level *= gain;
+  }
+}
+
+/** Zero-phase Butterworth low-pass (order N per pass, even). */
+export function lowPassZeroPhase(
+  x: ArrayLike<number>,
+  sampleRateHz: number,
+  cutoffHz: number,
+  order = 4,
+): Float64Array {
+  return sosFiltFilt(butterworthSections("lowpass", order, cutoffHz, sampleRateHz), x);
+}
+
+/**
+ * Zero-phase Butterworth band-pass: `order` per edge (2·order poles, SciPy's `butter(order, [lo, hi],
+ * "band")` convention), applied forward and backward, so the pass-band edges are at −6.02 dB.
+ */
+export function bandPassZeroPhase(
+  x: ArrayLike<number>,
+  sampleRateHz: number,
+  lowHz: number,
+  highHz: number,
+  order = 2,
+): Float64Array {
+  return sosFiltFilt(butterworthBandSections(order, lowHz, highHz, sampleRateHz), x);
+}
+
+/**
+ * Low-pass of a signal with invalid stretches: each run of valid samples (mask 1) is filtered on
+ * its own; invalid samples are copied through unchanged (callers ignore them).
+ */
+export function lowPassZeroPhaseSegments(
+  x: ArrayLike<number>,
+  valid: Uint8Array,
+  sampleRateHz: number,
+  cutoffHz: number,
+  order = 4,
+): Float64Array {
+  const sections = butterworthSections("lowpass", order, cutoffHz, sampleRateHz);
+  const n = x.length;
+  const out = Float64Array.from(x);
+  let i = 0;
+  while (i < n) {
+    if (!valid[i]) {
+      i++;
+      continue;
+    }
+    let j = i;
+    while (j < n && valid[j]) j++;
+    const seg = sosFiltFilt(sections, out.subarray(i, j));
+    out.set(seg, i);
+    i = j;
+  }
+  return out;
+}
