@@ -1,0 +1,87 @@
+#!/usr/bin/env bash
+# Starts the whole product (fakes, migrations, demo seed, portal build, API server, worker) against
+# the PostgreSQL cluster already running at $PGPORT. Used by start.sh (foreground) and test.sh (e2e).
+# Expects: ROOT, PG_BIN, PGPORT, PENDULA_DATA (writable folder), PENDULA_PORT, PENDULA_DB.
+
+PRODUCT_PIDS=()
+
+free_port() {
+  node -e 'const s=require("net").createServer();s.listen(0,"127.0.0.1",()=>{console.log(s.address().port);s.close()})'
+}
+
+wait_for_line() { # file pattern timeout_s
+  local file="$1" pattern="$2" timeout="$3" i=0
+  while [ $i -lt $((timeout * 10)) ]; do
+    if [ -f "$file" ] && grep -q "$pattern" "$file"; then return 0; fi
+    sleep 0.1; i=$((i + 1))
+  done
+  return 1
+}
+
+product_env() {
+  mkdir -p "$PENDULA_DATA"
+  local secrets="$PENDULA_DATA/secrets.env"
+  if [ ! -f "$secrets" ]; then
+    umask 077
+    {
+      echo "JWT_SECRET=$(node -e 'console.log(require("crypto").randomBytes(32).toString("hex"))')"
+      echo "RESEARCH_HMAC_KEY=$(node -e 'console.log(require("crypto").randomBytes(32).toString("hex"))')"
+    } >"$secrets"
+  fi
+  set -a
+  # shellcheck disable=SC1090
+  . "$secrets"
+  set +a
+  : "${PENDULA_S3_PORT:=$(free_port)}"
+  : "${PENDULA_SMTP_PORT:=$(free_port)}"
+  export DATABASE_URL="postgres://postgres@127.0.0.1:$PGPORT/$PENDULA_DB"
+  export HOST=127.0.0.1 PORT="$PENDULA_PORT"
+  export PUBLIC_URL="http://127.0.0.1:$PENDULA_PORT"
+  export S3_ENDPOINT="http://127.0.0.1:$PENDULA_S3_PORT" S3_BUCKET=pendula-raw S3_REGION=local
+  export S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER
+  export AWS_ACCESS_KEY_ID=S3RVER AWS_SECRET_ACCESS_KEY=S3RVER
+  export SMTP_HOST=127.0.0.1 SMTP_PORT="$PENDULA_SMTP_PORT" MAIL_FROM="Pendula <no-reply@pendula.test>"
+  export PENDULA_MAILBOX_DIR="$PENDULA_DATA/mailbox"
+  export PENDULA_PORTAL_DIST="$ROOT/portal/dist"
+}
+
+start_fakes() {
+  local log="$PENDULA_DATA/fakes.log"
+  : >"$log"
+  (cd "$ROOT" && exec npx tsx ingest-server/src/dev/fakes.ts --data "$PENDULA_DATA/fakes" \
+    --s3-port "$PENDULA_S3_PORT" --smtp-port "$PENDULA_SMTP_PORT" --mailbox "$PENDULA_MAILBOX_DIR") >>"$log" 2>&1 &
+  PRODUCT_PIDS+=($!)
+  wait_for_line "$log" "fakes ready" 60 || { log "object-storage/e-mail fakes did not start:"; cat "$log" >&2; return 1; }
+}
+
+migrate_and_seed() {
+  pg_ensure_database "$PENDULA_DB"
+  (cd "$ROOT" && npx tsx db/src/migrate.ts)
+  (cd "$ROOT" && npx tsx ingest-server/src/dev/seed-demo.ts --if-empty)
+}
+
+build_portal() {
+  (cd "$ROOT" && npm run --silent build -w portal >"$PENDULA_DATA/portal-build.log" 2>&1) ||
+    { log "portal build failed:"; tail -40 "$PENDULA_DATA/portal-build.log" >&2; return 1; }
+}
+
+start_services() {
+  local slog="$PENDULA_DATA/server.log" wlog="$PENDULA_DATA/worker.log"
+  : >"$slog"; : >"$wlog"
+  (cd "$ROOT" && exec npx tsx ingest-server/src/worker.ts) >>"$wlog" 2>&1 &
+  PRODUCT_PIDS+=($!)
+  (cd "$ROOT" && exec npx tsx ingest-server/src/server.ts) >>"$slog" 2>&1 &
+  PRODUCT_PIDS+=($!)
+  wait_for_line "$slog" "^http://127.0.0.1:$PENDULA_PORT\$" 60 || { log "server did not start:"; cat "$slog" >&2; return 1; }
+}
+
+stop_product() {
+  local pid
+  for pid in "${PRODUCT_PIDS[@]:-}"; do
+    [ -n "$pid" ] && kill -TERM "$pid" 2>/dev/null || true
+  done
+  for pid in "${PRODUCT_PIDS[@]:-}"; do
+    [ -n "$pid" ] && wait "$pid" 2>/dev/null || true
+  done
+  PRODUCT_PIDS=()
+}

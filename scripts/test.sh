@@ -1,0 +1,71 @@
+#!/usr/bin/env bash
+# `npm test`: typecheck, lint, every workspace's tests, the cross-package tests and the browser tests,
+# against a throwaway PostgreSQL cluster that is removed afterwards, on success or failure.
+# Ends with one line `N passed, N failed` over everything it ran.
+set -uo pipefail
+. "$(dirname "$0")/lib/common.sh"
+. "$(dirname "$0")/lib/product.sh"
+set +e
+
+ensure_node_modules || exit 1
+ensure_postgres || exit 1
+if [ ! -x /usr/bin/chromium ] && [ "${PENDULA_SKIP_E2E:-}" != "1" ]; then
+  log "installing Debian's Chromium for the browser tests"
+  as_root apt-get update -qq && DEBIAN_FRONTEND=noninteractive as_root apt-get install -y -qq --no-install-recommends chromium >/dev/null
+fi
+
+TMP="$(mktemp -d)"
+chmod 755 "$TMP"
+REPORTS="$TMP/reports"; mkdir -p "$REPORTS"
+PG_DIR="$TMP/pg"
+cleanup() {
+  trap - EXIT INT TERM
+  stop_product
+  pg_cluster_down "$PG_DIR"
+  rm -rf "$TMP"
+}
+trap cleanup EXIT INT TERM
+
+PASSED=0; FAILED=0
+record() { # name exit_code
+  if [ "$2" -eq 0 ]; then PASSED=$((PASSED + 1)); log "$1: ok"; else FAILED=$((FAILED + 1)); log "$1: FAILED"; fi
+}
+count_vitest() { # json report
+  [ -f "$1" ] || { FAILED=$((FAILED + 1)); log "no report $1 (runner crashed)"; return; }
+  local counts
+  counts="$(node "$ROOT/scripts/lib/count-vitest.cjs" "$1")"
+  PASSED=$((PASSED + ${counts% *})); FAILED=$((FAILED + ${counts#* }))
+}
+
+cd "$ROOT"
+log "typecheck"; npm run --silent typecheck; record typecheck $?
+log "lint"; npx eslint . ; record lint $?
+
+PG_PORT="$(free_port)"
+pg_cluster_up "$PG_DIR" "$PG_PORT" throwaway || { echo "0 passed, 1 failed"; exit 1; }
+export PENDULA_TEST_PG="postgres://postgres@127.0.0.1:$PG_PORT"
+export BCRYPT_COST=4
+
+log "unit, integration and reference tests"
+npx vitest run --reporter=default --reporter=json --outputFile.json="$REPORTS/vitest.json"
+UNIT_RC=$?
+count_vitest "$REPORTS/vitest.json"
+
+E2E_RC=0
+if [ "${PENDULA_SKIP_E2E:-}" != "1" ] && [ -f tests/e2e/vitest.e2e.config.ts ]; then
+  log "browser tests against the running product (throwaway database, demo seed)"
+  PENDULA_DATA="$TMP/product"; PENDULA_DB=pendula_e2e; PENDULA_PORT="$(free_port)"
+  product_env
+  if start_fakes && migrate_and_seed && build_portal && start_services; then
+    PENDULA_E2E_URL="http://127.0.0.1:$PENDULA_PORT" npx vitest run --config tests/e2e/vitest.e2e.config.ts \
+      --reporter=default --reporter=json --outputFile.json="$REPORTS/e2e.json"
+    E2E_RC=$?
+    count_vitest "$REPORTS/e2e.json"
+  else
+    E2E_RC=1; FAILED=$((FAILED + 1)); log "could not start the product for the browser tests"
+  fi
+  stop_product
+fi
+
+echo "$PASSED passed, $FAILED failed"
+[ "$FAILED" -eq 0 ] && [ "$UNIT_RC" -eq 0 ] && [ "$E2E_RC" -eq 0 ]
