@@ -155,7 +155,7 @@ export function readSensorCsv(text: string, fileName: string, options: ReadSenso
     if (text.charCodeAt(pos) === 35) fail(lineNo, undefined, "comment line after the column header");
     let cellStart = pos;
     for (let col = 0; col < nCols; col++) {
-      let cellEnd = col === nCols - 1 ? lineEnd : text.indexOf(",", cellStart);
+      const cellEnd = col === nCols - 1 ? lineEnd : text.indexOf(",", cellStart);
       if (cellEnd < 0 || cellEnd > lineEnd) {
         fail(lineNo, names[col], `expected ${nCols} cells, found ${col + 1}`);
       }

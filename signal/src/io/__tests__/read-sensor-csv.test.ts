@@ -163,7 +163,8 @@ describe("parseDecimal(text, start, end)", () => {
     ["5E2", 500],
     [" 2.5 ", 2.5],
     [".5", 0.5],
-    ["12345678901234567890", 12345678901234567890],
+    ["12345678901234567890", Number("12345678901234567890")],
+    ["0.1234567890123456789", Number("0.1234567890123456789")],
   ])("parses %s like Number()", (s, v) => expect(parseDecimal(s, 0, s.length)).toBe(v));
   it.each(["", "-", "1.2.3", "1e", "0x10", "NaN", "Infinity", "1,5", "e5"])("returns NaN for %j", (s) =>
     expect(parseDecimal(s, 0, s.length)).toBeNaN(),
