@@ -1,5 +1,6 @@
 import type { Knex } from "knex";
 import * as coreSchema from "../migrations/20261201090000_core_schema";
+import * as sessionTraces from "../migrations/20261201110000_session_traces";
 
 /**
  * Migrations are listed here with static imports rather than discovered on disk, so the same
@@ -8,6 +9,7 @@ import * as coreSchema from "../migrations/20261201090000_core_schema";
  */
 export const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261201090000_core_schema": coreSchema,
+  "20261201110000_session_traces": sessionTraces,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

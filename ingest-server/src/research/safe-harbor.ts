@@ -1,0 +1,81 @@
+import { createHmac } from "node:crypto";
+
+/**
+ * De-identification rules for research exports, applied under HIPAA Safe Harbor
+ * (45 CFR 164.514(b)(2)): the 18 identifier classes are removed or generalised before a row leaves
+ * the server. Each function names the paragraph it serves.
+ */
+
+/** Smallest number of distinct subjects a published cell may describe (k-anonymity, Sweeney 2002, from memory). */
+export const MIN_CELL_SUBJECTS = 5;
+
+/**
+ * 164.514(b)(2)(i)(R) and (c): a re-identification code must not be derived from an identifier in a
+ * way that can be reversed. A keyed HMAC-SHA256 of the internal patient id cannot be inverted
+ * without the key, stays stable for the whole study (same key → same id) and differs between
+ * studies that use different keys. The key never leaves the server.
+ */
+export function pseudonymousSubjectId(key: string, patientId: string): string {
+  if (key.length < 16) throw new RangeError("research HMAC key must be at least 16 characters");
+  return `sub-${createHmac("sha256", key).update(patientId, "utf8").digest("hex").slice(0, 24)}`;
+}
+
+/**
+ * 164.514(b)(2)(i)(C): ages over 89 are aggregated into one "90+" category; below that we publish
+ * 5-year bands ("60-64") rather than exact ages. Age is computed from years only, because the
+ * birth year is the only date element Safe Harbor lets us keep.
+ */
+export function ageBand(ageYears: number): string {
+  if (!Number.isFinite(ageYears) || ageYears < 0) throw new RangeError(`age must be a non-negative number, got ${ageYears}`);
+  if (ageYears >= 90) return "90+";
+  const low = Math.floor(ageYears / 5) * 5;
+  return `${low}-${low + 4}`;
+}
+
+export const AGE_BANDS: readonly string[] = [
+  ...Array.from({ length: 18 }, (_, i) => `${i * 5}-${i * 5 + 4}`),
+  "90+",
+];
+
+/**
+ * Age at enrolment in whole years from the birth year and the enrolment year. Using enrolment keeps a
+ * subject in one age band for the whole study, so suppression decisions do not change week by week.
+ */
+export function ageAtEnrolment(birthYear: number, enrolledOn: Date): number {
+  return enrolledOn.getUTCFullYear() - birthYear;
+}
+
+const MS_PER_WEEK = 7 * 24 * 3600 * 1000;
+
+/**
+ * 164.514(b)(2)(i)(C): all date elements except the year are removed. Sessions are placed on a study
+ * clock (whole weeks since enrolment, week 0 = the first seven days) instead of a calendar date.
+ */
+export function weeksSinceEnrolment(recordedAt: Date, enrolledOn: Date): number {
+  return Math.floor((recordedAt.getTime() - enrolledOn.getTime()) / MS_PER_WEEK);
+}
+
+/**
+ * Cell suppression: a group of fewer than MIN_CELL_SUBJECTS distinct subjects is withheld, because
+ * a rare combination of quasi-identifiers (condition × age band) can single a person out even after
+ * the direct identifiers of 164.514(b)(2)(i) are gone.
+ */
+export function suppressSmallCells<T>(
+  rows: readonly T[],
+  cellOf: (row: T) => string,
+  subjectOf: (row: T) => string,
+  k = MIN_CELL_SUBJECTS,
+): { kept: T[]; cells: Array<{ cell: string; subjects: number; suppressed: boolean }> } {
+  const subjects = new Map<string, Set<string>>();
+  for (const row of rows) {
+    const cell = cellOf(row);
+    let set = subjects.get(cell);
+    if (!set) subjects.set(cell, (set = new Set()));
+    set.add(subjectOf(row));
+  }
+  const cells = [...subjects.entries()]
+    .map(([cell, set]) => ({ cell, subjects: set.size, suppressed: set.size < k }))
+    .sort((a, b) => a.cell.localeCompare(b.cell));
+  const suppressed = new Set(cells.filter((c) => c.suppressed).map((c) => c.cell));
+  return { kept: rows.filter((row) => !suppressed.has(cellOf(row))), cells };
+}
