@@ -1,0 +1,83 @@
+import fili from "fili";
+import { describe, expect, it } from "vitest";
+import { bandPassAroundFundamental, zeroPhaseBandPass } from "../band-pass";
+import { bandPassMagnitude, butterworthBandPassSections } from "../butterworth-band-pass-sections";
+import { scipyReference } from "./scipy-reference";
+
+describe("butterworthBandPassSections(order, lowHz, highHz, sampleRateHz)", () => {
+  // Source: scipy.signal.butter(4, [lo, hi], "bandpass", fs, output="sos") + sosfreqz, SciPy 1.17.
+  for (const ref of scipyReference.bandpass) {
+    it(`has SciPy's magnitude response at ${ref.fs} Hz, f0 ${ref.f0} Hz (tolerance 1e-9)`, () => {
+      const sections = butterworthBandPassSections(4, ref.lowHz, ref.highHz, ref.fs);
+      expect(sections).toHaveLength(4);
+      ref.responseHz.forEach((f, i) => {
+        expect(Math.abs(bandPassMagnitude(sections, f, ref.fs) - ref.responseMagnitude[i]!)).toBeLessThan(1e-9);
+      });
+    });
+  }
+
+  // Butterworth definition: |H| = 1/√2 at both edges, 1 at the (pre-warped) geometric centre.
+  it("is −3.01 dB at both edges and 0 dB at the warped geometric centre", () => {
+    const fs = 200;
+    const s = butterworthBandPassSections(4, 0.63, 1.17, fs);
+    expect(bandPassMagnitude(s, 0.63, fs)).toBeCloseTo(Math.SQRT1_2, 10);
+    expect(bandPassMagnitude(s, 1.17, fs)).toBeCloseTo(Math.SQRT1_2, 10);
+    const w0 = Math.sqrt(Math.tan((Math.PI * 0.63) / fs) * Math.tan((Math.PI * 1.17) / fs));
+    expect(bandPassMagnitude(s, (fs / Math.PI) * Math.atan(w0), fs)).toBeCloseTo(1, 10);
+  });
+
+  it("rejects edges in the wrong order or above Nyquist", () => {
+    expect(() => butterworthBandPassSections(4, 2, 1, 100)).toThrow(RangeError);
+    expect(() => butterworthBandPassSections(4, 1, 60, 100)).toThrow(RangeError);
+  });
+});
+
+describe("zeroPhaseBandPass(x, sampleRateHz, lowHz, highHz)", () => {
+  // Source: scipy.signal.sosfiltfilt (SciPy 1.17). Edge handling differs by design (see
+  // band-pass.ts); the difference decays with a time constant of about 2 cycles of f0, so samples
+  // within 16 cycles of either end are not compared, and the centre is held to a tighter bound.
+  for (const ref of scipyReference.bandpass) {
+    it(`matches sosfiltfilt away from the ends at ${ref.fs} Hz (1e-3, centre 1e-4; tone amplitude 1.5)`, () => {
+      const y = zeroPhaseBandPass(ref.x, ref.fs, ref.lowHz, ref.highHz);
+      const margin = Math.ceil((16 * ref.fs) / ref.f0);
+      let err = 0;
+      for (let i = margin; i < ref.y.length - margin; i++) err = Math.max(err, Math.abs(y[i]! - ref.y[i]!));
+      expect(ref.y.length - 2 * margin).toBeGreaterThan(ref.fs * 10);
+      expect(err).toBeLessThan(1e-3);
+      const mid = Math.floor(ref.y.length / 2);
+      let centre = 0;
+      for (let i = mid - 2 * ref.fs; i < mid + 2 * ref.fs; i++) centre = Math.max(centre, Math.abs(y[i]! - ref.y[i]!));
+      expect(centre).toBeLessThan(1e-4);
+    });
+  }
+
+  it("keeps a tone at the centre in phase (zero phase) and removes DC", () => {
+    const fs = 50;
+    const f0 = 1.1;
+    const x = Float64Array.from({ length: fs * 60 }, (_, i) => 5 + Math.cos(2 * Math.PI * f0 * (i / fs)));
+    const y = bandPassAroundFundamental(x, fs, f0);
+    // Peak of the output near the middle must sit on a peak of the input (cos = 1).
+    const mid = Math.round((30 * fs) / 1);
+    let best = mid;
+    for (let i = mid - 25; i <= mid + 25; i++) if (y[i]! > y[best]!) best = i;
+    const phase = (2 * Math.PI * f0 * best) / fs;
+    expect(Math.cos(phase)).toBeGreaterThan(0.99);
+    expect(Math.abs(y[best]! - 1)).toBeLessThan(0.02);
+  });
+
+  it("returns an empty array for empty input", () => {
+    expect(zeroPhaseBandPass([], 100, 1, 2).length).toBe(0);
+  });
+});
+
+describe("fili CalcCascades lowpass (why the band-pass is designed here and only run by fili)", () => {
+  // Source: scipy.signal.butter(4, 5, fs=100, output="sos") + sosfreqz. fili's `order` counts biquads.
+  it("fili's Butterworth low-pass, order 2 biquads, equals SciPy's butter(4, 5, fs=100) (1e-9)", () => {
+    const ref = scipyReference.lowpass;
+    const design = new fili.CalcCascades().lowpass({ order: 2, characteristic: "butterworth", Fs: ref.fs, Fc: ref.cutoffHz });
+    const filter = new fili.IirFilter(design) as unknown as { responsePoint(p: { Fs: number; Fr: number }): { magnitude: number } };
+    ref.responseHz.forEach((f, i) => {
+      expect(Math.abs(filter.responsePoint({ Fs: ref.fs, Fr: f }).magnitude - ref.responseMagnitude[i]!)).toBeLessThan(1e-9);
+    });
+  });
+});

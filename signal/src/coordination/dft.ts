@@ -1,0 +1,149 @@
+import FFT from "fft.js";
+
+// Discrete Fourier transform of any length. Powers of two go straight to fft.js (radix-4);
+// other lengths use Bluestein's chirp-z algorithm on a power-of-two convolution, so results
+// match an exact DFT (and SciPy's pocketfft) to rounding, with no zero-padding of the data.
+// Bluestein: X_k = c_k · Σ_n (x_n c_n) · conj(c_{k−n}), c_k = exp(−iπk²/N)
+// (L. Bluestein 1970; see e.g. https://en.wikipedia.org/wiki/Chirp_Z-transform#Bluestein's_algorithm).
+
+interface BluesteinPlan {
+  n: number;
+  m: number;
+  fft: FFT;
+  /** Chirp c_k = exp(−iπk²/N), interleaved re/im, length 2N. */
+  chirp: Float64Array;
+  /** FFT of the conjugate chirp filter, length 2M interleaved. */
+  filterSpectrum: number[];
+}
+
+// Plans are cached by size: the analysis transforms a few signals of one length per session.
+const fftCache = new Map<number, FFT>();
+let lastPlan: BluesteinPlan | null = null;
+
+function fftOfSize(size: number): FFT {
+  let f = fftCache.get(size);
+  if (!f) {
+    if (fftCache.size > 8) fftCache.clear();
+    f = new FFT(size);
+    fftCache.set(size, f);
+  }
+  return f;
+}
+
+function isPowerOfTwo(n: number): boolean {
+  return n >= 2 && (n & (n - 1)) === 0;
+}
+
+function bluesteinPlan(n: number): BluesteinPlan {
+  if (lastPlan && lastPlan.n === n) return lastPlan;
+  let m = 2;
+  while (m < 2 * n - 1) m *= 2;
+  const fft = fftOfSize(m);
+  const chirp = new Float64Array(2 * n);
+  // k² mod 2N keeps the angle small, so the chirp stays exact to rounding for large N.
+  let k2 = 0;
+  const twoN = 2 * n;
+  for (let k = 0; k < n; k++) {
+    const angle = (-Math.PI * k2) / n;
+    chirp[2 * k] = Math.cos(angle);
+    chirp[2 * k + 1] = Math.sin(angle);
+    k2 = (k2 + 2 * k + 1) % twoN;
+  }
+  const filter = fft.createComplexArray() as number[];
+  filter.fill(0);
+  filter[0] = chirp[0]!;
+  filter[1] = -chirp[1]!;
+  for (let k = 1; k < n; k++) {
+    const re = chirp[2 * k]!;
+    const im = -chirp[2 * k + 1]!;
+    filter[2 * k] = re;
+    filter[2 * k + 1] = im;
+    filter[2 * (m - k)] = re;
+    filter[2 * (m - k) + 1] = im;
+  }
+  const filterSpectrum = fft.createComplexArray() as number[];
+  fft.transform(filterSpectrum, filter);
+  lastPlan = { n, m, fft, chirp, filterSpectrum };
+  return lastPlan;
+}
+
+/**
+ * Forward DFT X_k = Σ x_n e^{−2πikn/N} of a complex sequence given as separate real and imaginary
+ * parts (imag may be null for real input). Returns new arrays; inputs are not modified.
+ */
+export function dft(
+  real: ArrayLike<number>,
+  imag: ArrayLike<number> | null,
+): { re: Float64Array; im: Float64Array } {
+  const n = real.length;
+  if (imag && imag.length !== n) throw new RangeError(`real and imag must have the same length (${n} vs ${imag.length})`);
+  const re = new Float64Array(n);
+  const im = new Float64Array(n);
+  if (n === 0) return { re, im };
+  if (n === 1) {
+    re[0] = real[0]!;
+    im[0] = imag ? imag[0]! : 0;
+    return { re, im };
+  }
+  if (isPowerOfTwo(n)) {
+    const fft = fftOfSize(n);
+    const input = fft.createComplexArray() as number[];
+    for (let i = 0; i < n; i++) {
+      input[2 * i] = real[i]!;
+      input[2 * i + 1] = imag ? imag[i]! : 0;
+    }
+    const out = fft.createComplexArray() as number[];
+    fft.transform(out, input);
+    for (let i = 0; i < n; i++) {
+      re[i] = out[2 * i]!;
+      im[i] = out[2 * i + 1]!;
+    }
+    return { re, im };
+  }
+  const plan = bluesteinPlan(n);
+  const { m, fft, chirp, filterSpectrum } = plan;
+  const a = fft.createComplexArray() as number[];
+  a.fill(0);
+  for (let k = 0; k < n; k++) {
+    const xr = real[k]!;
+    const xi = imag ? imag[k]! : 0;
+    const cr = chirp[2 * k]!;
+    const ci = chirp[2 * k + 1]!;
+    a[2 * k] = xr * cr - xi * ci;
+    a[2 * k + 1] = xr * ci + xi * cr;
+  }
+  const spectrum = fft.createComplexArray() as number[];
+  fft.transform(spectrum, a);
+  for (let k = 0; k < m; k++) {
+    const ar = spectrum[2 * k]!;
+    const ai = spectrum[2 * k + 1]!;
+    const br = filterSpectrum[2 * k]!;
+    const bi = filterSpectrum[2 * k + 1]!;
+    spectrum[2 * k] = ar * br - ai * bi;
+    spectrum[2 * k + 1] = ar * bi + ai * br;
+  }
+  // fft.js's inverseTransform divides by the size M, which is what the convolution needs.
+  fft.inverseTransform(a, spectrum);
+  for (let k = 0; k < n; k++) {
+    const yr = a[2 * k]!;
+    const yi = a[2 * k + 1]!;
+    const cr = chirp[2 * k]!;
+    const ci = chirp[2 * k + 1]!;
+    re[k] = yr * cr - yi * ci;
+    im[k] = yr * ci + yi * cr;
+  }
+  return { re, im };
+}
+
+/** Inverse DFT x_n = (1/N) Σ X_k e^{+2πikn/N}, via conj(DFT(conj X))/N. */
+export function inverseDft(real: ArrayLike<number>, imag: ArrayLike<number>): { re: Float64Array; im: Float64Array } {
+  const n = real.length;
+  const negImag = new Float64Array(n);
+  for (let i = 0; i < n; i++) negImag[i] = -imag[i]!;
+  const out = dft(real, negImag);
+  for (let i = 0; i < n; i++) {
+    out.re[i] = out.re[i]! / n;
+    out.im[i] = -out.im[i]! / n;
+  }
+  return out;
+}

@@ -1,0 +1,10 @@
+export { armLegCoupling, UNAVAILABLE_COUPLING } from "./arm-leg-coupling";
+export { bandPassAroundFundamental, zeroPhaseBandPass, BAND_LOW_FACTOR, BAND_HIGH_FACTOR, BAND_PASS_ORDER } from "./band-pass";
+export { butterworthBandPassSections, bandPassMagnitude, type BandPassSection } from "./butterworth-band-pass-sections";
+export { circularStats, type CircularSummary } from "./circular-stats";
+export { dft, inverseDft } from "./dft";
+export { dominantFrequency, type DominantFrequency, type DominantFrequencyOptions } from "./dominant-frequency";
+export { frequencyRatio, RATIO_SNAP_TOLERANCE } from "./frequency-ratio";
+export { hilbert, hilbertPhase } from "./hilbert";
+export { relativePhase, wrapPi } from "./relative-phase";
+export { welchPsd, type WelchOptions, type WelchResult } from "./welch-psd";
