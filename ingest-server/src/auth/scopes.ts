@@ -1,0 +1,71 @@
+import type { Role } from "../contracts/enums";
+
+/**
+ * Every permission a route can ask for. Tokens carry the scopes of their role; routes check scopes,
+ * never roles, so a new role is one line here. Which *patients* a scope reaches (own / caseload /
+ * identity only) is decided per request by auth/patient-access.ts.
+ */
+export const SCOPES = [
+  // patient
+  "sessions:read:own",
+  "sessions:write:own",
+  // clinician
+  "patients:read:caseload",
+  "sessions:read:caseload",
+  "sessions:write:caseload",
+  "notes:read",
+  "notes:write",
+  "training:read",
+  "training:write",
+  // researcher
+  "research:read",
+  // admin
+  "users:read",
+  "users:write",
+  "devices:read",
+  "devices:write",
+  "assignments:read",
+  "assignments:write",
+  "audit:read",
+  "mailbox:read",
+  "patients:list",
+  // admin (any role) and clinician (patients only; enforced by the invitations service)
+  "invitations:write",
+] as const;
+
+export type Scope = (typeof SCOPES)[number];
+
+export const ROLE_SCOPES: Record<Role, readonly Scope[]> = {
+  patient: ["sessions:read:own", "sessions:write:own"],
+  clinician: [
+    "patients:read:caseload",
+    "sessions:read:caseload",
+    "sessions:write:caseload",
+    "notes:read",
+    "notes:write",
+    "training:read",
+    "training:write",
+    "invitations:write",
+  ],
+  researcher: ["research:read"],
+  admin: [
+    "users:read",
+    "users:write",
+    "devices:read",
+    "devices:write",
+    "assignments:read",
+    "assignments:write",
+    "audit:read",
+    "invitations:write",
+    "mailbox:read",
+    "patients:list",
+  ],
+};
+
+export function scopesFor(role: Role): Scope[] {
+  return [...ROLE_SCOPES[role]];
+}
+
+export function hasAnyScope(granted: readonly string[], wanted: readonly Scope[]): boolean {
+  return wanted.some((s) => granted.includes(s));
+}

@@ -1,0 +1,123 @@
+import { z } from "zod";
+
+/**
+ * Server configuration, parsed once at start-up from the environment. A bad environment fails with
+ * every problem listed at once, so a deploy is fixed in one round instead of one variable at a time.
+ */
+const int = (fallback: number, min: number, max: number) => z.coerce.number().int().min(min).max(max).default(fallback);
+const secret = (name: string) =>
+  z.string({ error: `${name} is required` }).min(32, { error: `${name} must be at least 32 characters` });
+
+export const envSchema = z.object({
+  NODE_ENV: z.enum(["development", "test", "production"]).default("development"),
+  PORT: int(8641, 1, 65535),
+  // The server only ever binds loopback; a reverse proxy in front of it terminates TLS.
+  HOST: z.literal("127.0.0.1", { error: "HOST must be 127.0.0.1 (the server binds loopback only)" }).default("127.0.0.1"),
+  DATABASE_URL: z.url({ protocol: /^postgres(ql)?$/, error: "DATABASE_URL must be a postgres:// URL" }),
+  JWT_SECRET: secret("JWT_SECRET"),
+  ACCESS_TOKEN_TTL_S: int(900, 30, 86_400),
+  REFRESH_TTL_DAYS: int(14, 1, 90),
+  INVITATION_TTL_DAYS: int(7, 1, 30),
+  PASSWORD_RESET_TTL_MIN: int(60, 5, 1440),
+  S3_ENDPOINT: z.url().optional(),
+  S3_BUCKET: z.string().min(3).default("pendula-raw"),
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  S3_ACCESS_KEY_ID: z.string({ error: "S3_ACCESS_KEY_ID is required" }).min(1),
+  S3_SECRET_ACCESS_KEY: z.string({ error: "S3_SECRET_ACCESS_KEY is required" }).min(1),
+  SMTP_HOST: z.string().min(1).default("127.0.0.1"),
+  SMTP_PORT: int(2525, 1, 65535),
+  MAIL_FROM: z.string().min(3).default("Pendula <no-reply@pendula.invalid>"),
+  PUBLIC_URL: z.url().default("http://127.0.0.1:8641"),
+  BCRYPT_COST: int(12, 4, 15),
+  UPLOAD_MAX_FILES: int(8, 1, 32),
+  UPLOAD_MAX_FILE_BYTES: int(50 * 1024 * 1024, 1024, 1024 * 1024 * 1024),
+  JSON_BODY_LIMIT: z.string().default("100kb"),
+  LOGIN_RATE_LIMIT: int(10, 1, 10_000),
+  LOGIN_RATE_WINDOW_S: int(900, 1, 86_400),
+  RESEARCH_HMAC_KEY: secret("RESEARCH_HMAC_KEY"),
+  // Only behind a reverse proxy on this machine: then X-Forwarded-For from loopback names the client.
+  TRUST_PROXY: z.enum(["0", "1", "false", "true"]).default("0"),
+  QUEUE_SCHEMA: z
+    .string()
+    .regex(/^[a-z_][a-z0-9_]*$/, { error: "QUEUE_SCHEMA must be a lower-case SQL identifier" })
+    .default("pgboss"),
+  // Folder the SMTP fake writes captured messages to; enables GET /api/dev/mailbox when set.
+  DEV_MAILBOX_DIR: z.string().min(1).optional(),
+  // Built portal; defaults to ../portal/dist relative to the ingest-server package.
+  PORTAL_DIST: z.string().min(1).optional(),
+});
+
+export type Env = z.output<typeof envSchema>;
+
+export interface Config {
+  env: Env["NODE_ENV"];
+  port: number;
+  host: "127.0.0.1";
+  databaseUrl: string;
+  jwtSecret: string;
+  accessTokenTtlS: number;
+  refreshTtlDays: number;
+  invitationTtlDays: number;
+  passwordResetTtlMin: number;
+  s3: { endpoint?: string; bucket: string; region: string; accessKeyId: string; secretAccessKey: string };
+  smtp: { host: string; port: number; from: string };
+  publicUrl: string;
+  /** True when PUBLIC_URL is https: cookies then carry the Secure flag. */
+  secureCookies: boolean;
+  bcryptCost: number;
+  upload: { maxFiles: number; maxFileBytes: number };
+  jsonBodyLimit: string;
+  loginRateLimit: { max: number; windowS: number };
+  researchHmacKey: string;
+  trustProxy: boolean;
+  queueSchema: string;
+  devMailboxDir?: string;
+  portalDist?: string;
+}
+
+export class ConfigError extends Error {
+  constructor(readonly problems: string[]) {
+    super(`Invalid environment:\n${problems.map((p) => `  - ${p}`).join("\n")}`);
+    this.name = "ConfigError";
+  }
+}
+
+export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
+  // Empty strings count as unset, so `FOO=` in a shell falls back to the default.
+  const cleaned = Object.fromEntries(Object.entries(source).filter(([, v]) => v !== undefined && v !== ""));
+  const parsed = envSchema.safeParse(cleaned);
+  if (!parsed.success) {
+    throw new ConfigError(parsed.error.issues.map((i) => `${i.path.join(".") || "(root)"}: ${i.message}`));
+  }
+  const e = parsed.data;
+  return {
+    env: e.NODE_ENV,
+    port: e.PORT,
+    host: e.HOST,
+    databaseUrl: e.DATABASE_URL,
+    jwtSecret: e.JWT_SECRET,
+    accessTokenTtlS: e.ACCESS_TOKEN_TTL_S,
+    refreshTtlDays: e.REFRESH_TTL_DAYS,
+    invitationTtlDays: e.INVITATION_TTL_DAYS,
+    passwordResetTtlMin: e.PASSWORD_RESET_TTL_MIN,
+    s3: {
+      endpoint: e.S3_ENDPOINT,
+      bucket: e.S3_BUCKET,
+      region: e.S3_REGION,
+      accessKeyId: e.S3_ACCESS_KEY_ID,
+      secretAccessKey: e.S3_SECRET_ACCESS_KEY,
+    },
+    smtp: { host: e.SMTP_HOST, port: e.SMTP_PORT, from: e.MAIL_FROM },
+    publicUrl: e.PUBLIC_URL.replace(/\/+$/, ""),
+    secureCookies: e.PUBLIC_URL.startsWith("https:"),
+    bcryptCost: e.BCRYPT_COST,
+    upload: { maxFiles: e.UPLOAD_MAX_FILES, maxFileBytes: e.UPLOAD_MAX_FILE_BYTES },
+    jsonBodyLimit: e.JSON_BODY_LIMIT,
+    loginRateLimit: { max: e.LOGIN_RATE_LIMIT, windowS: e.LOGIN_RATE_WINDOW_S },
+    researchHmacKey: e.RESEARCH_HMAC_KEY,
+    trustProxy: e.TRUST_PROXY === "1" || e.TRUST_PROXY === "true",
+    queueSchema: e.QUEUE_SCHEMA,
+    devMailboxDir: e.DEV_MAILBOX_DIR,
+    portalDist: e.PORTAL_DIST,
+  };
+}

@@ -1,0 +1,15 @@
+// The database's enumerations, re-exported for the contracts. The relative path (not "@pendula/db")
+// keeps the portal bundle free of knex: enums.ts imports nothing.
+export {
+  ROLES,
+  USER_STATUSES,
+  SEXES,
+  CONDITIONS,
+  DEVICE_KINDS,
+  DEVICE_STATUSES,
+  PLACEMENTS,
+  SESSION_STATUSES,
+  FILE_FORMATS,
+  TRAINING_KINDS,
+} from "../../../db/src/enums";
+export type { Role, Condition, SessionStatus } from "../../../db/src/enums";

@@ -1,0 +1,4 @@
+// Request and response schemas shared by the server and the portal. Only zod and the enum lists:
+// nothing here may import server code (knex, express, node built-ins).
+export * from "./enums";
+export * from "./common";

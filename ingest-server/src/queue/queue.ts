@@ -1,0 +1,124 @@
+import PgBoss from "pg-boss";
+
+/** Queue names: one constant per kind of job, shared by producers and workers. */
+export const QUEUES = {
+  processSession: "process-session",
+  sendEmail: "send-email",
+  clinicalChange: "clinical-change",
+} as const;
+export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
+
+export interface SendOptions {
+  /** At most one queued/active job per key (pg-boss singleton). */
+  singletonKey?: string;
+  retryLimit?: number;
+  /** Seconds before the first retry. */
+  retryDelay?: number;
+  /** Exponential backoff from retryDelay. */
+  retryBackoff?: boolean;
+}
+
+export interface QueueJob<T> {
+  id: string;
+  name: string;
+  data: T;
+  /** 0 on the first attempt. */
+  retryCount: number;
+  retryLimit: number;
+}
+
+export interface WorkOptions {
+  /** Jobs fetched and handled one after another per poll (default 1). */
+  batchSize?: number;
+  pollingIntervalSeconds?: number;
+}
+
+export interface JobQueue {
+  /** Resolves with the job id, or null when a singletonKey job is already waiting. */
+  send(name: string, data: object, options?: SendOptions): Promise<string | null>;
+  /**
+   * Runs `handler` for each job. A thrown error fails the attempt; pg-boss retries it until
+   * retryLimit and then marks it failed (and moves it to `<name>-dead` when that queue exists).
+   */
+  work<T extends object>(name: string, handler: (job: QueueJob<T>) => Promise<void>, options?: WorkOptions): Promise<string>;
+  start(): Promise<void>;
+  stop(): Promise<void>;
+}
+
+export const DEFAULT_RETRY: Required<Omit<SendOptions, "singletonKey">> = { retryLimit: 3, retryDelay: 5, retryBackoff: true };
+
+/**
+ * pg-boss in its own schema of the application database. Any number of processes on any machines
+ * may call work() on the same queue: pg-boss hands each job to one of them (SELECT … FOR UPDATE SKIP
+ * LOCKED), so workers scale by just starting more of them.
+ */
+export class PgBossQueue implements JobQueue {
+  private readonly boss: PgBoss;
+  private readonly created = new Set<string>();
+  private started = false;
+
+  constructor(connectionString: string, options: { schema?: string; max?: number; application?: string } = {}) {
+    this.boss = new PgBoss({
+      connectionString,
+      schema: options.schema ?? "pgboss",
+      max: options.max ?? 4,
+      application_name: options.application ?? "pendula",
+      // Jobs still active after this long are treated as crashed and retried.
+      expireInSeconds: 15 * 60,
+      ...DEFAULT_RETRY,
+    });
+    this.boss.on("error", (err) => console.error("[queue]", err));
+  }
+
+  async start(): Promise<void> {
+    if (this.started) return;
+    await this.boss.start();
+    this.started = true;
+  }
+
+  async stop(): Promise<void> {
+    if (!this.started) return;
+    this.started = false;
+    await this.boss.stop({ graceful: true, wait: true, timeout: 10_000 });
+  }
+
+  /** pg-boss 10 needs a queue to exist before send/work; creating it is idempotent. */
+  private async ensureQueue(name: string): Promise<void> {
+    if (this.created.has(name)) return;
+    await this.boss.createQueue(name, { name, ...DEFAULT_RETRY });
+    this.created.add(name);
+  }
+
+  async send(name: string, data: object, options: SendOptions = {}): Promise<string | null> {
+    await this.start();
+    await this.ensureQueue(name);
+    return this.boss.send(name, data, { ...DEFAULT_RETRY, ...options });
+  }
+
+  async work<T extends object>(
+    name: string,
+    handler: (job: QueueJob<T>) => Promise<void>,
+    options: WorkOptions = {},
+  ): Promise<string> {
+    await this.start();
+    await this.ensureQueue(name);
+    return this.boss.work<T>(
+      name,
+      { includeMetadata: true, batchSize: options.batchSize ?? 1, pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
+      async (jobs) => {
+        // With a batch, pg-boss settles every job of the batch together; one at a time keeps one
+        // job's failure from failing its neighbours.
+        for (const job of jobs) {
+          await handler({ id: job.id, name: job.name, data: job.data, retryCount: job.retryCount, retryLimit: job.retryLimit });
+        }
+      },
+    );
+  }
+
+  /** State of one job (tests and the reprocess route use it). */
+  async getJob(name: string, id: string): Promise<{ state: string; retryCount: number; output: unknown } | null> {
+    await this.start();
+    const job = await this.boss.getJobById(name, id, { includeArchive: true });
+    return job ? { state: job.state, retryCount: job.retryCount, output: job.output } : null;
+  }
+}

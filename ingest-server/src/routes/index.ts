@@ -1,0 +1,8 @@
+import type { RouteModule } from "../http/api-router";
+
+/**
+ * The route table: every resource module mounted by createApp, in order. Add a module here and it
+ * is mounted, documented in /api/openapi.json and enumerated by listEndpoints(app).
+ * Each module lives in routes/<resource>/<resource>.router.ts and exports one RouteModule.
+ */
+export const ROUTE_TABLE: RouteModule[] = [];

@@ -1,0 +1,45 @@
+import type { AddressInfo } from "node:net";
+import { createApp } from "./app";
+import { ConfigError, loadConfig } from "./config/env";
+import { createRuntime } from "./runtime";
+
+/**
+ * `npm start -w ingest-server`: the HTTP server on 127.0.0.1 only. Prints its URL on a line of its
+ * own (scripts wait for it) and drains connections on SIGINT/SIGTERM.
+ */
+let config;
+try {
+  config = loadConfig();
+} catch (err) {
+  if (err instanceof ConfigError) {
+    console.error(err.message);
+    process.exit(2);
+  }
+  throw err;
+}
+
+const runtime = createRuntime(config, { application: "pendula-server" });
+const app = createApp(runtime.deps);
+const server = app.listen(config.port, config.host, () => {
+  const { port } = server.address() as AddressInfo;
+  console.log(`http://127.0.0.1:${port}`);
+});
+server.on("error", (err) => {
+  console.error(`cannot listen on 127.0.0.1:${config.port}:`, err.message);
+  process.exit(1);
+});
+
+let stopping = false;
+async function shutdown(signal: string): Promise<void> {
+  if (stopping) return;
+  stopping = true;
+  console.error(`${signal}: closing`);
+  const force = setTimeout(() => process.exit(1), 10_000);
+  force.unref();
+  server.closeIdleConnections();
+  await new Promise<void>((resolve) => server.close(() => resolve()));
+  await runtime.close();
+  process.exit(0);
+}
+process.on("SIGINT", () => void shutdown("SIGINT"));
+process.on("SIGTERM", () => void shutdown("SIGTERM"));
