@@ -1,0 +1,69 @@
+import { z } from "zod";
+
+/*
+ * The cohort a researcher asks for. The option lists mirror the server's enumerations; the server
+ * validates again, so a stale list here fails with a 400 rather than exporting the wrong cohort.
+ */
+export const CONDITION_OPTIONS = [
+  { value: "incomplete_sci", label: "Incomplete spinal cord injury" },
+  { value: "stroke", label: "Stroke" },
+  { value: "parkinsons", label: "Parkinson's disease" },
+  { value: "other", label: "Other condition" },
+] as const;
+
+/** 5-year bands with everyone 90 or older in one group (HIPAA Safe Harbor, 45 CFR 164.514(b)(2)(i)(C)). */
+export const AGE_BAND_OPTIONS: readonly string[] = [
+  ...Array.from({ length: 14 }, (_, i) => `${20 + i * 5}-${24 + i * 5}`),
+  "90+",
+];
+
+export const METRIC_OPTIONS = [
+  { value: "cadenceStepsPerMin", label: "Cadence (steps/min)" },
+  { value: "strideTimeMeanS", label: "Stride time, mean (s)" },
+  { value: "strideTimeCvPct", label: "Stride time variability, CV (%)" },
+  { value: "stancePctLeft", label: "Stance, left (% of stride)" },
+  { value: "stancePctRight", label: "Stance, right (% of stride)" },
+  { value: "doubleSupportPct", label: "Double support (% of stride)" },
+  { value: "phaseCoordinationIndexPct", label: "Phase Coordination Index (%)" },
+  { value: "gaitAsymmetryPct", label: "Gait asymmetry, swing (%)" },
+  { value: "armLegLeftArmRightLegFrequencyRatio", label: "Left arm–right leg frequency ratio" },
+  { value: "armLegRightArmLeftLegFrequencyRatio", label: "Right arm–left leg frequency ratio" },
+  { value: "armLegLeftArmRightLegCouplingStrength", label: "Left arm–right leg coupling strength (R)" },
+  { value: "armLegRightArmLeftLegCouplingStrength", label: "Right arm–left leg coupling strength (R)" },
+] as const;
+
+export const MAX_WEEKS_SINCE_ENROLMENT = 520;
+
+const week = z
+  .number({ error: "enter a whole number of weeks" })
+  .int({ error: "enter a whole number of weeks" })
+  .min(0, { error: "weeks start at 0 (the first week after enrolment)" })
+  .max(MAX_WEEKS_SINCE_ENROLMENT, { error: `at most ${MAX_WEEKS_SINCE_ENROLMENT} weeks` });
+
+export const cohortDefinitionSchema = z.object({
+  conditions: z
+    .array(z.enum(CONDITION_OPTIONS.map((c) => c.value) as [string, ...string[]]))
+    .min(1, { error: "choose at least one condition" }),
+  ageBands: z.array(z.enum(AGE_BAND_OPTIONS as [string, ...string[]])).min(1, { error: "choose at least one age band" }),
+  weeksSinceEnrolment: z
+    .object({ from: week, to: week })
+    .refine((w) => w.from <= w.to, { error: "the first week must not be after the last week", path: ["to"] }),
+  metrics: z.array(z.string().min(1)).min(1, { error: "choose at least one metric" }),
+});
+
+export type CohortDefinition = z.infer<typeof cohortDefinitionSchema>;
+
+export const DEFAULT_COHORT: CohortDefinition = {
+  conditions: ["incomplete_sci", "stroke"],
+  ageBands: AGE_BAND_OPTIONS.slice(),
+  weeksSinceEnrolment: { from: 0, to: 52 },
+  metrics: ["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct"],
+};
+
+export function conditionLabel(value: string): string {
+  return CONDITION_OPTIONS.find((c) => c.value === value)?.label ?? value;
+}
+
+export function metricLabel(value: string): string {
+  return METRIC_OPTIONS.find((m) => m.value === value)?.label ?? value;
+}
