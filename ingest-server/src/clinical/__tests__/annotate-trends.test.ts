@@ -1,0 +1,60 @@
+import { describe, expect, it } from "vitest";
+import { annotateTrends } from "../annotate-trends";
+import { CAUTION_LOCAL_PROTOCOL, CAUTION_MDC, CAUTION_PROMPT_NOT_DIAGNOSIS } from "../cautions";
+import { weekly } from "./helpers";
+
+// Invented scenario: a patient of the (fictional) Larchfield outpatient clinic, PD, born 1956.
+const patient = { birthYear: 1956, condition: "parkinsons", enrolledOn: "2026-09-01" };
+
+describe("annotateTrends", () => {
+  const result = annotateTrends({
+    patient,
+    metrics: [
+      { key: "strideTimeCvPct", unit: "%", points: weekly([2.1, 2.3, 2.2, 2.25, 3.5]) },
+      { key: "armLegLeftArmRightLegFrequencyRatio", unit: "1", points: weekly([2, 2, 2, 1, 1]) },
+      { key: "gaitAsymmetryPct", unit: "%", points: weekly([5, 6]) },
+    ],
+  });
+
+  it("flags the new sessions and keeps the input points", () => {
+    const cv = result.metrics[0]!;
+    expect(cv.points.map((p) => p.flag)).toEqual([undefined, undefined, undefined, "within-error", "worsened"]);
+    expect(cv.points[4]).toMatchObject({ sessionId: "s5", value: 3.5 });
+    expect(cv.mdc?.source).toBe("patient-baseline");
+    expect(cv.baseline?.n).toBe(3);
+  });
+
+  it("attaches the controls and PD stride-CV bands with citations (Frenkel-Toledo 2005) and none for asymmetry", () => {
+    expect(result.metrics[0]!.bands.map((b) => b.citation.startsWith("Frenkel-Toledo"))).toEqual([true, true]);
+    expect(result.metrics[2]!.bands).toEqual([]);
+    expect(result.metrics[2]!.baseline).toBeNull();
+  });
+
+  it("reports the 2:1 → 1:1 change as an event", () => {
+    expect(result.events).toHaveLength(1);
+    expect(result.events[0]).toMatchObject({ kind: "arm-leg-mode-change", sessionId: "s5", from: 2, to: 1 });
+  });
+
+  it("returns the cautions: MDC meaning, prompt not diagnosis, local protocols", () => {
+    expect(result.cautions).toEqual(expect.arrayContaining([CAUTION_MDC, CAUTION_PROMPT_NOT_DIAGNOSIS, CAUTION_LOCAL_PROTOCOL]));
+  });
+
+  it("passes options through: a 4-session baseline leaves only one flagged session", () => {
+    const r = annotateTrends({
+      patient,
+      metrics: [{ key: "strideTimeCvPct", unit: "%", points: weekly([2.1, 2.3, 2.2, 2.25, 3.5]) }],
+      options: { baselineSessions: 4 },
+    });
+    expect(r.metrics[0]!.points.filter((p) => p.flag)).toHaveLength(1);
+  });
+
+  it("picks age-limited bands from the age at the latest session (born 1956, 2026 → 70: no under-70 cadence band)", () => {
+    const r = annotateTrends({ patient, metrics: [{ key: "cadenceStepsPerMin", unit: "/min", points: weekly([100]) }] });
+    expect(r.metrics[0]!.bands.some((b) => /under 70/.test(b.label))).toBe(false);
+    const younger = annotateTrends({
+      patient: { ...patient, birthYear: 1980 },
+      metrics: [{ key: "cadenceStepsPerMin", unit: "/min", points: weekly([100]) }],
+    });
+    expect(younger.metrics[0]!.bands.some((b) => /under 70/.test(b.label))).toBe(true);
+  });
+});

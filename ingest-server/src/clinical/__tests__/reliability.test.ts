@@ -1,0 +1,105 @@
+import { describe, expect, it } from "vitest";
+import fixtures from "./fixtures/reliability-fixtures.json";
+import {
+  MDC95_FACTOR,
+  PATIENT_BASELINE_CITATION,
+  iccBand,
+  minimalDetectableChange95,
+  resolveMdc,
+  standardErrorOfMeasurement,
+} from "../reliability";
+import { mean, olsFit, sampleSd } from "../statistics";
+
+describe("standardErrorOfMeasurement and minimalDetectableChange95", () => {
+  it("reproduces the worked example SD 0.20, ICC 0.90 → SEM 0.06325, MDC95 0.1753 (DOMAIN.md check values; Weir 2005 formula)", () => {
+    const sem = standardErrorOfMeasurement(0.2, 0.9);
+    expect(sem).toBeCloseTo(0.06325, 4);
+    expect(minimalDetectableChange95(sem)).toBeCloseTo(0.1753, 4);
+  });
+
+  it("uses the factor 1.96·√2 = 2.7719 (DOMAIN.md §7 gives 2.772)", () => {
+    expect(MDC95_FACTOR).toBeCloseTo(2.7719, 4);
+    expect(MDC95_FACTOR).toBeCloseTo(fixtures.mdc95_factor, 12);
+  });
+
+  it.each(fixtures.sem_mdc)("matches the NumPy-generated fixture SD $sd, ICC $icc (generate-reliability-fixtures.py)", (f) => {
+    const sem = standardErrorOfMeasurement(f.sd, f.icc);
+    expect(sem).toBeCloseTo(f.sem, 10);
+    expect(minimalDetectableChange95(sem)).toBeCloseTo(f.mdc95, 10);
+  });
+
+  it("rejects an ICC outside [0, 1] and a negative SD", () => {
+    expect(() => standardErrorOfMeasurement(0.2, 1.2)).toThrow(RangeError);
+    expect(() => standardErrorOfMeasurement(-1, 0.5)).toThrow(RangeError);
+    expect(() => minimalDetectableChange95(Number.NaN)).toThrow(RangeError);
+  });
+});
+
+describe("iccBand (Koo & Li 2016 cut-offs, DOMAIN.md §7 — from memory)", () => {
+  it("places values on both sides of each cut-off", () => {
+    expect(iccBand(0.49)).toBe("poor");
+    expect(iccBand(0.5)).toBe("moderate");
+    expect(iccBand(0.566)).toBe("moderate"); // PCI ICC, Richmond 2025
+    expect(iccBand(0.75)).toBe("good");
+    expect(iccBand(0.9)).toBe("good");
+    expect(iccBand(0.91)).toBe("excellent");
+  });
+});
+
+describe("sample statistics against NumPy/SciPy fixtures", () => {
+  it.each(Object.entries(fixtures.sd))("mean and SD (ddof 1) of %s match numpy", (_name, f) => {
+    expect(mean(f.values)).toBeCloseTo(f.mean, 12);
+    expect(sampleSd(f.values)).toBeCloseTo(f.sd, 12);
+  });
+
+  it("stride CV of [1.10, 1.12, 1.08, 1.11, 1.09, 1.10] s is 1.2856 % (DOMAIN.md check value, ddof 1)", () => {
+    const v = fixtures.sd.stride.values;
+    expect((100 * sampleSd(v)) / mean(v)).toBeCloseTo(1.2856, 4);
+  });
+
+  it("OLS slope and intercept match scipy.stats.linregress", () => {
+    const fit = olsFit(fixtures.ols.x, fixtures.ols.y);
+    expect(fit.slope).toBeCloseTo(fixtures.ols.slope, 12);
+    expect(fit.intercept).toBeCloseTo(fixtures.ols.intercept, 12);
+  });
+
+  it("refuses empty, single-value and constant-x input", () => {
+    expect(() => mean([])).toThrow(RangeError);
+    expect(() => sampleSd([1])).toThrow(RangeError);
+    expect(() => olsFit([1, 1], [2, 3])).toThrow(RangeError);
+    expect(() => mean([1, Number.NaN])).toThrow(RangeError);
+  });
+});
+
+describe("resolveMdc", () => {
+  const baseline = { mean: 80, sd: 4, n: 3 };
+
+  it("uses Nair, Hornby & Behrman 2012 MDC% 21 % for cadence in incomplete SCI: 21 % of the baseline mean", () => {
+    const mdc = resolveMdc("cadenceStepsPerMin", "incomplete_sci", baseline);
+    expect(mdc?.source).toBe("published");
+    expect(mdc?.value).toBeCloseTo(16.8, 10); // 0.21 × 80
+    expect(mdc?.citation).toMatch(/Nair/);
+  });
+
+  it("uses Nair 2012 MDC% 80 % for double support in incomplete SCI", () => {
+    const mdc = resolveMdc("doubleSupportPct", "incomplete_sci", { mean: 30, sd: 2, n: 3 });
+    expect(mdc?.source).toBe("published");
+    expect(mdc?.value).toBeCloseTo(24, 10);
+  });
+
+  it("falls back to the patient's baseline for another condition: MDC95 = 2.7719 × baseline SD", () => {
+    const mdc = resolveMdc("cadenceStepsPerMin", "stroke", baseline);
+    expect(mdc?.source).toBe("patient-baseline");
+    expect(mdc?.value).toBeCloseTo(4 * 2.7718585822512662, 10);
+    expect(mdc?.citation).toBe(PATIENT_BASELINE_CITATION);
+  });
+
+  it("falls back to the baseline for an iSCI metric with no published value in our notes (stride CV)", () => {
+    expect(resolveMdc("strideTimeCvPct", "incomplete_sci", baseline)?.source).toBe("patient-baseline");
+  });
+
+  it("gives no MDC without a baseline or with a zero baseline SD", () => {
+    expect(resolveMdc("strideTimeCvPct", "stroke", null)).toBeNull();
+    expect(resolveMdc("strideTimeCvPct", "stroke", { mean: 2, sd: 0, n: 3 })).toBeNull();
+  });
+});

@@ -1,0 +1,78 @@
+/** The one entry point the trends route calls: flags, baselines, MDC, bands and events per metric. */
+import { flagMetricChanges, type ChangeOptions, type FlaggedPoint, type SlopeFlag } from "./change-flags";
+import { detectCoordinationEvents, type CoordinationEvent } from "./coordination-events";
+import { CLINICAL_CAUTIONS } from "./cautions";
+import { bandsFor } from "./reference-bands";
+import type { Baseline, Mdc } from "./reliability";
+import type { MetricDirection } from "./metric-catalog";
+
+export interface TrendPointInput {
+  sessionId: string;
+  recordedAt: string;
+  value: number;
+}
+
+export interface AnnotateTrendsInput {
+  metrics: { key: string; unit: string; points: TrendPointInput[] }[];
+  patient: { birthYear: number; condition: string; enrolledOn: string };
+  options?: ChangeOptions & { confirmSessions?: number };
+}
+
+export interface BandOut {
+  low: number;
+  high: number;
+  label: string;
+  citation: string;
+  confirmed: boolean;
+}
+
+export interface AnnotatedMetric {
+  key: string;
+  unit: string;
+  points: FlaggedPoint[];
+  baseline: Baseline | null;
+  mdc: Mdc | null;
+  slopeFlag: SlopeFlag | null;
+  direction: MetricDirection;
+  bands: BandOut[];
+}
+
+export interface AnnotatedTrends {
+  metrics: AnnotatedMetric[];
+  events: CoordinationEvent[];
+  cautions: string[];
+}
+
+/** Age in whole years at the latest session (birth year only, so it may be one year high). */
+function ageAt(birthYear: number, metrics: AnnotateTrendsInput["metrics"]): number | null {
+  let latest = Number.NEGATIVE_INFINITY;
+  for (const m of metrics) for (const p of m.points) latest = Math.max(latest, Date.parse(p.recordedAt));
+  const year = Number.isFinite(latest) ? new Date(latest).getUTCFullYear() : new Date().getUTCFullYear();
+  return Number.isInteger(birthYear) ? year - birthYear : null;
+}
+
+export function annotateTrends(input: AnnotateTrendsInput): AnnotatedTrends {
+  const { patient, options = {} } = input;
+  const age = ageAt(patient.birthYear, input.metrics);
+  const metrics = input.metrics.map((m): AnnotatedMetric => {
+    const change = flagMetricChanges(m.key, m.points, patient.condition, options);
+    return {
+      key: m.key,
+      unit: m.unit,
+      ...change,
+      bands: bandsFor(m.key, { age, condition: patient.condition }).map(({ low, high, label, citation, confirmed }) => ({
+        low,
+        high,
+        label,
+        citation,
+        confirmed,
+      })),
+    };
+  });
+  const events = detectCoordinationEvents(input.metrics, {
+    baselineSessions: options.baselineSessions,
+    confirmSessions: options.confirmSessions,
+    condition: patient.condition,
+  });
+  return { metrics, events, cautions: [...CLINICAL_CAUTIONS] };
+}

@@ -1,0 +1,148 @@
+/**
+ * The metrics of the analysis (signal issue names) and what a rise in each means clinically.
+ *
+ * Trend keys arrive flattened by the trends route, and per-side / per-pair metrics may be spelled
+ * `stancePct.left`, `stancePctLeft`, `left_stance_pct`, `armLeg.leftArmRightLeg.couplingStrength`
+ * or `leftArmRightLegCouplingStrength`: `resolveMetricKey` accepts all of these, so this module
+ * does not depend on one flattening convention.
+ */
+
+export const BASE_METRICS = [
+  "cadenceStepsPerMin",
+  "strideTimeMeanS",
+  "strideTimeCvPct",
+  "stepTimeMeanS",
+  "stancePct",
+  "swingPct",
+  "doubleSupportPct",
+  "phaseCoordinationIndexPct",
+  "gaitAsymmetryPct",
+  "dfaAlpha",
+  "steadyStrideCount",
+  "frequencyRatio",
+  "meanRelativePhaseDeg",
+  "couplingStrength",
+  "circularSdDeg",
+] as const;
+export type BaseMetric = (typeof BASE_METRICS)[number];
+
+/**
+ * `higher-is-better`: a rise beyond MDC is `improved`; `higher-is-worse`: a rise is `worsened`;
+ * `null`: no agreed clinical direction, so no improved/worsened flag is ever given.
+ */
+export type MetricDirection = "higher-is-better" | "higher-is-worse" | null;
+
+export interface MetricInfo {
+  base: BaseMetric;
+  direction: MetricDirection;
+  /** Why this direction (or why none); shown in the contributor notes. */
+  rationale: string;
+}
+
+export const METRIC_INFO: Record<BaseMetric, MetricInfo> = {
+  cadenceStepsPerMin: {
+    base: "cadenceStepsPerMin",
+    direction: "higher-is-better",
+    rationale: "Slow cadence is typical of impaired gait; walking-rehabilitation goals aim to raise it.",
+  },
+  strideTimeCvPct: {
+    base: "strideTimeCvPct",
+    direction: "higher-is-worse",
+    rationale: "Higher stride-to-stride variability (PD 2.24 % vs controls 1.94 %, Frenkel-Toledo 2005).",
+  },
+  phaseCoordinationIndexPct: {
+    base: "phaseCoordinationIndexPct",
+    direction: "higher-is-worse",
+    rationale: "Higher PCI = less consistent and less accurate left-right anti-phase (Plotnik 2007: PD > elderly > young).",
+  },
+  gaitAsymmetryPct: {
+    base: "gaitAsymmetryPct",
+    direction: "higher-is-worse",
+    rationale: "0 % is symmetric swing times; larger values are more asymmetric.",
+  },
+  doubleSupportPct: {
+    base: "doubleSupportPct",
+    direction: "higher-is-worse",
+    rationale: "More time on both feet is a cautious, less stable pattern (DS rises with age, textbook-level sources).",
+  },
+  strideTimeMeanS: {
+    base: "strideTimeMeanS",
+    direction: null,
+    rationale: "Carried by cadence; flagging both would double-count one change.",
+  },
+  stepTimeMeanS: {
+    base: "stepTimeMeanS",
+    direction: null,
+    rationale: "Per-side timing; its meaning depends on the paretic side, so asymmetry carries the direction.",
+  },
+  stancePct: {
+    base: "stancePct",
+    direction: null,
+    rationale: "Per side; a rise can be better on one side and worse on the other (e.g. after stroke).",
+  },
+  swingPct: { base: "swingPct", direction: null, rationale: "Complement of stance; same reason." },
+  dfaAlpha: {
+    base: "dfaAlpha",
+    direction: null,
+    rationale: "Long-range correlation; both directions away from typical values are discussed, no agreed direction.",
+  },
+  steadyStrideCount: {
+    base: "steadyStrideCount",
+    direction: null,
+    rationale: "A data-quality count, not a gait outcome.",
+  },
+  frequencyRatio: {
+    base: "frequencyRatio",
+    direction: null,
+    rationale: "A mode (1:1 or 2:1), reported as coordination events instead of flags.",
+  },
+  meanRelativePhaseDeg: {
+    base: "meanRelativePhaseDeg",
+    direction: null,
+    rationale: "An angle with no better or worse direction.",
+  },
+  couplingStrength: {
+    base: "couplingStrength",
+    direction: null,
+    rationale: "Reported as a coordination event when it drops below its baseline band, not as a flag.",
+  },
+  circularSdDeg: {
+    base: "circularSdDeg",
+    direction: null,
+    rationale: "Spread of the relative phase; no agreed clinical direction for arm-leg coupling.",
+  },
+};
+
+export type ArmLegPair = "leftArmRightLeg" | "rightArmLeftLeg";
+
+export interface ResolvedMetric {
+  base: BaseMetric;
+  side: "left" | "right" | null;
+  pair: ArmLegPair | null;
+  info: MetricInfo;
+}
+
+const compact = (s: string) => s.toLowerCase().replace(/[^a-z0-9]/g, "");
+
+// Longest first so that no base name is matched inside a longer one.
+const BY_LENGTH = [...BASE_METRICS].sort((a, b) => b.length - a.length);
+const ARM_LEG_BASES = new Set<BaseMetric>(["frequencyRatio", "meanRelativePhaseDeg", "couplingStrength", "circularSdDeg"]);
+const PER_SIDE_BASES = new Set<BaseMetric>(["stepTimeMeanS", "stancePct", "swingPct"]);
+
+/** Maps a trend key to its base metric and qualifier; `null` for a key this module does not know. */
+export function resolveMetricKey(key: string): ResolvedMetric | null {
+  const c = compact(key);
+  const base = BY_LENGTH.find((b) => c.includes(compact(b)));
+  if (!base) return null;
+  const rest = c.replace(compact(base), "");
+  let pair: ArmLegPair | null = null;
+  let side: "left" | "right" | null = null;
+  if (ARM_LEG_BASES.has(base)) {
+    if (rest.includes("leftarmrightleg")) pair = "leftArmRightLeg";
+    else if (rest.includes("rightarmleftleg")) pair = "rightArmLeftLeg";
+  } else if (PER_SIDE_BASES.has(base)) {
+    if (rest.includes("left")) side = "left";
+    else if (rest.includes("right")) side = "right";
+  }
+  return { base, side, pair, info: METRIC_INFO[base] };
+}
