@@ -1,0 +1,87 @@
+import { lowPassZeroPhaseSegments } from "../filter/zero-phase-butterworth";
+import type { Bout } from "../types";
+
+/** Gravity direction: accelerometer low-passed at this cut-off (Hz, 2nd order, zero phase). */
+export const GRAVITY_LOW_PASS_HZ = 0.5;
+/** Yaw rate low-passed at this cut-off to remove the stride oscillation (Hz). */
+export const YAW_LOW_PASS_HZ = 1;
+/** A turn starts where |yaw rate| exceeds this (°/s, common practice) … */
+export const TURN_ONSET_DEG_S = 15;
+/** … and is extended while |yaw rate| stays above this (°/s, common practice). */
+export const TURN_EXTEND_DEG_S = 5;
+/** Sub-turns in the same direction closer than this are merged (s) — Sensors 2020;20(18):5377. */
+export const TURN_MERGE_GAP_S = 0.5;
+/** A turn must total at least this much rotation (°) and last 0.5–10 s — Sensors 2020;20(18):5377. */
+export const TURN_MIN_ANGLE_DEG = 90;
+export const TURN_MIN_DURATION_S = 0.5;
+export const TURN_MAX_DURATION_S = 10;
+
+export interface Turn extends Bout {
+  angleDeg: number;
+}
+
+/**
+ * Angular rate about the gravity axis (°/s): gyro · ĝ, with ĝ the unit low-passed accelerometer
+ * vector (at rest the accelerometer points up, so positive = counter-clockwise seen from above).
+ * Mounting-independent. Low-passed at YAW_LOW_PASS_HZ. Invalid samples are 0.
+ */
+export function yawRateAboutGravity(
+  s: {
+    accX: ArrayLike<number>;
+    accY: ArrayLike<number>;
+    accZ: ArrayLike<number>;
+    gyroX: ArrayLike<number>;
+    gyroY: ArrayLike<number>;
+    gyroZ: ArrayLike<number>;
+    valid: Uint8Array;
+  },
+  sampleRateHz: number,
+): Float64Array {
+  const gx = lowPassZeroPhaseSegments(s.accX, s.valid, sampleRateHz, GRAVITY_LOW_PASS_HZ, 2);
+  const gy = lowPassZeroPhaseSegments(s.accY, s.valid, sampleRateHz, GRAVITY_LOW_PASS_HZ, 2);
+  const gz = lowPassZeroPhaseSegments(s.accZ, s.valid, sampleRateHz, GRAVITY_LOW_PASS_HZ, 2);
+  const n = gx.length;
+  const yaw = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    if (!s.valid[i]) continue;
+    const norm = Math.hypot(gx[i]!, gy[i]!, gz[i]!);
+    if (norm < 1e-6) continue;
+    yaw[i] = (s.gyroX[i]! * gx[i]! + s.gyroY[i]! * gy[i]! + s.gyroZ[i]! * gz[i]!) / norm;
+  }
+  return lowPassZeroPhaseSegments(yaw, s.valid, sampleRateHz, YAW_LOW_PASS_HZ, 2);
+}
+
+/** Turns from a yaw-rate trace (°/s): onset/extension thresholds, same-direction merging, angle and duration limits. */
+export function detectTurns(yawRateDegS: ArrayLike<number>, sampleRateHz: number): Turn[] {
+  const n = yawRateDegS.length;
+  const dt = 1 / sampleRateHz;
+  const raw: Turn[] = [];
+  let i = 0;
+  while (i < n) {
+    if (Math.abs(yawRateDegS[i]!) <= TURN_ONSET_DEG_S) {
+      i++;
+      continue;
+    }
+    const sign = Math.sign(yawRateDegS[i]!);
+    let a = i;
+    while (a > 0 && yawRateDegS[a - 1]! * sign > TURN_EXTEND_DEG_S) a--;
+    let b = i;
+    while (b < n - 1 && yawRateDegS[b + 1]! * sign > TURN_EXTEND_DEG_S) b++;
+    let angle = 0;
+    for (let k = a; k <= b; k++) angle += yawRateDegS[k]! * dt;
+    raw.push({ startS: a * dt, endS: b * dt, angleDeg: angle });
+    i = b + 1;
+  }
+  const merged: Turn[] = [];
+  for (const t of raw) {
+    const prev = merged[merged.length - 1];
+    if (prev && Math.sign(prev.angleDeg) === Math.sign(t.angleDeg) && t.startS - prev.endS < TURN_MERGE_GAP_S) {
+      prev.endS = t.endS;
+      prev.angleDeg += t.angleDeg;
+    } else merged.push({ ...t });
+  }
+  return merged.filter((t) => {
+    const d = t.endS - t.startS;
+    return Math.abs(t.angleDeg) >= TURN_MIN_ANGLE_DEG && d >= TURN_MIN_DURATION_S && d <= TURN_MAX_DURATION_S;
+  });
+}

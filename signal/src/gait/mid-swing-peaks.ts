@@ -1,0 +1,65 @@
+import { quantileOfMasked } from "../orientation/quantile";
+
+/** Salarian et al. 2004 parameters as used by an open-source re-implementation (DOMAIN.md §1.1). */
+export const SALARIAN_MS_THRESHOLD_DEG_S = 50;
+export const SALARIAN_MIN_PEAK_DISTANCE_S = 0.5;
+export const SALARIAN_IC_THRESHOLD_DEG_S = -10;
+export const SALARIAN_FC_THRESHOLD_DEG_S = -20;
+export const SALARIAN_SEARCH_WINDOW_S = 1.5;
+/** The mid-swing peak search runs on ω low-passed at 3 Hz (the re-implementation's choice). */
+export const MS_LOW_PASS_HZ = 3;
+/**
+ * Signal-relative threshold: the mid-swing threshold is the smaller of Salarian's 50 °/s and this
+ * fraction of the 99th percentile of walking ω, so very slow gait (peaks of 60–100 °/s) keeps its
+ * strides; the IC/FC thresholds scale by the same factor (common practice, DOMAIN.md §1.4).
+ */
+export const MS_RELATIVE_THRESHOLD = 0.3;
+export const MS_THRESHOLD_FLOOR_DEG_S = 5;
+
+export interface Thresholds {
+  midSwingDegS: number;
+  initialContactDegS: number;
+  finalContactDegS: number;
+}
+
+export function signalRelativeThresholds(msSignal: ArrayLike<number>, mask: Uint8Array): Thresholds {
+  const p99 = quantileOfMasked(msSignal, mask, 0.99) ?? 0;
+  const midSwingDegS = Math.max(MS_THRESHOLD_FLOOR_DEG_S, Math.min(SALARIAN_MS_THRESHOLD_DEG_S, MS_RELATIVE_THRESHOLD * p99));
+  const scale = midSwingDegS / SALARIAN_MS_THRESHOLD_DEG_S;
+  return {
+    midSwingDegS,
+    initialContactDegS: SALARIAN_IC_THRESHOLD_DEG_S * scale,
+    finalContactDegS: SALARIAN_FC_THRESHOLD_DEG_S * scale,
+  };
+}
+
+/**
+ * Local maxima of `x` above `threshold` inside the mask, at least `minDistance` samples apart; taller
+ * peaks win (the rule of SciPy's find_peaks `distance`). Returns sorted sample indices.
+ */
+export function findPeaks(x: ArrayLike<number>, mask: Uint8Array, threshold: number, minDistance: number): number[] {
+  const n = x.length;
+  const candidates: number[] = [];
+  for (let i = 1; i < n - 1; i++) {
+    if (!mask[i] || !mask[i - 1] || !mask[i + 1]) continue;
+    const v = x[i]!;
+    if (v > threshold && v > x[i - 1]! && v >= x[i + 1]!) candidates.push(i);
+  }
+  candidates.sort((a, b) => x[b]! - x[a]!);
+  const taken = new Uint8Array(n);
+  const kept: number[] = [];
+  for (const c of candidates) {
+    if (taken[c]) continue;
+    kept.push(c);
+    const lo = Math.max(0, c - minDistance + 1);
+    const hi = Math.min(n - 1, c + minDistance - 1);
+    taken.fill(1, lo, hi + 1);
+  }
+  return kept.sort((a, b) => a - b);
+}
+
+/** True when every sample in [a, b] is inside the mask. */
+export function allMasked(mask: Uint8Array, a: number, b: number): boolean {
+  for (let i = Math.max(0, a); i <= b && i < mask.length; i++) if (!mask[i]) return false;
+  return true;
+}

@@ -1,0 +1,109 @@
+import { EigenvalueDecomposition, Matrix } from "ml-matrix";
+
+export interface SagittalAxis {
+  /** Unit vector in the sensor frame; sign chosen so that its z component is ≥ 0 (nominal +z). */
+  axis: [number, number, number];
+  /** Share of the gyro variance along the axis (0..1). */
+  explainedVariance: number;
+  /** Angle between the axis and the nominal +z axis, degrees. */
+  angleFromNominalDeg: number;
+  sampleCount: number;
+}
+
+/** Fewer masked samples than this (≈ 2.5 strides at 100 Hz) give no reliable axis. */
+export const MIN_AXIS_SAMPLES = 256;
+
+/**
+ * Sagittal rotation axis of a segment: the first principal component of the centred 3-axis gyro
+ * over the samples where `mask` is 1 (walking). During walking the shank, foot and arm rotate mostly
+ * about the mediolateral axis, so PC1 is that axis (DOMAIN.md §2). PCA fixes the axis, not its
+ * sign; the sign is taken from the nominal frame (+z to the subject's right). Returns null when too
+ * few samples are available.
+ */
+export function sagittalAxis(
+  gyroX: ArrayLike<number>,
+  gyroY: ArrayLike<number>,
+  gyroZ: ArrayLike<number>,
+  mask: Uint8Array,
+): SagittalAxis | null {
+  const n = gyroX.length;
+  let count = 0;
+  let mx = 0;
+  let my = 0;
+  let mz = 0;
+  for (let i = 0; i < n; i++) {
+    if (!mask[i]) continue;
+    count++;
+    mx += gyroX[i]!;
+    my += gyroY[i]!;
+    mz += gyroZ[i]!;
+  }
+  if (count < MIN_AXIS_SAMPLES) return null;
+  mx /= count;
+  my /= count;
+  mz /= count;
+  let sxx = 0;
+  let syy = 0;
+  let szz = 0;
+  let sxy = 0;
+  let sxz = 0;
+  let syz = 0;
+  for (let i = 0; i < n; i++) {
+    if (!mask[i]) continue;
+    const x = gyroX[i]! - mx;
+    const y = gyroY[i]! - my;
+    const z = gyroZ[i]! - mz;
+    sxx += x * x;
+    syy += y * y;
+    szz += z * z;
+    sxy += x * y;
+    sxz += x * z;
+    syz += y * z;
+  }
+  const cov = new Matrix([
+    [sxx, sxy, sxz],
+    [sxy, syy, syz],
+    [sxz, syz, szz],
+  ]);
+  const eig = new EigenvalueDecomposition(cov, { assumeSymmetric: true });
+  const values = eig.realEigenvalues;
+  let best = 0;
+  for (let k = 1; k < 3; k++) if (values[k]! > values[best]!) best = k;
+  const vectors = eig.eigenvectorMatrix;
+  let ax = vectors.get(0, best);
+  let ay = vectors.get(1, best);
+  let az = vectors.get(2, best);
+  const norm = Math.hypot(ax, ay, az) || 1;
+  ax /= norm;
+  ay /= norm;
+  az /= norm;
+  if (az < 0) {
+    ax = -ax;
+    ay = -ay;
+    az = -az;
+  }
+  const total = values.reduce((s, v) => s + Math.max(0, v), 0);
+  return {
+    axis: [ax, ay, az],
+    explainedVariance: total > 0 ? Math.max(0, values[best]!) / total : 0,
+    angleFromNominalDeg: (Math.acos(Math.min(1, az)) * 180) / Math.PI,
+    sampleCount: count,
+  };
+}
+
+/** Angular velocity about `axis` (deg/s), times `sign` (±1). */
+export function projectOnAxis(
+  gyroX: ArrayLike<number>,
+  gyroY: ArrayLike<number>,
+  gyroZ: ArrayLike<number>,
+  axis: readonly [number, number, number],
+  sign = 1,
+): Float64Array {
+  const n = gyroX.length;
+  const out = new Float64Array(n);
+  const ax = axis[0] * sign;
+  const ay = axis[1] * sign;
+  const az = axis[2] * sign;
+  for (let i = 0; i < n; i++) out[i] = gyroX[i]! * ax + gyroY[i]! * ay + gyroZ[i]! * az;
+  return out;
+}

@@ -1,0 +1,107 @@
+import type { Bout, Placement, SensorRecording } from "../types";
+import type { SessionGrid } from "./session-grid";
+
+/** Gaps up to this long are bridged by linear interpolation; longer ones invalidate their span. */
+export const MAX_INTERPOLATED_GAP_S = 0.15;
+/** An interval longer than this many nominal periods counts as a gap (at least one sample missing). */
+export const GAP_PERIOD_FACTOR = 1.5;
+
+export interface TimeGap {
+  startS: number;
+  endS: number;
+  interpolated: boolean;
+}
+
+export interface ResampledSensor {
+  fileName: string;
+  placement: Placement | null;
+  nominalSampleRateHz: number;
+  /** Mean sampling rate over the intervals that are not gaps (the device clock as written in t_s). */
+  effectiveSampleRateHz: number;
+  accX: Float32Array;
+  accY: Float32Array;
+  accZ: Float32Array;
+  gyroX: Float32Array;
+  gyroY: Float32Array;
+  gyroZ: Float32Array;
+  /** 1 where the sample is covered by the recording and not inside a long gap. */
+  valid: Uint8Array;
+  gaps: TimeGap[];
+  /** Long gaps (> MAX_INTERPOLATED_GAP_S) on the session time base. */
+  invalidSpans: Bout[];
+  coveredFromS: number;
+  coveredToS: number;
+}
+
+/**
+ * Linear resampling of one recording onto the session grid in one forward pass (O(n + m)). Grid
+ * samples outside the recording, or between two samples further apart than MAX_INTERPOLATED_GAP_S,
+ * are marked invalid and set to 0.
+ */
+export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: number): ResampledSensor {
+  const offset = grid.offsetsS[index] ?? 0;
+  const t = rec.timeS;
+  const n = t.length;
+  const m = grid.length;
+  const fs = grid.sampleRateHz;
+  const src = [rec.accX, rec.accY, rec.accZ, rec.gyroX, rec.gyroY, rec.gyroZ];
+  const out = src.map(() => new Float32Array(m));
+  const valid = new Uint8Array(m);
+
+  const gapLimit = GAP_PERIOD_FACTOR / rec.nominalSampleRateHz;
+  const gaps: TimeGap[] = [];
+  const invalidSpans: Bout[] = [];
+  let sumDt = 0;
+  let countDt = 0;
+  for (let i = 1; i < n; i++) {
+    const dt = t[i]! - t[i - 1]!;
+    if (dt > gapLimit) {
+      const interpolated = dt <= MAX_INTERPOLATED_GAP_S + 1e-9;
+      gaps.push({ startS: offset + t[i - 1]!, endS: offset + t[i]!, interpolated });
+      if (!interpolated) invalidSpans.push({ startS: offset + t[i - 1]!, endS: offset + t[i]! });
+    } else {
+      sumDt += dt;
+      countDt++;
+    }
+  }
+  const effectiveSampleRateHz = countDt > 0 ? countDt / sumDt : rec.nominalSampleRateHz;
+
+  const first = offset + t[0]!;
+  const last = offset + t[n - 1]!;
+  const kStart = Math.max(0, Math.ceil((first - 1e-9) * fs));
+  const kEnd = Math.min(m - 1, Math.floor((last + 1e-9) * fs));
+  let j = 0;
+  for (let k = kStart; k <= kEnd; k++) {
+    const tl = k / fs - offset;
+    while (j < n - 2 && t[j + 1]! <= tl) j++;
+    const t0 = t[j]!;
+    const t1 = n > 1 ? t[j + 1]! : t0;
+    const span = t1 - t0;
+    if (span > MAX_INTERPOLATED_GAP_S + 1e-9 && tl > t0 + 1e-9 && tl < t1 - 1e-9) continue;
+    const w = span > 0 ? Math.min(1, Math.max(0, (tl - t0) / span)) : 0;
+    for (let c = 0; c < 6; c++) {
+      const s = src[c]!;
+      const a = s[j]!;
+      out[c]![k] = a + (s[Math.min(j + 1, n - 1)]! - a) * w;
+    }
+    valid[k] = 1;
+  }
+
+  return {
+    fileName: rec.fileName,
+    placement: rec.placement,
+    nominalSampleRateHz: rec.nominalSampleRateHz,
+    effectiveSampleRateHz,
+    accX: out[0]!,
+    accY: out[1]!,
+    accZ: out[2]!,
+    gyroX: out[3]!,
+    gyroY: out[4]!,
+    gyroZ: out[5]!,
+    valid,
+    gaps,
+    invalidSpans,
+    coveredFromS: first,
+    coveredToS: last,
+  };
+}
