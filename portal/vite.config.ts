@@ -1,10 +1,13 @@
 import { defineConfig } from "vitest/config";
 import react from "@vitejs/plugin-react";
 import tailwindcss from "@tailwindcss/vite";
+import path from "node:path";
 
 export default defineConfig({
   root: import.meta.dirname,
   plugins: [react(), tailwindcss()],
+  resolve: { alias: { "@": path.resolve(import.meta.dirname, "src") } },
+  worker: { format: "es" },
   build: { outDir: "dist", emptyOutDir: true, sourcemap: false },
   server: { host: "127.0.0.1", proxy: { "/api": "http://127.0.0.1:8641" } },
   test: {

@@ -1,0 +1,6 @@
+import { AcceptInvitationForm, ResetConfirmForm, ResetRequestForm, SignInForm } from "@/features/auth";
+
+export const SignInRoute = () => <SignInForm />;
+export const AcceptInvitationRoute = () => <AcceptInvitationForm />;
+export const ResetRequestRoute = () => <ResetRequestForm />;
+export const ResetConfirmRoute = () => <ResetConfirmForm />;

@@ -1,0 +1,40 @@
+import type { QueryClient } from "@tanstack/react-query";
+import { redirect, type LoaderFunctionArgs } from "react-router-dom";
+import { meQueryOptions, ROLE_HOME, type Me, type Role } from "@/features/auth";
+
+async function currentUser(queryClient: QueryClient): Promise<Me | null> {
+  return queryClient.ensureQueryData(meQueryOptions());
+}
+
+/** Signed-in people only; others go to sign-in with the page to come back to. */
+export const requireUser =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs): Promise<Me> => {
+    const me = await currentUser(queryClient);
+    if (!me) {
+      const url = new URL(request.url);
+      throw redirect(`/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`);
+    }
+    return me;
+  };
+
+/** A signed-in person in the wrong area is sent to their own home, not shown a 403 page. */
+export const requireRole =
+  (queryClient: QueryClient, role: Role) =>
+  async (args: LoaderFunctionArgs): Promise<Me> => {
+    const me = await requireUser(queryClient)(args);
+    if (me.role !== role) throw redirect(ROLE_HOME[me.role]);
+    return me;
+  };
+
+/** `/` and the sign-in pages send a signed-in person straight to their home. */
+export const redirectSignedIn = (queryClient: QueryClient) => async (): Promise<null> => {
+  const me = await currentUser(queryClient).catch(() => null);
+  if (me) throw redirect(ROLE_HOME[me.role]);
+  return null;
+};
+
+export const homeRedirect = (queryClient: QueryClient) => async (): Promise<never> => {
+  const me = await currentUser(queryClient).catch(() => null);
+  throw redirect(me ? ROLE_HOME[me.role] : "/sign-in");
+};

@@ -1,0 +1,100 @@
+import { screen, waitFor } from "@testing-library/react";
+import userEvent from "@testing-library/user-event";
+import { afterEach, describe, expect, it, vi } from "vitest";
+import { createRoutes } from "@/app/router";
+import { setAccessToken } from "@/lib/api-client";
+import { mockApi } from "@/testing/mock-api";
+import { createTestQueryClient, renderRoutes } from "@/testing/render";
+
+type Role = "patient" | "clinician" | "researcher" | "admin";
+
+function signedOutServer(role: Role) {
+  return mockApi({
+    "POST /api/auth/refresh": { status: 401, body: { error: { code: "no_session", message: "No session" } } },
+    "POST /api/auth/login": ({ body }) => {
+      const { password } = body as { password: string };
+      if (password !== "correct horse") return { status: 401, body: { error: { code: "bad_credentials", message: "Wrong e-mail or password" } } };
+      return { body: { accessToken: `token-${role}`, user: { id: `u-${role}`, role, patientId: role === "patient" ? "p-1" : undefined } } };
+    },
+    "GET /api/me": ({ headers }) =>
+      headers.get("Authorization") === `Bearer token-${role}`
+        ? { body: { id: `u-${role}`, email: `${role}@ferngate-clinic.test`, role, patientId: role === "patient" ? "p-1" : null } }
+        : { status: 401, body: { error: { code: "unauthenticated", message: "Sign in" } } },
+  });
+}
+
+async function signIn(password = "correct horse") {
+  const user = userEvent.setup();
+  await user.type(await screen.findByLabelText("E-mail"), "someone@ferngate-clinic.test");
+  await user.type(screen.getByLabelText("Password"), password);
+  await user.click(screen.getByRole("button", { name: "Sign in" }));
+}
+
+/** The router's loaders and the screens must share one QueryClient, as in the app. */
+function renderApp(path: string) {
+  const queryClient = createTestQueryClient();
+  return renderRoutes(createRoutes(queryClient), path, queryClient);
+}
+
+afterEach(() => {
+  setAccessToken(null);
+  vi.unstubAllGlobals();
+});
+
+describe("sign-in routes each role to its home", () => {
+  // The homes are written out here rather than read from ROLE_HOME so a wrong mapping fails.
+  it.each([
+    ["patient", "/patient"],
+    ["clinician", "/clinician"],
+    ["researcher", "/research"],
+    ["admin", "/admin"],
+  ] as const)("%s lands on %s", async (role, home) => {
+    const server = signedOutServer(role);
+    const { router } = renderApp("/sign-in");
+    await signIn();
+    await waitFor(() => expect(router.state.location.pathname).toBe(home));
+    expect(server.calls.some((c) => c.method === "POST" && c.path === "/api/auth/login")).toBe(true);
+    // The shell shows who is signed in and in which role.
+    expect(await screen.findByText(`${role}@ferngate-clinic.test`)).toBeTruthy();
+  });
+
+  it("shows a plain message and stays on sign-in for wrong credentials", async () => {
+    signedOutServer("clinician");
+    const { router } = renderApp("/sign-in");
+    await signIn("wrong");
+    expect(await screen.findByText("That e-mail and password do not match an active account.")).toBeTruthy();
+    expect(router.state.location.pathname).toBe("/sign-in");
+  });
+
+  it("validates the form before calling the server", async () => {
+    const server = signedOutServer("clinician");
+    renderApp("/sign-in");
+    const user = userEvent.setup();
+    await user.click(await screen.findByRole("button", { name: "Sign in" }));
+    expect(await screen.findByText("Enter your password.")).toBeTruthy();
+    expect(server.calls.some((c) => c.path === "/api/auth/login")).toBe(false);
+  });
+
+  it("honours ?next= only inside the role's own area", async () => {
+    signedOutServer("clinician");
+    const { router } = renderApp("/sign-in?next=%2Fadmin%2Fusers");
+    await signIn();
+    await waitFor(() => expect(router.state.location.pathname).toBe("/clinician"));
+  });
+});
+
+describe("role guards", () => {
+  it("sends a signed-out visitor to sign-in with the page to return to", async () => {
+    signedOutServer("clinician");
+    const { router } = renderApp("/clinician");
+    await waitFor(() => expect(router.state.location.pathname).toBe("/sign-in"));
+    expect(router.state.location.search).toBe("?next=%2Fclinician");
+  });
+
+  it("sends a patient who opens a clinician address back to the patient home", async () => {
+    signedOutServer("patient");
+    setAccessToken("token-patient");
+    const { router } = renderApp("/clinician");
+    await waitFor(() => expect(router.state.location.pathname).toBe("/patient"));
+  });
+});
