@@ -72,6 +72,8 @@ export interface Stride {
   stancePct: number | null;
   swingPct: number | null;
   doubleSupportPct: number | null;
+  /** This stride's opening step: icS minus the preceding contralateral IC (null when not found). */
+  stepTimeS?: number | null;
   /** Included in the steady-state metrics (not near a turn, not first/last of a bout, no gap). */
   steady: boolean;
   /** Why a stride was left out of the steady-state set, when it was. */

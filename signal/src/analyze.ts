@@ -1,0 +1,310 @@
+import { boutsToMask, detectWalkingMask, maskToBouts } from "./activity/walking-bouts";
+import { detectTurns, yawRateAboutGravity } from "./activity/turns";
+import { armLegCoupling } from "./coordination";
+import { detectFootEvents } from "./gait/detect-foot-events";
+import { detectShankEvents } from "./gait/detect-shank-events";
+import { dfaAlphaOrReason } from "./gait/dfa";
+import { gaitAsymmetryPct } from "./gait/gait-asymmetry";
+import type { LegEvents } from "./gait/gait-events";
+import { phaseCoordinationIndex } from "./gait/phase-coordination-index";
+import { strideMetrics } from "./gait/stride-metrics";
+import { buildStrides } from "./gait/strides";
+import { detectInvertedFoot, detectInvertedShank } from "./orientation/detect-inverted-segment";
+import { projectOnAxis, sagittalAxis } from "./orientation/sagittal-axis";
+import { SATURATION_FLOOR_ACC_M_S2, SATURATION_FLOOR_GYRO_DEG_S, countSaturatedSamples } from "./quality/saturation";
+import { MIN_STEADY_STRIDES_FOR_VARIABILITY, MISALIGNMENT_INFO_DEG, RATE_MISMATCH_FRACTION } from "./quality/thresholds";
+import { type ResampledSensor, resampleToGrid } from "./timebase/resample-to-grid";
+import { sessionGrid } from "./timebase/session-grid";
+import {
+  type Analysis,
+  type ArmLegCoupling,
+  type Bout,
+  type Placement,
+  type QualityItem,
+  type SensorRecording,
+  type Side,
+  SignalInputError,
+} from "./types";
+
+/** Bumped whenever a change can alter any number in the output. */
+export const ALGORITHM_VERSION = "1.0.0";
+
+export interface AnalyzeOptions {
+  /** Reserved for callers that want to skip the arm–leg step (e.g. a quick pre-check). */
+  skipArmLeg?: boolean;
+}
+
+const NO_COUPLING: ArmLegCoupling = { frequencyRatio: null, meanRelativePhaseDeg: null, couplingStrength: null, circularSdDeg: null };
+
+interface LegSignal {
+  side: Side;
+  placement: Placement;
+  omega: Float64Array;
+  events: LegEvents;
+}
+
+/**
+ * The one analysis pipeline (CLI, worker and portal pre-check all call it): time base → resampling →
+ * walking bouts → sagittal axes and inversion → events → turns → strides → metrics → quality.
+ * Pure: no I/O, no clocks. Placement comes from each recording (the server sets it from device
+ * assignments); recordings without one are reported and left out.
+ */
+export function analyze(recordings: readonly SensorRecording[], options: AnalyzeOptions = {}): Analysis {
+  if (!Array.isArray(recordings) || recordings.length === 0) throw new SignalInputError("no recordings to analyse");
+  const quality: QualityItem[] = [];
+  const placed: SensorRecording[] = [];
+  const seen = new Map<Placement, string>();
+  for (const r of recordings) {
+    if (r.placement === null) {
+      quality.push({ code: "missing-placement", severity: "warning", message: `${r.fileName} (device ${r.deviceSerial}) has no placement; it was not analysed` });
+      continue;
+    }
+    const other = seen.get(r.placement);
+    if (other) throw new SignalInputError(`${r.fileName}: placement ${r.placement} is also given by ${other}`, r.fileName);
+    seen.set(r.placement, r.fileName);
+    placed.push(r);
+  }
+  const grid = sessionGrid(recordings);
+  const fs = grid.sampleRateHz;
+  const n = grid.length;
+  const sensors = new Map<Placement, ResampledSensor>();
+  for (const r of placed) {
+    const s = resampleToGrid(r, grid, recordings.indexOf(r));
+    sensors.set(r.placement!, s);
+    reportRecordingQuality(r, s, quality);
+  }
+
+  const legPlacement = (side: Side): Placement | null => {
+    const shank = `${side}_shank` as Placement;
+    const foot = `${side}_foot` as Placement;
+    return sensors.has(shank) ? shank : sensors.has(foot) ? foot : null;
+  };
+  const legSensors = (["left_shank", "right_shank", "left_foot", "right_foot"] as const).filter((p) => sensors.has(p)).map((p) => sensors.get(p)!);
+  for (const side of ["left", "right"] as const) {
+    if (!legPlacement(side)) {
+      quality.push({ code: "missing-placement", severity: "warning", message: `no ${side} shank or foot sensor: ${side} events and left–right metrics are unavailable` });
+    }
+  }
+
+  // Walking bouts from all leg sensors.
+  const walking = detectWalkingMask(
+    legSensors.map((s) => ({ x: s.gyroX, y: s.gyroY, z: s.gyroZ, valid: s.valid })),
+    fs,
+    n,
+  );
+  const bouts = maskToBouts(walking, fs);
+  const boutMask = boutsToMask(bouts, fs, n);
+
+  // Invalid spans: long gaps in the leg sensors.
+  const invalidSpans: Bout[] = mergeSpans(legSensors.flatMap((s) => s.invalidSpans));
+
+  // Events per leg.
+  const legs: Partial<Record<Side, LegSignal>> = {};
+  for (const side of ["left", "right"] as const) {
+    const placement = legPlacement(side);
+    if (!placement) continue;
+    const s = sensors.get(placement)!;
+    const mask = andMask(boutMask, s.valid);
+    const axis = sagittalAxis(s.gyroX, s.gyroY, s.gyroZ, mask);
+    if (!axis) continue;
+    if (axis.angleFromNominalDeg > MISALIGNMENT_INFO_DEG) {
+      quality.push({ code: "misalignment", severity: "info", placement, message: `${placement} sagittal axis is ${axis.angleFromNominalDeg.toFixed(0)}° from the nominal +z axis; corrected from the walking data` });
+    }
+    let omega = projectOnAxis(s.gyroX, s.gyroY, s.gyroZ, axis.axis);
+    const isFoot = placement.endsWith("_foot");
+    const inversion = isFoot ? detectInvertedFoot(omega, mask) : detectInvertedShank(omega, mask);
+    if (inversion.inverted) {
+      omega = projectOnAxis(s.gyroX, s.gyroY, s.gyroZ, axis.axis, -1);
+      quality.push({ code: "inverted-sensor", severity: "warning", placement, message: `${placement} appears to be worn upside down or back to front (swing rotation has the wrong sign); the signal was inverted before analysis` });
+    }
+    const events = isFoot ? detectFootEvents(omega, mask, fs) : detectShankEvents(omega, mask, fs);
+    legs[side] = { side, placement, omega, events };
+  }
+
+  // Turns: lower back when worn (cleanest yaw), else the mean over the leg sensors.
+  const back = sensors.get("lower_back");
+  const yawSources = back ? [back] : legSensors;
+  const yaw = new Float64Array(n);
+  if (yawSources.length > 0) {
+    const count = new Uint8Array(n);
+    for (const s of yawSources) {
+      const y = yawRateAboutGravity(s, fs);
+      for (let i = 0; i < n; i++) if (s.valid[i]) {
+        yaw[i]! += y[i]!;
+        count[i]!++;
+      }
+    }
+    for (let i = 0; i < n; i++) if (count[i]! > 1) yaw[i]! /= count[i]!;
+  }
+  const turns: Bout[] = detectTurns(yaw, fs).map((t) => ({ startS: t.startS, endS: t.endS }));
+
+  // Strides.
+  const ctx = { bouts, turns, invalidSpans };
+  const strides = (["left", "right"] as const).flatMap((side) => {
+    const own = legs[side];
+    if (!own) return [];
+    const contra = legs[side === "left" ? "right" : "left"];
+    return buildStrides(side, own.events, contra?.events ?? null, ctx);
+  });
+  strides.sort((a, b) => a.icS - b.icS);
+  const order = strides.filter((s) => s.excludedReason === "event-order").length;
+  if (order > 0) {
+    quality.push({ code: "event-order", severity: "info", message: `${order} stride(s) left out because their events were not in the order IC < FC(other) < IC(other) < FC < next IC` });
+  }
+
+  const base = strideMetrics(strides);
+  const steady = strides.filter((s) => s.steady);
+
+  // PCI: reference leg = longer mean swing time (Plotnik 2007).
+  let pci: number | null = null;
+  const swL = base.swingTimeMeanS.left;
+  const swR = base.swingTimeMeanS.right;
+  if (swL !== null && swR !== null && legs.left && legs.right) {
+    const ref: Side = swL >= swR ? "left" : "right";
+    const other = legs[ref === "left" ? "right" : "left"]!;
+    pci = phaseCoordinationIndex(steady.filter((s) => s.side === ref), other.events.initialContactsS)?.pciPct ?? null;
+  }
+
+  // DFA on the side with more steady strides, in time order.
+  const perSide = (["left", "right"] as const).map((sd) => steady.filter((s) => s.side === sd).map((s) => s.strideTimeS));
+  const longest = perSide[0]!.length >= perSide[1]!.length ? perSide[0]! : perSide[1]!;
+  const dfa = dfaAlphaOrReason(longest);
+  if (dfa.alpha === null && base.steadyStrideCount > 0) {
+    quality.push({ code: "dfa-unavailable", severity: "info", message: `DFA α not computed: ${dfa.reason}` });
+  }
+
+  // Arm–leg coordination over steady-state walking.
+  const steadyMask = new Uint8Array(n);
+  for (const s of steady) steadyMask.fill(1, Math.max(0, Math.ceil(s.icS * fs)), Math.min(n, Math.floor(s.nextIcS * fs) + 1));
+  const strideFrequencyHz = base.strideTimeMeanS ? 1 / base.strideTimeMeanS : Number.NaN;
+  const coupling = (arm: Placement, legSide: Side): ArmLegCoupling => {
+    const wrist = sensors.get(arm);
+    const leg = legs[legSide];
+    if (options.skipArmLeg || !wrist || !leg || !Number.isFinite(strideFrequencyHz)) return { ...NO_COUPLING };
+    const mask = andMask(steadyMask, wrist.valid);
+    const axis = sagittalAxis(wrist.gyroX, wrist.gyroY, wrist.gyroZ, andMask(boutMask, wrist.valid));
+    if (!axis) return { ...NO_COUPLING };
+    const armOmega = projectOnAxis(wrist.gyroX, wrist.gyroY, wrist.gyroZ, axis.axis);
+    return armLegCoupling(armOmega, leg.omega, fs, strideFrequencyHz, mask);
+  };
+
+  if (bouts.length === 0 || strides.length === 0) {
+    quality.push({ code: "no-walking", severity: "error", message: "no walking was found in this session; no gait metrics were computed" });
+  } else if (base.steadyStrideCount < MIN_STEADY_STRIDES_FOR_VARIABILITY) {
+    quality.push({
+      code: "few-strides",
+      severity: "warning",
+      message: `only ${base.steadyStrideCount} steady-state strides; variability (CV, PCI) needs at least ${MIN_STEADY_STRIDES_FOR_VARIABILITY} steps (Galna et al. 2013; Kroneberg et al. 2019) — interpret with caution`,
+    });
+  }
+
+  const eventsOf = (side: Side) => ({
+    initialContacts: legs[side]?.events.initialContactsS ?? [],
+    finalContacts: legs[side]?.events.finalContactsS ?? [],
+    midSwings: legs[side]?.events.midSwingsS ?? [],
+  });
+
+  return {
+    session: {
+      startUtc: grid.startUtc,
+      durationS: grid.durationS,
+      sampleRateHz: fs,
+      placements: [...sensors.keys()],
+    },
+    events: { left: eventsOf("left"), right: eventsOf("right") },
+    strides,
+    bouts,
+    turns,
+    invalidSpans,
+    metrics: {
+      steadyStrideCount: base.steadyStrideCount,
+      cadenceStepsPerMin: base.cadenceStepsPerMin,
+      strideTimeMeanS: base.strideTimeMeanS,
+      strideTimeCvPct: base.strideTimeCvPct,
+      stepTimeMeanS: base.stepTimeMeanS,
+      stancePct: base.stancePct,
+      swingPct: base.swingPct,
+      doubleSupportPct: base.doubleSupportPct,
+      phaseCoordinationIndexPct: pci,
+      gaitAsymmetryPct: gaitAsymmetryPct(swL, swR),
+      dfaAlpha: dfa.alpha,
+      dfaAlphaReason: dfa.reason,
+      armLeg: {
+        leftArmRightLeg: coupling("left_wrist", "right"),
+        rightArmLeftLeg: coupling("right_wrist", "left"),
+      },
+    },
+    quality,
+    algorithm: { version: ALGORITHM_VERSION },
+  };
+}
+
+function reportRecordingQuality(r: SensorRecording, s: ResampledSensor, quality: QualityItem[]): void {
+  const placement = r.placement!;
+  const short = s.gaps.filter((g) => g.interpolated);
+  if (short.length > 0) {
+    const total = short.reduce((a, g) => a + g.endS - g.startS, 0);
+    const longest = Math.max(...short.map((g) => g.endS - g.startS));
+    quality.push({
+      code: "gap",
+      severity: "info",
+      placement,
+      message: `${r.fileName}: ${short.length} short gap(s) (≤ 150 ms, longest ${(longest * 1000).toFixed(0)} ms, ${total.toFixed(2)} s in total) were interpolated`,
+      startS: short[0]!.startS,
+      endS: short[short.length - 1]!.endS,
+    });
+  }
+  for (const span of s.invalidSpans) {
+    quality.push({
+      code: "invalid-span",
+      severity: "warning",
+      placement,
+      message: `${r.fileName}: ${(span.endS - span.startS).toFixed(2)} s without data; no events or strides there`,
+      startS: span.startS,
+      endS: span.endS,
+    });
+  }
+  const mismatch = Math.abs(s.effectiveSampleRateHz - r.nominalSampleRateHz) / r.nominalSampleRateHz;
+  if (mismatch > RATE_MISMATCH_FRACTION) {
+    quality.push({
+      code: "rate-mismatch",
+      severity: "warning",
+      placement,
+      message: `${r.fileName}: effective sampling rate ${s.effectiveSampleRateHz.toFixed(1)} Hz differs from the nominal ${r.nominalSampleRateHz} Hz by ${(100 * mismatch).toFixed(1)} %`,
+    });
+  }
+  const channels: Array<[string, ArrayLike<number>, number]> = [
+    ["gyro_x", r.gyroX, SATURATION_FLOOR_GYRO_DEG_S],
+    ["gyro_y", r.gyroY, SATURATION_FLOOR_GYRO_DEG_S],
+    ["gyro_z", r.gyroZ, SATURATION_FLOOR_GYRO_DEG_S],
+    ["acc_x", r.accX, SATURATION_FLOOR_ACC_M_S2],
+    ["acc_y", r.accY, SATURATION_FLOOR_ACC_M_S2],
+    ["acc_z", r.accZ, SATURATION_FLOOR_ACC_M_S2],
+  ];
+  const clipped = channels.map(([name, x, floor]) => [name, countSaturatedSamples(x, floor)] as const).filter(([, c]) => c > 0);
+  if (clipped.length > 0) {
+    quality.push({
+      code: "saturation",
+      severity: "warning",
+      placement,
+      message: `${r.fileName}: flat-topped samples at the sensor's range (${clipped.map(([nm, c]) => `${nm} ${c}`).join(", ")}); peaks there are clipped`,
+    });
+  }
+}
+
+function andMask(a: Uint8Array, b: Uint8Array): Uint8Array {
+  const out = new Uint8Array(a.length);
+  for (let i = 0; i < a.length; i++) out[i] = a[i]! & b[i]!;
+  return out;
+}
+
+function mergeSpans(spans: Bout[]): Bout[] {
+  const sorted = [...spans].sort((a, b) => a.startS - b.startS);
+  const out: Bout[] = [];
+  for (const s of sorted) {
+    const last = out[out.length - 1];
+    if (last && s.startS <= last.endS) last.endS = Math.max(last.endS, s.endS);
+    else out.push({ ...s });
+  }
+  return out;
+}

@@ -1,0 +1,77 @@
+// `npm run --silent analyze -- <file>... [--json]` from the repository root. Reads sensor CSV v1
+// files and BIDS Motion `*_motion.tsv` files (sidecars found beside them), prints a table or one
+// JSON object. Exit 0 on success, 2 with a one-line reason on stderr for bad input.
+import { readFileSync, statSync } from "node:fs";
+import { basename, dirname, join } from "node:path";
+import { analyze } from "./analyze";
+import { MAX_SENSOR_FILE_CHARS, readSensorCsv } from "./io/read-sensor-csv";
+import { bidsSidecarNames, readBidsMotion } from "./io/read-bids-motion";
+import { sniffFormat } from "./io/sniff";
+import { formatAnalysisTable } from "./format-table";
+import { type SensorRecording, SignalInputError } from "./types";
+
+class UsageError extends Error {}
+
+function readText(path: string): string {
+  let size: number;
+  try {
+    size = statSync(path).size;
+  } catch {
+    throw new UsageError(`${path}: file not found`);
+  }
+  if (size > MAX_SENSOR_FILE_CHARS) throw new SignalInputError(`${basename(path)}: file is larger than the 64 MiB limit`, basename(path));
+  return readFileSync(path, "utf8");
+}
+
+export function loadRecordings(paths: readonly string[]): SensorRecording[] {
+  const out: SensorRecording[] = [];
+  for (const path of paths) {
+    const name = basename(path);
+    if (/_motion\.tsv$/i.test(name)) {
+      const side = bidsSidecarNames(name);
+      const dir = dirname(path);
+      out.push(
+        ...readBidsMotion({
+          motionTsv: readText(path),
+          motionFileName: name,
+          channelsTsv: readText(join(dir, side.channels)),
+          channelsFileName: side.channels,
+          motionJson: readText(join(dir, side.json)),
+          jsonFileName: side.json,
+        }),
+      );
+      continue;
+    }
+    const text = readText(path);
+    const format = sniffFormat(text);
+    if (format !== "pendula-csv-v1") {
+      throw new SignalInputError(
+        format === "unknown" ? `${name}: not a Pendula sensor CSV or BIDS *_motion.tsv file` : `${name}: looks like ${format}; pass the *_motion.tsv file instead`,
+        name,
+      );
+    }
+    out.push(readSensorCsv(text, name));
+  }
+  return out;
+}
+
+function main(argv: string[]): number {
+  const json = argv.includes("--json");
+  const files = argv.filter((a) => a !== "--json");
+  const unknownFlag = files.find((f) => f.startsWith("--"));
+  try {
+    if (unknownFlag) throw new UsageError(`unknown option ${unknownFlag} (usage: analyze <file>... [--json])`);
+    if (files.length === 0) throw new UsageError("usage: analyze <file>... [--json]");
+    const analysis = analyze(loadRecordings(files));
+    process.stdout.write(json ? JSON.stringify(analysis) + "\n" : formatAnalysisTable(analysis));
+    return 0;
+  } catch (e) {
+    if (e instanceof SignalInputError || e instanceof UsageError) {
+      process.stderr.write(e.message.replace(/\s*\n\s*/g, " ") + "\n");
+      return 2;
+    }
+    throw e;
+  }
+}
+
+process.exitCode = main(process.argv.slice(2));

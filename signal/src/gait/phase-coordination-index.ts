@@ -1,0 +1,35 @@
+import { coefficientOfVariationPct, mean } from "./descriptive";
+
+export interface PhaseCoordination {
+  /** φ_i in degrees, one per reference stride with exactly one contralateral IC inside it. */
+  phiDeg: number[];
+  phiAbsDeg: number;
+  pPhiAbsPct: number;
+  phiCvPct: number;
+  pciPct: number;
+}
+
+/**
+ * Phase Coordination Index (Plotnik, Giladi & Hausdorff 2007, Exp Brain Res 181:561), as in
+ * DOMAIN.md §3: reference leg L = the leg with the longer mean swing time (the caller chooses it);
+ * for each reference stride [t_L,i, t_L,i+1) with exactly one IC t_S,i of the other leg inside it,
+ * φ_i = 360°·(t_S,i − t_L,i)/(t_L,i+1 − t_L,i); φ_ABS = mean|φ − 180°|; P_φABS = 100·φ_ABS/180;
+ * φ_CV = 100·SD(φ)/mean(φ) with SD ddof 1; PCI = φ_CV + P_φABS. φ is not folded into [0°, 180°]
+ * (folding biases PCI). Null with fewer than 2 phases.
+ */
+export function phaseCoordinationIndex(
+  referenceStrides: ReadonlyArray<{ icS: number; nextIcS: number }>,
+  otherInitialContactsS: readonly number[],
+): PhaseCoordination | null {
+  const phiDeg: number[] = [];
+  for (const s of referenceStrides) {
+    const inside = otherInitialContactsS.filter((t) => t > s.icS && t < s.nextIcS);
+    if (inside.length !== 1) continue;
+    phiDeg.push((360 * (inside[0]! - s.icS)) / (s.nextIcS - s.icS));
+  }
+  if (phiDeg.length < 2) return null;
+  const phiAbsDeg = mean(phiDeg.map((p) => Math.abs(p - 180)))!;
+  const pPhiAbsPct = (100 * phiAbsDeg) / 180;
+  const phiCvPct = coefficientOfVariationPct(phiDeg, 1)!;
+  return { phiDeg, phiAbsDeg, pPhiAbsPct, phiCvPct, pciPct: phiCvPct + pPhiAbsPct };
+}

@@ -1,0 +1,109 @@
+import type { Bout, Side, Stride } from "../types";
+import type { LegEvents } from "./gait-events";
+
+/** Stride-time gate between same-side ICs (s), as in a public MATLAB implementation (DOMAIN.md §7). */
+export const MIN_STRIDE_TIME_S = 0.25;
+export const MAX_STRIDE_TIME_S = 2.25;
+/** Strides this close to a turn are left out (s); strides next to turns differ (Kroneberg 2019), common-practice margin. */
+export const TURN_MARGIN_S = 1;
+
+export interface StrideContext {
+  bouts: readonly Bout[];
+  turns: readonly Bout[];
+  invalidSpans: readonly Bout[];
+}
+
+const overlaps = (a0: number, a1: number, b: Bout, margin = 0) => a0 < b.endS + margin && a1 > b.startS - margin;
+
+/**
+ * Strides of one side from its events (IC to next IC), with stance/swing, double support against the
+ * contralateral events, and the steady-state decision. Exclusion, in order: stride time outside
+ * 0.25–2.25 s; any overlap with an invalid span; within TURN_MARGIN_S of a turn; event order not
+ * IC < FC_contra < IC_contra < FC < next IC (or no FC); first or last stride of its walking bout.
+ */
+export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | null, ctx: StrideContext): Stride[] {
+  const ic = own.initialContactsS;
+  const fcs = own.finalContactsS;
+  const strides: Stride[] = [];
+  for (let k = 0; k + 1 < ic.length; k++) {
+    const a = ic[k]!;
+    const b = ic[k + 1]!;
+    const strideTimeS = b - a;
+    const inside = fcs.filter((t) => t > a && t < b);
+    const fcS = inside.length === 1 ? inside[0]! : null;
+    const stanceTimeS = fcS === null ? null : fcS - a;
+    const swingTimeS = fcS === null ? null : b - fcS;
+    let doubleSupportPct: number | null = null;
+    let orderOk = fcS !== null;
+    let stepTimeS: number | null = null;
+    if (contra) {
+      const prevContra = lastBefore(contra.initialContactsS, a);
+      if (prevContra !== null && a - prevContra < strideTimeS) stepTimeS = a - prevContra;
+      if (fcS !== null) {
+        const fcC = contra.finalContactsS.filter((t) => t > a && t < fcS);
+        const icC = contra.initialContactsS.filter((t) => t > a && t < b);
+        if (fcC.length === 1 && icC.length === 1 && fcC[0]! < icC[0]! && icC[0]! < fcS) {
+          doubleSupportPct = (100 * (fcC[0]! - a + (fcS - icC[0]!))) / strideTimeS;
+        } else orderOk = false;
+      }
+    }
+    let excludedReason: Stride["excludedReason"];
+    if (strideTimeS < MIN_STRIDE_TIME_S || strideTimeS > MAX_STRIDE_TIME_S) excludedReason = "out-of-range";
+    else if (ctx.invalidSpans.some((s) => overlaps(a, b, s))) excludedReason = "invalid-span";
+    else if (ctx.turns.some((t) => overlaps(a, b, t, TURN_MARGIN_S))) excludedReason = "turn";
+    else if (!orderOk) excludedReason = "event-order";
+    strides.push({
+      side,
+      icS: a,
+      nextIcS: b,
+      fcS,
+      strideTimeS,
+      stanceTimeS,
+      swingTimeS,
+      stancePct: stanceTimeS === null ? null : (100 * stanceTimeS) / strideTimeS,
+      swingPct: swingTimeS === null ? null : (100 * swingTimeS) / strideTimeS,
+      doubleSupportPct,
+      stepTimeS,
+      steady: excludedReason === undefined,
+      ...(excludedReason ? { excludedReason } : {}),
+    });
+  }
+  // First and last stride of each bout (and strides outside any bout) are bout edges.
+  const boutOf = (s: Stride) => ctx.bouts.findIndex((bt) => s.icS >= bt.startS && s.nextIcS <= bt.endS);
+  const byBout = new Map<number, Stride[]>();
+  for (const s of strides) {
+    const i = boutOf(s);
+    if (i < 0) {
+      if (s.steady) markEdge(s);
+      continue;
+    }
+    const list = byBout.get(i) ?? [];
+    list.push(s);
+    byBout.set(i, list);
+  }
+  for (const list of byBout.values()) {
+    if (list[0]!.steady) markEdge(list[0]!);
+    const last = list[list.length - 1]!;
+    if (last.steady) markEdge(last);
+  }
+  return strides;
+}
+
+function markEdge(s: Stride): void {
+  s.steady = false;
+  s.excludedReason = "bout-edge";
+}
+
+function lastBefore(sorted: readonly number[], t: number): number | null {
+  let lo = 0;
+  let hi = sorted.length - 1;
+  let ans: number | null = null;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    if (sorted[mid]! < t) {
+      ans = sorted[mid]!;
+      lo = mid + 1;
+    } else hi = mid - 1;
+  }
+  return ans;
+}

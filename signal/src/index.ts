@@ -1,0 +1,11 @@
+export * from "./types";
+export { analyze, ALGORITHM_VERSION, type AnalyzeOptions } from "./analyze";
+export { formatAnalysisTable } from "./format-table";
+export * from "./io";
+export * from "./timebase";
+export * from "./orientation";
+export * from "./filter";
+export * from "./activity";
+export * from "./gait";
+export * from "./quality";
+export * as coordination from "./coordination";
