@@ -1,0 +1,3 @@
+export * from "./jobs";
+export * from "./messages";
+export * from "./select-recipients";
