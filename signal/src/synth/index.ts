@@ -1,0 +1,16 @@
+export {
+  synthesizeSession,
+  resolveSynthOptions,
+  type SynthOptions,
+  type SynthSession,
+  type SynthFile,
+  type SynthTruth,
+  type SynthLegTruth,
+  type SynthArmLegTruth,
+  type SynthPlacement,
+  type ArmCouplingMode,
+  type ResolvedSynthOptions,
+} from "./synthesize-session";
+export { synthesizeSessionText } from "./synthesize-session-text";
+export { createPrng, type Prng } from "./prng";
+export { sensorCsvText, type SensorCsvHeader } from "./sensor-csv-text";
