@@ -1,0 +1,27 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { z } from "zod";
+import { PLACEMENTS } from "@pendula/ingest-server/contracts";
+import { api } from "@/lib/api-client";
+import { localDateTime } from "./date-time";
+import { deviceKeys } from "./device-keys";
+import { assignmentSchema, type Assignment } from "./devices";
+
+export const assignDeviceInputSchema = z.object({
+  patientId: z.string().min(1, { error: "choose a patient" }),
+  placement: z.enum(PLACEMENTS, { error: "choose a placement" }),
+  from: localDateTime("start"),
+});
+
+export type AssignDeviceInput = z.output<typeof assignDeviceInputSchema>;
+
+export function assignDevice(deviceId: string, input: AssignDeviceInput): Promise<Assignment> {
+  return api.post(`/devices/${encodeURIComponent(deviceId)}/assignments`, input, { schema: assignmentSchema });
+}
+
+export function useAssignDevice(deviceId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: AssignDeviceInput) => assignDevice(deviceId, input),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: deviceKeys.all }),
+  });
+}

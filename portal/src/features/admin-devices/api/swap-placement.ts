@@ -1,0 +1,36 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { z } from "zod";
+import { PLACEMENTS } from "@pendula/ingest-server/contracts";
+import { api } from "@/lib/api-client";
+import { localDateTime } from "./date-time";
+import { deviceKeys } from "./device-keys";
+import { assignmentSchema, type Assignment } from "./devices";
+
+export const swapPlacementInputSchema = z.object({
+  placement: z.enum(PLACEMENTS, { error: "choose a placement" }),
+  at: localDateTime("swap"),
+});
+
+export type SwapPlacementInput = z.output<typeof swapPlacementInputSchema>;
+
+/**
+ * Moves the device to another limb of the same patient: the server ends the running assignment at
+ * `at` and starts the new one at the same instant in one transaction, so no recording falls between
+ * two placements and a refused swap (409) leaves the old assignment untouched.
+ */
+export function swapPlacement(deviceId: string, assignmentId: string, input: SwapPlacementInput): Promise<Assignment> {
+  return api.post(
+    `/devices/${encodeURIComponent(deviceId)}/assignments/${encodeURIComponent(assignmentId)}/swap`,
+    input,
+    { schema: assignmentSchema },
+  );
+}
+
+export function useSwapPlacement(deviceId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ assignmentId, input }: { assignmentId: string; input: SwapPlacementInput }) =>
+      swapPlacement(deviceId, assignmentId, input),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: deviceKeys.all }),
+  });
+}
