@@ -17,6 +17,8 @@ export const SCOPES = [
   "notes:write",
   "training:read",
   "training:write",
+  // clinician (own caseload) and admin (any session): re-run processing from the stored raw files
+  "sessions:reprocess",
   // researcher
   "research:read",
   // admin
@@ -46,6 +48,7 @@ export const ROLE_SCOPES: Record<Role, readonly Scope[]> = {
     "training:read",
     "training:write",
     "invitations:write",
+    "sessions:reprocess",
   ],
   researcher: ["research:read"],
   admin: [
@@ -59,6 +62,7 @@ export const ROLE_SCOPES: Record<Role, readonly Scope[]> = {
     "invitations:write",
     "mailbox:read",
     "patients:list",
+    "sessions:reprocess",
   ],
 };
 

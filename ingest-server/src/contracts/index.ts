@@ -2,3 +2,9 @@
 // nothing here may import server code (knex, express, node built-ins).
 export * from "./enums";
 export * from "./common";
+export * from "./sessions";
+export * from "./patients";
+export * from "./trends";
+export * from "./notes";
+export * from "./training";
+export * from "./research";

@@ -1,0 +1,55 @@
+import { z } from "zod";
+import { isoDateTime, paging } from "./common";
+import { CONDITIONS, SEXES } from "./enums";
+import { sessionSummary } from "./sessions";
+
+/** Admin view: identity only — no metrics, no clinical data. */
+export const patientIdentity = z.object({
+  id: z.uuid(),
+  displayName: z.string(),
+  researchId: z.string(),
+  enrolledOn: z.iso.date(),
+  researchConsent: z.boolean(),
+});
+
+/** Clinician caseload row: identity plus the summary columns of the caseload table. */
+export const patientSummary = patientIdentity.extend({
+  birthYear: z.number().int(),
+  sex: z.enum(SEXES),
+  condition: z.enum(CONDITIONS),
+  expectedUploadsPerWeek: z.number().int(),
+  sessionsCount: z.number().int(),
+  lastUploadAt: isoDateTime.nullable(),
+  lastRecordedAt: isoDateTime.nullable(),
+  /** Uploads over the last 4 weeks as a share of the expected number (0–100+, null when none expected). */
+  adherencePct: z.number().nullable(),
+  latest: z.object({
+    sessionId: z.uuid().nullable(),
+    cadenceStepsPerMin: z.number().nullable(),
+    strideTimeCvPct: z.number().nullable(),
+    phaseCoordinationIndexPct: z.number().nullable(),
+  }),
+});
+export type PatientSummary = z.infer<typeof patientSummary>;
+
+export const patientListQuery = z.object({
+  q: z.string().trim().max(100).optional(),
+});
+
+export const patientList = z.object({ items: z.array(z.union([patientSummary, patientIdentity])) });
+
+export const patientDetail = patientIdentity.extend({
+  birthYear: z.number().int().optional(),
+  sex: z.enum(SEXES).optional(),
+  condition: z.enum(CONDITIONS).optional(),
+  conditionDetail: z.string().nullable().optional(),
+  expectedUploadsPerWeek: z.number().int().optional(),
+});
+
+export const patientSessionsQuery = paging;
+export const patientSessions = z.object({
+  items: z.array(sessionSummary),
+  total: z.number().int(),
+  limit: z.number().int(),
+  offset: z.number().int(),
+});

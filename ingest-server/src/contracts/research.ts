@@ -1,0 +1,60 @@
+import { z } from "zod";
+import { CONDITIONS } from "./enums";
+
+const AGE_BAND = /^(\d{1,2}-\d{1,2}|90\+)$/;
+
+/** A cohort definition; stateless — the portal keeps it and sends it again (POST body or query). */
+export const cohortDefinition = z.object({
+  conditions: z.array(z.enum(CONDITIONS)).max(CONDITIONS.length).default([]),
+  ageBands: z.array(z.string().regex(AGE_BAND, { error: "age bands look like 60-64 or 90+" })).max(19).default([]),
+  weeksSinceEnrolment: z
+    .object({ from: z.number().int().min(0).max(5200).default(0), to: z.number().int().min(0).max(5200).default(5200) })
+    .refine((w) => w.from <= w.to, { error: "weeksSinceEnrolment.from must not exceed to" })
+    .default({ from: 0, to: 5200 }),
+  metrics: z.array(z.string().max(100)).max(40).default([]),
+});
+export type CohortDefinition = z.infer<typeof cohortDefinition>;
+
+export const cohortCell = z.object({
+  condition: z.enum(CONDITIONS),
+  ageBand: z.string(),
+  /** Null when suppressed (fewer than k subjects): the count itself would disclose the small group. */
+  subjects: z.number().int().nullable(),
+  sessions: z.number().int().nullable(),
+  suppressed: z.boolean(),
+});
+
+export const cohortPreview = z.object({
+  k: z.number().int(),
+  definition: cohortDefinition,
+  metrics: z.array(z.string()),
+  cells: z.array(cohortCell),
+  totals: z.object({ subjects: z.number().int(), sessions: z.number().int(), suppressedCells: z.number().int() }),
+});
+
+/** GET /api/research/cohort-metrics: the definition as query parameters (comma-separated lists). */
+export const cohortMetricsQuery = z.object({
+  format: z.enum(["json", "csv", "fhir"]).default("json"),
+  conditions: z.string().max(200).optional(),
+  ageBands: z.string().max(400).optional(),
+  weeksFrom: z.coerce.number().int().min(0).max(5200).optional(),
+  weeksTo: z.coerce.number().int().min(0).max(5200).optional(),
+  metrics: z.string().max(2000).optional(),
+});
+
+export const researchRow = z.object({
+  subjectId: z.string(),
+  sessionRef: z.string(),
+  condition: z.enum(CONDITIONS),
+  ageBand: z.string(),
+  weeksSinceEnrolment: z.number().int(),
+  algorithmVersion: z.string().nullable(),
+  metrics: z.record(z.string(), z.number().nullable()),
+});
+
+export const cohortMetricsJson = z.object({
+  k: z.number().int(),
+  metrics: z.array(z.object({ key: z.string(), unit: z.string() })),
+  rows: z.array(researchRow),
+  suppressedCells: z.number().int(),
+});

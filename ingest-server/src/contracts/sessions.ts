@@ -1,0 +1,81 @@
+import { z } from "zod";
+import type { Analysis } from "@pendula/signal";
+import { isoDateTime } from "./common";
+import { PLACEMENTS, SESSION_STATUSES } from "./enums";
+
+/** Multipart fields besides `files` (one file per device; BIDS sets as their three files). */
+export const uploadFields = z.object({
+  patientId: z.uuid({ error: "patientId must be a UUID" }).optional(),
+  /** BIDS Motion only: clock time of the first sample (BIDS keeps it in *_scans.tsv acq_time). */
+  startUtc: isoDateTime.optional(),
+});
+
+export const uploadResponse = z.object({
+  id: z.uuid(),
+  status: z.enum(SESSION_STATUSES),
+  duplicate: z.boolean().optional(),
+});
+export type UploadResponse = z.infer<typeof uploadResponse>;
+
+export const sessionFile = z.object({
+  placement: z.enum(PLACEMENTS),
+  deviceSerial: z.string().optional(),
+  sizeBytes: z.number().int(),
+  format: z.string(),
+  originalName: z.string(),
+});
+
+/** The stored analysis object exactly as signal's analyze() returns it (and the CLI prints with --json). */
+export const analysisSchema = z.custom<Analysis>((v) => typeof v === "object" && v !== null && "metrics" in v, {
+  error: "analysis must be the analyze() object",
+});
+
+export const sessionSummary = z.object({
+  id: z.uuid(),
+  patientId: z.uuid(),
+  status: z.enum(SESSION_STATUSES),
+  progressPct: z.number().int(),
+  recordedAt: isoDateTime,
+  uploadedAt: isoDateTime,
+  durationS: z.number().nullable(),
+  algorithmVersion: z.string().nullable(),
+  error: z.string().optional(),
+  cadenceStepsPerMin: z.number().nullable().optional(),
+  strideTimeCvPct: z.number().nullable().optional(),
+  phaseCoordinationIndexPct: z.number().nullable().optional(),
+});
+export type SessionSummary = z.infer<typeof sessionSummary>;
+
+export const sessionDetail = sessionSummary.extend({
+  files: z.array(sessionFile),
+  analysis: analysisSchema.optional(),
+});
+export type SessionDetail = z.infer<typeof sessionDetail>;
+
+export const signalQuery = z.object({
+  placement: z.enum(PLACEMENTS).optional(),
+  from: z.coerce.number().min(0).optional(),
+  to: z.coerce.number().min(0).optional(),
+  maxPoints: z.coerce.number().int().min(10).max(20_000).default(2000),
+});
+
+export const signalResponse = z.object({
+  sessionId: z.uuid(),
+  unit: z.literal("deg/s"),
+  quantity: z.literal("sagittal angular velocity"),
+  fromS: z.number(),
+  toS: z.number(),
+  traces: z.array(
+    z.object({
+      placement: z.enum(PLACEMENTS),
+      sampleRateHz: z.number(),
+      /** True when min/max decimation was applied (each bucket gives its minimum and maximum). */
+      decimated: z.boolean(),
+      timeS: z.array(z.number()),
+      value: z.array(z.number()),
+    }),
+  ),
+});
+export type SignalResponse = z.infer<typeof signalResponse>;
+
+export const reprocessResponse = z.object({ id: z.uuid(), status: z.enum(SESSION_STATUSES) });

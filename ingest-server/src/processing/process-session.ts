@@ -1,0 +1,155 @@
+import { ALGORITHM_VERSION, analyze, readBidsMotion, readSensorCsv, bidsSidecarNames, type Analysis, type Placement, type SensorRecording } from "@pendula/signal";
+import type { Knex } from "knex";
+import type { AppDeps } from "../deps";
+import { metricRows } from "../metrics/metric-catalog";
+import { findSession, listRawFiles, type RawFileRow } from "../routes/sessions/sessions.repository";
+import { sagittalTraces, type SessionTrace } from "./session-traces";
+
+export type ProcessDeps = Pick<AppDeps, "db" | "storage">;
+
+export type ProcessOutcome = "done" | "missing";
+
+/**
+ * Loads a session's raw files from storage, parses them with the same readers as the upload,
+ * applies the placements recorded at upload (from the device assignments), runs analyze() and
+ * writes the result — analysis, metrics, strides and chart traces — in ONE transaction that first
+ * deletes whatever an earlier run wrote. A re-run, or a retry after a crash half-way, therefore
+ * leaves exactly one set of rows. The row lock on walk_sessions serialises two workers that were
+ * handed the same session (a reprocess racing a retry): the second simply rewrites the same set.
+ *
+ * Throws on failure; the worker decides between retry and `failed` (see worker.ts).
+ */
+export async function processSession(deps: ProcessDeps, sessionId: string): Promise<ProcessOutcome> {
+  const session = await findSession(deps.db, sessionId);
+  if (!session) return "missing";
+  await deps.db("walk_sessions")
+    .where({ id: sessionId })
+    .update({ status: "processing", progress_pct: 5, attempts: deps.db.raw("attempts + 1"), updated_at: deps.db.fn.now() });
+
+  const files = await listRawFiles(deps.db, sessionId);
+  if (files.length === 0) throw new Error(`session ${sessionId} has no raw files`);
+  const recordings = await loadRecordings(deps, files);
+  await setProgress(deps.db, sessionId, 30);
+
+  const analysis = analyze(recordings);
+  await setProgress(deps.db, sessionId, 70);
+  const traces = sagittalTraces(recordings, analysis);
+
+  await writeResults(deps.db, sessionId, session.patient_id, session.recorded_at, analysis, traces);
+  return "done";
+}
+
+async function setProgress(db: Knex, sessionId: string, pct: number): Promise<void> {
+  await db("walk_sessions").where({ id: sessionId }).update({ progress_pct: pct, updated_at: db.fn.now() });
+}
+
+/** Stored files → recordings with the upload-time placements (the file header's placement is not trusted). */
+export async function loadRecordings(deps: Pick<ProcessDeps, "storage">, files: RawFileRow[]): Promise<SensorRecording[]> {
+  const texts = new Map<string, string>();
+  for (const f of files) texts.set(f.original_name, (await deps.storage.get(f.storage_key)).toString("utf8"));
+  const recordings: SensorRecording[] = [];
+  for (const f of files) {
+    if (f.format === "pendula-csv-v1") {
+      const r = readSensorCsv(texts.get(f.original_name)!, f.original_name);
+      recordings.push({ ...r, placement: f.placement as Placement });
+      continue;
+    }
+    if (!/_motion\.tsv$/i.test(f.original_name)) continue; // sidecars are read with their data file
+    const names = bidsSidecarNames(f.original_name);
+    const find = (name: string) => {
+      const hit = files.find((g) => g.original_name.toLowerCase() === name.toLowerCase());
+      if (!hit) throw new Error(`session file ${name} missing from storage records`);
+      return hit;
+    };
+    const channels = find(names.channels);
+    const json = find(names.json);
+    const group = readBidsMotion({
+      motionTsv: texts.get(f.original_name)!,
+      motionFileName: f.original_name,
+      channelsTsv: texts.get(channels.original_name)!,
+      channelsFileName: channels.original_name,
+      motionJson: texts.get(json.original_name)!,
+      jsonFileName: json.original_name,
+      startUtc: new Date(f.start_utc).toISOString(),
+    });
+    for (const r of group) {
+      const placement = f.recording_placements?.[r.deviceSerial] ?? f.placement;
+      recordings.push({ ...r, placement: placement as Placement });
+    }
+  }
+  return recordings;
+}
+
+async function writeResults(
+  db: Knex,
+  sessionId: string,
+  patientId: string,
+  recordedAt: Date,
+  analysis: Analysis,
+  traces: SessionTrace[],
+): Promise<void> {
+  await db.transaction(async (trx) => {
+    await trx("walk_sessions").where({ id: sessionId }).forUpdate().first("id");
+    await trx("session_metrics").where({ session_id: sessionId }).delete();
+    await trx("strides").where({ session_id: sessionId }).delete();
+    await trx("session_traces").where({ session_id: sessionId }).delete();
+
+    const metrics = metricRows(analysis.metrics);
+    if (metrics.length > 0) {
+      await trx("session_metrics").insert(
+        metrics.map((m) => ({ session_id: sessionId, patient_id: patientId, recorded_at: recordedAt, metric_key: m.key, value: m.value, unit: m.unit })),
+      );
+    }
+    const strides = analysis.strides.map((s, ordinal) => ({
+      session_id: sessionId,
+      ordinal,
+      side: s.side,
+      ic_s: s.icS,
+      next_ic_s: s.nextIcS,
+      fc_s: s.fcS,
+      stride_time_s: s.strideTimeS,
+      stance_pct: s.stancePct,
+      swing_pct: s.swingPct,
+      double_support_pct: s.doubleSupportPct,
+      steady: s.steady,
+      excluded_reason: s.excludedReason ?? null,
+    }));
+    for (let i = 0; i < strides.length; i += 1000) await trx("strides").insert(strides.slice(i, i + 1000));
+    for (const t of traces) {
+      await trx("session_traces").insert({
+        session_id: sessionId,
+        placement: t.placement,
+        sample_rate_hz: t.sampleRateHz,
+        start_s: t.startS,
+        sample_count: t.samples.length,
+        samples: Buffer.from(t.samples.buffer, t.samples.byteOffset, t.samples.byteLength),
+      });
+    }
+    await trx("walk_sessions")
+      .where({ id: sessionId })
+      .update({
+        status: "done",
+        progress_pct: 100,
+        analysis: JSON.stringify(analysis),
+        algorithm_version: analysis.algorithm?.version ?? ALGORITHM_VERSION,
+        duration_s: analysis.session.durationS,
+        error: null,
+        processed_at: trx.fn.now(),
+        updated_at: trx.fn.now(),
+      });
+  });
+}
+
+/** After the last attempt: the session shows `failed` with the reason, raw files untouched. */
+export async function markFailed(db: Knex, sessionId: string, message: string): Promise<void> {
+  await db("walk_sessions")
+    .where({ id: sessionId })
+    .update({ status: "failed", error: message.slice(0, 2000), updated_at: db.fn.now() });
+}
+
+/** Between attempts: queued again, with the last error visible while a retry is pending. */
+export async function markRetrying(db: Knex, sessionId: string, message: string): Promise<void> {
+  await db("walk_sessions")
+    .where({ id: sessionId })
+    .update({ status: "queued", progress_pct: 0, error: `retrying after: ${message}`.slice(0, 2000), updated_at: db.fn.now() });
+}

@@ -1,0 +1,117 @@
+import type { Knex } from "knex";
+import type { SessionRow } from "../sessions/sessions.repository";
+
+export interface PatientRow {
+  id: string;
+  display_name: string;
+  research_id: string;
+  birth_year: number;
+  sex: "female" | "male" | "other" | "unknown";
+  condition: "incomplete_sci" | "stroke" | "parkinsons" | "other";
+  condition_detail: string | null;
+  enrolled_on: Date | string;
+  research_consent: boolean;
+  expected_uploads_per_week: number;
+}
+
+export function findPatient(db: Knex, id: string): Promise<PatientRow | undefined> {
+  return db<PatientRow>("patients").where({ id }).first();
+}
+
+/** Patients of a clinician's caseload, or all when `clinicianId` is null, optionally filtered by name. */
+export function listPatients(db: Knex, clinicianId: string | null, q?: string): Promise<PatientRow[]> {
+  const query = db<PatientRow>("patients as p").select("p.*").orderBy("p.display_name").limit(2000);
+  if (clinicianId) query.join("caseload as c", "c.patient_id", "p.id").where("c.clinician_id", clinicianId);
+  if (q) query.whereILike("p.display_name", `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`);
+  return query;
+}
+
+export interface SessionStats {
+  patient_id: string;
+  sessions_count: number;
+  last_upload_at: Date | null;
+  last_recorded_at: Date | null;
+}
+
+export async function sessionStats(db: Knex, patientIds: string[]): Promise<Map<string, SessionStats>> {
+  if (patientIds.length === 0) return new Map();
+  const rows: Array<{ patient_id: string; sessions_count: string; last_upload_at: Date | null; last_recorded_at: Date | null }> = await db(
+    "walk_sessions",
+  )
+    .whereIn("patient_id", patientIds)
+    .groupBy("patient_id")
+    .select("patient_id", db.raw("count(*) AS sessions_count"), db.raw("max(created_at) AS last_upload_at"), db.raw("max(recorded_at) AS last_recorded_at"));
+  return new Map(rows.map((r) => [r.patient_id, { ...r, sessions_count: Number(r.sessions_count) }]));
+}
+
+/** recorded_at of every session that was not a failed upload, per patient (adherence input). */
+export async function sessionDates(db: Knex, patientIds: string[]): Promise<Map<string, string[]>> {
+  const out = new Map<string, string[]>();
+  if (patientIds.length === 0) return out;
+  const rows = await db("walk_sessions").whereIn("patient_id", patientIds).whereNot("status", "failed").select("patient_id", "recorded_at");
+  for (const r of rows) {
+    const list = out.get(r.patient_id) ?? [];
+    list.push(new Date(r.recorded_at).toISOString());
+    out.set(r.patient_id, list);
+  }
+  return out;
+}
+
+/** Latest processed session per patient and its values of `keys`. */
+export async function latestMetrics(
+  db: Knex,
+  patientIds: string[],
+  keys: string[],
+): Promise<Map<string, { sessionId: string; values: Record<string, number> }>> {
+  const out = new Map<string, { sessionId: string; values: Record<string, number> }>();
+  if (patientIds.length === 0) return out;
+  const latest = await db
+    .select(db.raw("DISTINCT ON (patient_id) patient_id, id"))
+    .from("walk_sessions")
+    .whereIn("patient_id", patientIds)
+    .andWhere({ status: "done" })
+    .orderBy([{ column: "patient_id" }, { column: "recorded_at", order: "desc" }]);
+  if (latest.length === 0) return out;
+  const metrics = await db("session_metrics")
+    .whereIn("session_id", latest.map((l) => l.id))
+    .whereIn("metric_key", keys)
+    .select("session_id", "metric_key", "value");
+  for (const l of latest) out.set(l.patient_id, { sessionId: l.id, values: {} });
+  const bySession = new Map(latest.map((l) => [l.id as string, l.patient_id as string]));
+  for (const m of metrics) out.get(bySession.get(m.session_id)!)!.values[m.metric_key] = Number(m.value);
+  return out;
+}
+
+export async function listSessions(db: Knex, patientId: string, limit: number, offset: number) {
+  const [items, total] = await Promise.all([
+    db<SessionRow>("walk_sessions").where({ patient_id: patientId }).orderBy("recorded_at", "desc").limit(limit).offset(offset),
+    db("walk_sessions").where({ patient_id: patientId }).count<{ n: string }[]>({ n: "*" }),
+  ]);
+  return { items, total: Number(total[0]?.n ?? 0) };
+}
+
+export async function sessionMetricValues(db: Knex, sessionIds: string[], keys: string[]) {
+  const out = new Map<string, Record<string, number>>();
+  if (sessionIds.length === 0) return out;
+  const rows = await db("session_metrics").whereIn("session_id", sessionIds).whereIn("metric_key", keys).select("session_id", "metric_key", "value");
+  for (const r of rows) {
+    const v = out.get(r.session_id) ?? {};
+    v[r.metric_key] = Number(r.value);
+    out.set(r.session_id, v);
+  }
+  return out;
+}
+
+/** Trend rows: one per processed session and metric, oldest first (index patient_id, metric_key, recorded_at). */
+export function trendRows(db: Knex, patientId: string, keys: string[] | null, from?: string, to?: string) {
+  const q = db("session_metrics as m")
+    .join("walk_sessions as s", "s.id", "m.session_id")
+    .where("m.patient_id", patientId)
+    .andWhere("s.status", "done")
+    .select("m.metric_key", "m.unit", "m.value", "m.session_id", "m.recorded_at")
+    .orderBy([{ column: "m.metric_key" }, { column: "m.recorded_at" }]);
+  if (keys) q.whereIn("m.metric_key", keys);
+  if (from) q.andWhere("m.recorded_at", ">=", from);
+  if (to) q.andWhere("m.recorded_at", "<=", to);
+  return q as Promise<Array<{ metric_key: string; unit: string; value: number; session_id: string; recorded_at: Date }>>;
+}

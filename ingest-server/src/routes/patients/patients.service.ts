@@ -1,0 +1,148 @@
+import type { Request } from "express";
+import { audit } from "../../audit/audit";
+import { assertPatientAccess } from "../../auth/patient-access";
+import { annotateTrends, computeAdherence } from "../../clinical";
+import type { AppDeps } from "../../deps";
+import { HttpError } from "../../http-error";
+import type { AuthContext } from "../../middleware/authenticate";
+import { metricDefinition, METRIC_KEYS } from "../../metrics/metric-catalog";
+import { toSummary } from "../sessions/sessions.service";
+import {
+  findPatient,
+  latestMetrics,
+  listPatients,
+  listSessions,
+  sessionDates,
+  sessionMetricValues,
+  sessionStats,
+  trendRows,
+  type PatientRow,
+} from "./patients.repository";
+
+const SUMMARY_KEYS = ["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct"];
+const ADHERENCE_WINDOW_WEEKS = 4;
+
+const isoDate = (d: Date | string) => (d instanceof Date ? d.toISOString().slice(0, 10) : String(d).slice(0, 10));
+const isoOrNull = (d: Date | null | undefined) => (d ? new Date(d).toISOString() : null);
+
+function identity(p: PatientRow) {
+  return {
+    id: p.id,
+    displayName: p.display_name,
+    researchId: p.research_id,
+    enrolledOn: isoDate(p.enrolled_on),
+    researchConsent: p.research_consent,
+  };
+}
+
+/**
+ * Share of the last ended weeks (at most four, the enrolment week excluded) in which the expected
+ * number of tests was uploaded; null when none are expected or no week has ended yet.
+ */
+export function recentAdherencePct(p: PatientRow, dates: string[], now: Date): number | null {
+  if (p.expected_uploads_per_week === 0) return null;
+  const a = computeAdherence({ enrolledOn: isoDate(p.enrolled_on), expectedPerWeek: p.expected_uploads_per_week, sessionDates: dates, now });
+  const ended = a.weeks.slice(1, -1).slice(-ADHERENCE_WINDOW_WEEKS);
+  if (ended.length === 0) return null;
+  return Math.round((100 * ended.filter((w) => w.met).length) / ended.length);
+}
+
+/** Clinician: own caseload with summary columns. Admin: every patient, identity columns only. */
+export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthContext, q?: string) {
+  if (auth.role === "admin") {
+    const rows = await listPatients(deps.db, null, q);
+    await audit(deps.db, req, { action: "patient.list", resourceType: "patient", details: { count: rows.length, view: "identity" } });
+    return { items: rows.map(identity) };
+  }
+  if (auth.role !== "clinician") throw new HttpError(403, "forbidden", "only clinicians and admins list patients");
+  const rows = await listPatients(deps.db, auth.userId, q);
+  const ids = rows.map((r) => r.id);
+  const [stats, dates, latest] = await Promise.all([sessionStats(deps.db, ids), sessionDates(deps.db, ids), latestMetrics(deps.db, ids, SUMMARY_KEYS)]);
+  const now = new Date();
+  await audit(deps.db, req, { action: "patient.list", resourceType: "patient", details: { count: rows.length, view: "caseload" } });
+  return {
+    items: rows.map((p) => {
+      const s = stats.get(p.id);
+      const l = latest.get(p.id);
+      return {
+        ...identity(p),
+        birthYear: p.birth_year,
+        sex: p.sex,
+        condition: p.condition,
+        expectedUploadsPerWeek: p.expected_uploads_per_week,
+        sessionsCount: s?.sessions_count ?? 0,
+        lastUploadAt: isoOrNull(s?.last_upload_at),
+        lastRecordedAt: isoOrNull(s?.last_recorded_at),
+        adherencePct: recentAdherencePct(p, dates.get(p.id) ?? [], now),
+        latest: {
+          sessionId: l?.sessionId ?? null,
+          cadenceStepsPerMin: l?.values.cadenceStepsPerMin ?? null,
+          strideTimeCvPct: l?.values.strideTimeCvPct ?? null,
+          phaseCoordinationIndexPct: l?.values.phaseCoordinationIndexPct ?? null,
+        },
+      };
+    }),
+  };
+}
+
+export async function getPatient(deps: AppDeps, req: Request, auth: AuthContext, id: string) {
+  await assertPatientAccess(deps.db, auth, id, "identity");
+  const p = (await findPatient(deps.db, id))!;
+  await audit(deps.db, req, { action: "patient.read", resourceType: "patient", resourceId: id, patientId: id });
+  if (auth.role === "admin") return identity(p);
+  return {
+    ...identity(p),
+    birthYear: p.birth_year,
+    sex: p.sex,
+    condition: p.condition,
+    conditionDetail: p.condition_detail,
+    expectedUploadsPerWeek: p.expected_uploads_per_week,
+  };
+}
+
+export async function getPatientSessions(deps: AppDeps, req: Request, auth: AuthContext, id: string, limit: number, offset: number) {
+  await assertPatientAccess(deps.db, auth, id, "clinical");
+  const { items, total } = await listSessions(deps.db, id, limit, offset);
+  const values = await sessionMetricValues(deps.db, items.map((s) => s.id), SUMMARY_KEYS);
+  await audit(deps.db, req, { action: "patient.read_sessions", resourceType: "patient", resourceId: id, patientId: id });
+  return { items: items.map((s) => toSummary(s, values.get(s.id))), total, limit, offset };
+}
+
+function parseKeys(raw: string | undefined): string[] | null {
+  if (!raw) return null;
+  const keys = raw.split(",").map((k) => k.trim()).filter(Boolean);
+  const unknown = keys.filter((k) => !metricDefinition(k));
+  if (unknown.length) throw new HttpError(400, "invalid_request", `unknown metric key(s): ${unknown.join(", ")}`, { known: METRIC_KEYS });
+  return keys;
+}
+
+/**
+ * Per metric, one point per processed session, annotated by the clinical-change module (flags,
+ * baseline, MDC, reference bands, coordination events, cautions). The flags support the
+ * clinician's reading of a trend; they are not a diagnosis and defer to local protocols.
+ */
+export async function getTrends(deps: AppDeps, req: Request, auth: AuthContext, id: string, query: { metrics?: string; from?: string; to?: string }) {
+  await assertPatientAccess(deps.db, auth, id, "clinical");
+  const keys = parseKeys(query.metrics);
+  const p = (await findPatient(deps.db, id))!;
+  const rows = await trendRows(deps.db, id, keys, query.from, query.to);
+  const grouped = new Map<string, { key: string; unit: string; points: Array<{ sessionId: string; recordedAt: string; value: number }> }>();
+  for (const r of rows) {
+    let m = grouped.get(r.metric_key);
+    if (!m) grouped.set(r.metric_key, (m = { key: r.metric_key, unit: r.unit, points: [] }));
+    m.points.push({ sessionId: r.session_id, recordedAt: new Date(r.recorded_at).toISOString(), value: Number(r.value) });
+  }
+  // Catalogue order, so the portal's metric list is stable.
+  const ordered = [...grouped.values()].sort((a, b) => METRIC_KEYS.indexOf(a.key) - METRIC_KEYS.indexOf(b.key));
+  const annotated = annotateTrends({
+    metrics: ordered,
+    patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: isoDate(p.enrolled_on) },
+  });
+  await audit(deps.db, req, { action: "patient.read_trends", resourceType: "patient", resourceId: id, patientId: id });
+  return {
+    patientId: id,
+    metrics: annotated.metrics.map((m) => ({ ...m, label: metricDefinition(m.key)?.label })),
+    events: annotated.events,
+    cautions: annotated.cautions,
+  };
+}

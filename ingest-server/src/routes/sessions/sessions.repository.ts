@@ -1,0 +1,112 @@
+import type { Knex } from "knex";
+
+export interface SessionRow {
+  id: string;
+  patient_id: string;
+  recorded_at: Date;
+  uploaded_by: string | null;
+  status: "queued" | "processing" | "done" | "failed";
+  progress_pct: number;
+  attempts: number;
+  algorithm_version: string | null;
+  analysis: unknown;
+  error: string | null;
+  content_sha256: string;
+  duration_s: number | null;
+  created_at: Date;
+  updated_at: Date;
+  processed_at: Date | null;
+}
+
+export interface RawFileRow {
+  id: string;
+  session_id: string;
+  storage_key: string;
+  sha256: string;
+  size_bytes: string | number;
+  original_name: string;
+  format: "pendula-csv-v1" | "bids-motion";
+  device_serial: string;
+  device_id: string | null;
+  placement: string;
+  start_utc: Date;
+  recording_placements: Record<string, string> | null;
+}
+
+export type NewRawFile = Omit<RawFileRow, "id" | "session_id">;
+
+/** The device with this serial and, when one is active at `at`, its assignment (any patient). */
+export async function findDeviceAt(
+  db: Knex,
+  serial: string,
+  at: string,
+): Promise<{ deviceId: string; assignment: { patientId: string; placement: string } | null } | null> {
+  const device = await db("devices").where({ serial }).first("id");
+  if (!device) return null;
+  const assignment = await db("device_assignments")
+    .where({ device_id: device.id })
+    .andWhere("valid_from", "<=", at)
+    .andWhere((q) => q.whereNull("valid_to").orWhere("valid_to", ">", at))
+    .first("patient_id", "placement");
+  return {
+    deviceId: device.id as string,
+    assignment: assignment ? { patientId: assignment.patient_id as string, placement: assignment.placement as string } : null,
+  };
+}
+
+export function findSessionByContent(db: Knex, patientId: string, contentSha256: string): Promise<SessionRow | undefined> {
+  return db<SessionRow>("walk_sessions").where({ patient_id: patientId, content_sha256: contentSha256 }).first();
+}
+
+export function findSession(db: Knex, id: string): Promise<SessionRow | undefined> {
+  return db<SessionRow>("walk_sessions").where({ id }).first();
+}
+
+export function listRawFiles(db: Knex, sessionId: string): Promise<RawFileRow[]> {
+  return db<RawFileRow>("raw_files").where({ session_id: sessionId }).orderBy("storage_key");
+}
+
+/** The session and its files in one transaction: either both exist or neither does. */
+export async function insertSessionWithFiles(
+  db: Knex,
+  session: { id: string; patientId: string; recordedAt: string; uploadedBy: string; contentSha256: string },
+  files: NewRawFile[],
+): Promise<void> {
+  await db.transaction(async (trx) => {
+    await trx("walk_sessions").insert({
+      id: session.id,
+      patient_id: session.patientId,
+      recorded_at: session.recordedAt,
+      uploaded_by: session.uploadedBy,
+      status: "queued",
+      progress_pct: 0,
+      content_sha256: session.contentSha256,
+    });
+    await trx("raw_files").insert(
+      files.map((f) => ({
+        ...f,
+        session_id: session.id,
+        recording_placements: f.recording_placements ? JSON.stringify(f.recording_placements) : null,
+      })),
+    );
+  });
+}
+
+/** True for PostgreSQL's unique violation on (patient_id, content_sha256). */
+export function isDuplicateContentError(err: unknown): boolean {
+  const e = err as { code?: string; constraint?: string };
+  return e?.code === "23505" && typeof e.constraint === "string" && e.constraint.includes("content_sha256");
+}
+
+export async function markQueued(db: Knex, id: string): Promise<void> {
+  await db("walk_sessions").where({ id }).update({ status: "queued", progress_pct: 0, error: null, updated_at: db.fn.now() });
+}
+
+export function listTraces(db: Knex, sessionId: string, placement?: string) {
+  const q = db("session_traces")
+    .where({ session_id: sessionId })
+    .select("placement", "sample_rate_hz", "start_s", "sample_count", "samples")
+    .orderBy("placement");
+  if (placement) q.andWhere({ placement });
+  return q as Promise<Array<{ placement: string; sample_rate_hz: number; start_s: number; sample_count: number; samples: Buffer }>>;
+}

@@ -1,0 +1,71 @@
+import multer from "multer";
+import type { RequestHandler } from "express";
+import { idParams } from "../../contracts/common";
+import { reprocessResponse, sessionDetail, signalQuery, signalResponse, uploadFields, uploadResponse } from "../../contracts/sessions";
+import type { AppDeps } from "../../deps";
+import { ApiRouter, type RouteModule } from "../../http/api-router";
+import { getSession, getSessionSignal, reprocessSession } from "./sessions.service";
+import { uploadSession } from "./upload.service";
+
+/** Multipart parsing in memory: the files are parsed and hashed before anything is stored. */
+function uploadMiddleware(deps: AppDeps): RequestHandler {
+  const { maxFiles, maxFileBytes } = deps.config.upload;
+  return multer({
+    storage: multer.memoryStorage(),
+    limits: { files: maxFiles, fileSize: maxFileBytes, fields: 10, fieldSize: 4096, parts: maxFiles + 10 },
+  }).array("files");
+}
+
+export function sessionsRouter(deps: AppDeps): ApiRouter {
+  const api = new ApiRouter("/api/sessions", deps);
+  api.endpoint({
+    method: "post",
+    path: "/",
+    summary: "Upload one walking test (multipart field `files`, one file per device); 202 queued, 200 when the same files were uploaded before",
+    access: { scopes: ["sessions:write:own", "sessions:write:caseload"] },
+    before: [uploadMiddleware(deps)],
+    request: { body: uploadFields },
+    status: 202,
+    response: uploadResponse,
+    handler: async ({ auth, body }, req, res) => {
+      const files = (Array.isArray(req.files) ? req.files : []).map((f) => ({ originalName: f.originalname, buffer: f.buffer }));
+      const result = await uploadSession(deps, req, { auth, files, patientId: body.patientId, bidsStartUtc: body.startUtc });
+      if (result.duplicate) {
+        res.status(200).json(uploadResponse.parse(result));
+        return undefined;
+      }
+      return { id: result.id, status: result.status };
+    },
+  });
+  api.endpoint({
+    method: "get",
+    path: "/:id",
+    summary: "One session: status, progress, files and, when done, the full analysis",
+    access: { scopes: ["sessions:read:own", "sessions:read:caseload"] },
+    request: { params: idParams },
+    response: sessionDetail,
+    handler: ({ auth, params }, req) => getSession(deps, req, auth, params.id),
+  });
+  api.endpoint({
+    method: "get",
+    path: "/:id/signal",
+    summary: "Sagittal angular velocity per placement, min/max-decimated for the session chart",
+    access: { scopes: ["sessions:read:own", "sessions:read:caseload"] },
+    request: { params: idParams, query: signalQuery },
+    response: signalResponse,
+    handler: ({ auth, params, query }, req) => getSessionSignal(deps, req, auth, params.id, query),
+  });
+  api.endpoint({
+    method: "post",
+    path: "/:id/reprocess",
+    summary: "Queue the session again from its stored raw files",
+    access: { scopes: ["sessions:reprocess"] },
+    request: { params: idParams },
+    status: 202,
+    response: reprocessResponse,
+    handler: ({ auth, params }, req) => reprocessSession(deps, req, auth, params.id),
+  });
+  return api;
+}
+
+export const sessionsRoutes: RouteModule = { prefix: "/api/sessions", router: sessionsRouter };

@@ -1,0 +1,117 @@
+import type { Request } from "express";
+import { audit } from "../../audit/audit";
+import { assertPatientAccess } from "../../auth/patient-access";
+import type { SessionDetail, SessionSummary, SignalResponse } from "../../contracts/sessions";
+import type { AppDeps } from "../../deps";
+import { HttpError } from "../../http-error";
+import type { AuthContext } from "../../middleware/authenticate";
+import { minMaxDecimate } from "../../processing/min-max-decimate";
+import { enqueueProcessing } from "./upload.service";
+import { findSession, listRawFiles, listTraces, markQueued, type SessionRow } from "./sessions.repository";
+
+const notFound = () => new HttpError(404, "not_found", "session not found");
+
+/** The session if the caller may read it clinically; the same 404 whether it is missing or out of scope. */
+export async function loadSessionFor(deps: AppDeps, auth: AuthContext, id: string): Promise<SessionRow> {
+  const session = await findSession(deps.db, id);
+  if (!session) throw notFound();
+  try {
+    await assertPatientAccess(deps.db, auth, session.patient_id, "clinical");
+  } catch (err) {
+    if (err instanceof HttpError && err.status === 404) throw notFound();
+    throw err;
+  }
+  return session;
+}
+
+const iso = (d: Date | string) => new Date(d).toISOString();
+
+export function toSummary(s: SessionRow, metrics: Record<string, number> = {}): SessionSummary {
+  return {
+    id: s.id,
+    patientId: s.patient_id,
+    status: s.status,
+    progressPct: s.progress_pct,
+    recordedAt: iso(s.recorded_at),
+    uploadedAt: iso(s.created_at),
+    durationS: s.duration_s,
+    algorithmVersion: s.algorithm_version,
+    ...(s.error ? { error: s.error } : {}),
+    cadenceStepsPerMin: metrics.cadenceStepsPerMin ?? null,
+    strideTimeCvPct: metrics.strideTimeCvPct ?? null,
+    phaseCoordinationIndexPct: metrics.phaseCoordinationIndexPct ?? null,
+  };
+}
+
+export async function getSession(deps: AppDeps, req: Request, auth: AuthContext, id: string): Promise<SessionDetail> {
+  const s = await loadSessionFor(deps, auth, id);
+  const files = await listRawFiles(deps.db, id);
+  await audit(deps.db, req, { action: "session.read", resourceType: "session", resourceId: id, patientId: s.patient_id });
+  const metricRows = await deps.db("session_metrics").where({ session_id: id }).select("metric_key", "value");
+  const metrics = Object.fromEntries(metricRows.map((m) => [m.metric_key as string, Number(m.value)]));
+  return {
+    ...toSummary(s, metrics),
+    files: files.map((f) => ({
+      placement: f.placement as SessionDetail["files"][number]["placement"],
+      deviceSerial: f.device_serial,
+      sizeBytes: Number(f.size_bytes),
+      format: f.format,
+      originalName: f.original_name,
+    })),
+    ...(s.status === "done" && s.analysis ? { analysis: s.analysis as SessionDetail["analysis"] } : {}),
+  };
+}
+
+export async function getSessionSignal(
+  deps: AppDeps,
+  req: Request,
+  auth: AuthContext,
+  id: string,
+  query: { placement?: string; from?: number; to?: number; maxPoints: number },
+): Promise<SignalResponse> {
+  const s = await loadSessionFor(deps, auth, id);
+  if (s.status !== "done") throw new HttpError(409, "not_processed", `session is ${s.status}; the signal is available once processing is done`);
+  const rows = await listTraces(deps.db, id, query.placement);
+  if (query.placement && rows.length === 0) throw new HttpError(404, "not_found", `no ${query.placement} trace in this session`);
+  const duration = s.duration_s ?? Math.max(0, ...rows.map((r) => (r.sample_count - 1) / r.sample_rate_hz));
+  const fromS = query.from ?? 0;
+  const toS = query.to ?? duration;
+  if (toS < fromS) throw new HttpError(400, "invalid_request", "`to` must not be before `from`");
+  await audit(deps.db, req, { action: "session.read_signal", resourceType: "session", resourceId: id, patientId: s.patient_id });
+  return {
+    sessionId: id,
+    unit: "deg/s",
+    quantity: "sagittal angular velocity",
+    fromS,
+    toS,
+    traces: rows.map((r) => {
+      const buf: Buffer = r.samples;
+      // Copy into an aligned buffer: a pg Buffer may start at any byte offset of its pool.
+      const samples = new Float32Array(new Uint8Array(buf).buffer, 0, r.sample_count);
+      const inWindow = Math.floor((toS - fromS) * r.sample_rate_hz) + 1;
+      const out = minMaxDecimate(samples, r.sample_rate_hz, r.start_s, fromS, toS, query.maxPoints);
+      return {
+        placement: r.placement as SignalResponse["traces"][number]["placement"],
+        sampleRateHz: r.sample_rate_hz,
+        decimated: inWindow > query.maxPoints,
+        timeS: out.timeS.map((t) => Math.round(t * 1e4) / 1e4),
+        value: out.value.map((v) => Math.round(v * 100) / 100),
+      };
+    }),
+  };
+}
+
+/** Re-queues a session from its stored raw files (clinician of the caseload, or an admin). */
+export async function reprocessSession(deps: AppDeps, req: Request, auth: AuthContext, id: string) {
+  let session: SessionRow | undefined;
+  if (auth.role === "admin") {
+    session = await findSession(deps.db, id);
+    if (!session) throw notFound();
+  } else {
+    session = await loadSessionFor(deps, auth, id);
+  }
+  await markQueued(deps.db, id);
+  await enqueueProcessing(deps, id);
+  await audit(deps.db, req, { action: "session.reprocess", resourceType: "session", resourceId: id, patientId: session.patient_id });
+  return { id, status: "queued" as const };
+}

@@ -1,0 +1,184 @@
+import { randomUUID } from "node:crypto";
+import type { Request } from "express";
+import { audit } from "../../audit/audit";
+import { assertPatientAccess } from "../../auth/patient-access";
+import type { AppDeps } from "../../deps";
+import { HttpError } from "../../http-error";
+import type { AuthContext } from "../../middleware/authenticate";
+import { QUEUES } from "../../queue/queue";
+import { invalidFile, parseUpload, type IncomingFile, type ParsedUpload } from "./parse-upload";
+import {
+  findDeviceAt,
+  findSession,
+  findSessionByContent,
+  insertSessionWithFiles,
+  isDuplicateContentError,
+  type NewRawFile,
+} from "./sessions.repository";
+
+export interface UploadResult {
+  id: string;
+  status: string;
+  duplicate: boolean;
+}
+
+export interface UploadInput {
+  auth: AuthContext;
+  files: IncomingFile[];
+  /** Required when a clinician uploads; ignored (must match) for a patient. */
+  patientId?: string;
+  bidsStartUtc?: string;
+}
+
+/** Job payload of QUEUES.processSession. */
+export interface ProcessSessionJob {
+  sessionId: string;
+}
+
+export async function enqueueProcessing(deps: Pick<AppDeps, "queue">, sessionId: string): Promise<void> {
+  // singletonKey: at most one waiting job per session, so a double click on reprocess queues once.
+  await deps.queue.send(QUEUES.processSession, { sessionId } satisfies ProcessSessionJob, { singletonKey: sessionId });
+}
+
+function resolvePatient(auth: AuthContext, patientId: string | undefined): string {
+  if (auth.role === "patient") {
+    if (!auth.patientId) throw new HttpError(403, "forbidden", "this account is not linked to a patient record");
+    if (patientId && patientId !== auth.patientId) throw new HttpError(404, "not_found", "patient not found");
+    return auth.patientId;
+  }
+  if (!patientId) throw new HttpError(400, "invalid_request", "patientId is required when a clinician uploads for a patient");
+  return patientId;
+}
+
+/**
+ * Device serial → placement through the assignment active for this patient at the file's start.
+ * Errors name the device and the file, but never another patient: a device worn by someone else at
+ * that moment reads as "not assigned to this patient".
+ */
+async function mapPlacements(deps: AppDeps, patientId: string, upload: ParsedUpload) {
+  const mapped: Array<{ deviceId: string; placement: string }> = [];
+  const byPlacement = new Map<string, string>();
+  for (const [i, recording] of upload.recordings.entries()) {
+    const fileName = upload.files[upload.recordingFile[i]!]!.originalName;
+    const serial = recording.deviceSerial;
+    if (!serial) throw invalidFile(fileName, `${fileName}: no device serial in the file`);
+    const device = await findDeviceAt(deps.db, serial, recording.startUtc);
+    if (!device) {
+      throw new HttpError(422, "unknown_device", `${fileName}: device ${serial} is not registered`, { file: fileName, deviceSerial: serial });
+    }
+    if (!device.assignment || device.assignment.patientId !== patientId) {
+      throw new HttpError(
+        422,
+        "device_not_assigned",
+        `${fileName}: device ${serial} was not assigned to this patient at ${recording.startUtc}`,
+        { file: fileName, deviceSerial: serial, startUtc: recording.startUtc },
+      );
+    }
+    const placement = device.assignment.placement;
+    const other = byPlacement.get(placement);
+    if (other) {
+      throw new HttpError(422, "duplicate_placement", `${fileName}: ${placement} is already covered by ${other} in this upload`, {
+        file: fileName,
+        placement,
+      });
+    }
+    byPlacement.set(placement, fileName);
+    mapped.push({ deviceId: device.deviceId, placement });
+  }
+  return mapped;
+}
+
+/**
+ * POST /api/sessions. Order matters for "nothing lost, nothing orphaned":
+ * 1. parse and validate everything in memory (a 4xx here stores nothing);
+ * 2. same patient + same content → the existing session (200 duplicate);
+ * 3. raw files to object storage under keys unique to this attempt;
+ * 4. session + raw_files rows in one transaction; if it fails, this attempt's objects are deleted.
+ *    A concurrent identical upload loses on the unique (patient_id, content_sha256) constraint,
+ *    deletes its own objects and answers with the winner;
+ * 5. enqueue processing. If enqueueing fails the session stays `queued` and the worker's sweep
+ *    re-enqueues it, so the upload is never lost.
+ */
+export async function uploadSession(deps: AppDeps, req: Request, input: UploadInput): Promise<UploadResult> {
+  const patientId = resolvePatient(input.auth, input.patientId);
+  await assertPatientAccess(deps.db, input.auth, patientId, "clinical");
+
+  const upload = parseUpload(input.files, { maxChars: deps.config.upload.maxFileBytes, bidsStartUtc: input.bidsStartUtc });
+  const placements = await mapPlacements(deps, patientId, upload);
+
+  const existing = await findSessionByContent(deps.db, patientId, upload.contentSha256);
+  if (existing) {
+    await audit(deps.db, req, { action: "session.upload_duplicate", resourceType: "session", resourceId: existing.id, patientId });
+    return { id: existing.id, status: existing.status, duplicate: true };
+  }
+
+  const sessionId = randomUUID();
+  const recordedAt = upload.recordings.map((r) => r.startUtc).sort()[0]!;
+  const rows: NewRawFile[] = upload.files.map((file, fileIndex) => {
+    // Sidecars of a BIDS set describe the recordings of their data file.
+    const dataIndex = file.bidsMotionFile ? upload.files.findIndex((f) => f.originalName === file.bidsMotionFile) : fileIndex;
+    const recIndexes = upload.files[dataIndex]!.recordingIndexes;
+    const first = recIndexes[0]!;
+    const recording = upload.recordings[first]!;
+    const isData = fileIndex === dataIndex;
+    return {
+      // Keys never contain names a user chose (see ObjectStorage); the attempt's session id keeps
+      // two concurrent uploads of the same bytes from ever sharing — and deleting — one object.
+      storage_key: `raw/${patientId}/${sessionId}/${String(fileIndex).padStart(2, "0")}-${file.sha256}`,
+      sha256: file.sha256,
+      size_bytes: file.buffer.length,
+      original_name: file.originalName,
+      format: file.format,
+      device_serial: recording.deviceSerial,
+      device_id: placements[first]!.deviceId,
+      placement: placements[first]!.placement,
+      start_utc: new Date(recording.startUtc),
+      recording_placements:
+        file.format === "bids-motion" && isData
+          ? Object.fromEntries(recIndexes.map((r) => [upload.recordings[r]!.deviceSerial, placements[r]!.placement]))
+          : null,
+    };
+  });
+
+  const stored: string[] = [];
+  const removeStored = async () => {
+    await Promise.allSettled(stored.map((key) => deps.storage.delete(key)));
+  };
+  try {
+    for (const [i, row] of rows.entries()) {
+      const contentType = upload.files[i]!.originalName.toLowerCase().endsWith(".json") ? "application/json" : "text/plain";
+      await deps.storage.put(row.storage_key, upload.files[i]!.buffer, contentType);
+      stored.push(row.storage_key);
+    }
+    await insertSessionWithFiles(
+      deps.db,
+      { id: sessionId, patientId, recordedAt, uploadedBy: input.auth.userId, contentSha256: upload.contentSha256 },
+      rows,
+    );
+  } catch (err) {
+    await removeStored();
+    if (isDuplicateContentError(err)) {
+      const winner = await findSessionByContent(deps.db, patientId, upload.contentSha256);
+      if (winner) {
+        await audit(deps.db, req, { action: "session.upload_duplicate", resourceType: "session", resourceId: winner.id, patientId });
+        return { id: winner.id, status: winner.status, duplicate: true };
+      }
+    }
+    throw err;
+  }
+
+  await audit(deps.db, req, {
+    action: "session.upload",
+    resourceType: "session",
+    resourceId: sessionId,
+    patientId,
+    details: { files: rows.length, bytes: rows.reduce((n, r) => n + Number(r.size_bytes), 0) },
+  });
+  try {
+    await enqueueProcessing(deps, sessionId);
+  } catch (err) {
+    console.error(`[upload] session ${sessionId} stored but not enqueued; the worker sweep will pick it up`, err);
+  }
+  const session = await findSession(deps.db, sessionId);
+  return { id: sessionId, status: session?.status ?? "queued", duplicate: false };
+}

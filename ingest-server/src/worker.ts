@@ -1,0 +1,53 @@
+import { ConfigError, loadConfig } from "./config/env";
+import { handleProcessSessionJob, requeueStaleSessions } from "./processing/session-job";
+import { QUEUES } from "./queue/queue";
+import type { ProcessSessionJob } from "./routes/sessions/upload.service";
+import { createRuntime } from "./runtime";
+
+/**
+ * `npm run worker`: processes uploaded sessions from the PostgreSQL-backed queue. Start as many as
+ * you like on as many machines as you like against the same DATABASE_URL: pg-boss hands each job to
+ * exactly one of them, a job whose worker died is retried after it expires, and processSession is
+ * idempotent, so a retried job leaves one set of results.
+ */
+let config;
+try {
+  config = loadConfig();
+} catch (err) {
+  if (err instanceof ConfigError) {
+    console.error(err.message);
+    process.exit(2);
+  }
+  throw err;
+}
+
+const runtime = createRuntime(config, { application: "pendula-worker" });
+const { deps } = runtime;
+const SWEEP_INTERVAL_MS = 5 * 60 * 1000;
+
+await deps.queue.work<ProcessSessionJob>(QUEUES.processSession, (job) => handleProcessSessionJob(deps, job));
+const sweep = async () => {
+  try {
+    const n = await requeueStaleSessions(deps);
+    if (n > 0) console.error(`[worker] re-enqueued ${n} stale session(s)`);
+  } catch (err) {
+    console.error("[worker] stale-session sweep failed", err);
+  }
+};
+await sweep();
+const timer = setInterval(sweep, SWEEP_INTERVAL_MS);
+console.log(`worker ready: ${QUEUES.processSession}`);
+
+let stopping = false;
+async function shutdown(signal: string): Promise<void> {
+  if (stopping) return;
+  stopping = true;
+  console.error(`${signal}: worker stopping after the current job`);
+  clearInterval(timer);
+  const force = setTimeout(() => process.exit(1), 15_000);
+  force.unref();
+  await runtime.close();
+  process.exit(0);
+}
+process.on("SIGINT", () => void shutdown("SIGINT"));
+process.on("SIGTERM", () => void shutdown("SIGTERM"));
