@@ -6,6 +6,13 @@ export const MIN_STRIDE_TIME_S = 0.25;
 export const MAX_STRIDE_TIME_S = 2.25;
 /** Strides this close to a turn are left out (s); strides next to turns differ (Kroneberg 2019), common-practice margin. */
 export const TURN_MARGIN_S = 1;
+/**
+ * Left and right ICs must alternate plausibly: the step that opens a stride must last 15–85 % of the
+ * stride (common practice; even markedly asymmetric gait stays inside, while a stray or missed IC of
+ * the other leg falls outside).
+ */
+export const MIN_STEP_FRACTION = 0.15;
+export const MAX_STEP_FRACTION = 0.85;
 
 export interface StrideContext {
   bouts: readonly Bout[];
@@ -19,7 +26,8 @@ const overlaps = (a0: number, a1: number, b: Bout, margin = 0) => a0 < b.endS + 
  * Strides of one side from its events (IC to next IC), with stance/swing, double support against the
  * contralateral events, and the steady-state decision. Exclusion, in order: stride time outside
  * 0.25–2.25 s; any overlap with an invalid span; within TURN_MARGIN_S of a turn; event order not
- * IC < FC_contra < IC_contra < FC < next IC (or no FC); first or last stride of its walking bout.
+ * IC < FC_contra < IC_contra < FC < next IC (or no FC), or an implausible opening step (outside
+ * 15–85 % of the stride); first or last stride of its walking bout.
  */
 export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | null, ctx: StrideContext): Stride[] {
   const ic = own.initialContactsS;
@@ -39,6 +47,9 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
     if (contra) {
       const prevContra = lastBefore(contra.initialContactsS, a);
       if (prevContra !== null && a - prevContra < strideTimeS) stepTimeS = a - prevContra;
+      if (stepTimeS === null || stepTimeS < MIN_STEP_FRACTION * strideTimeS || stepTimeS > MAX_STEP_FRACTION * strideTimeS) {
+        orderOk = false;
+      }
       if (fcS !== null) {
         const fcC = contra.finalContactsS.filter((t) => t > a && t < fcS);
         const icC = contra.initialContactsS.filter((t) => t > a && t < b);

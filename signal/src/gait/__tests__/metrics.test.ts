@@ -1,0 +1,152 @@
+import { describe, expect, it } from "vitest";
+import type { Stride } from "../../types";
+import { coefficientOfVariationPct, standardDeviation } from "../descriptive";
+import { dfaAlphaOrReason, detrendedFluctuation, DFA_MIN_STRIDES } from "../dfa";
+import { gaitAsymmetryPct } from "../gait-asymmetry";
+import { phaseCoordinationIndex } from "../phase-coordination-index";
+import { buildStrides } from "../strides";
+import { strideMetrics } from "../stride-metrics";
+
+describe("phaseCoordinationIndex(referenceStrides, otherIcs)", () => {
+  // DOMAIN.md worked example (computed with NumPy from the Plotnik, Giladi & Hausdorff 2007 formula).
+  const tL = [0, 1.1, 2.2, 3.3, 4.4];
+  const tS = [0.6, 1.65, 2.8, 3.8];
+  const strides = tL.slice(0, -1).map((t, i) => ({ icS: t, nextIcS: tL[i + 1]! }));
+
+  it("gives φ = 196.364°, 180°, 196.364°, 163.636° and PCI 15.3286 % with ddof 1 (1e-4)", () => {
+    const r = phaseCoordinationIndex(strides, tS)!;
+    expect(r.phiDeg.map((p) => +p.toFixed(3))).toEqual([196.364, 180, 196.364, 163.636]);
+    expect(r.phiAbsDeg).toBeCloseTo(12.2727, 4);
+    expect(r.pPhiAbsPct).toBeCloseTo(6.818, 3);
+    expect(Math.abs(r.phiCvPct - 8.511)).toBeLessThan(1e-3);
+    expect(Math.abs(r.pciPct - 15.3286)).toBeLessThan(1e-4);
+  });
+
+  it("is 0 for perfectly alternating, perfectly regular ICs", () => {
+    const r = phaseCoordinationIndex(strides, [0.55, 1.65, 2.75, 3.85])!;
+    expect(r.pciPct).toBeCloseTo(0, 10);
+  });
+
+  it("skips reference strides without exactly one other-leg IC and is null with fewer than two phases", () => {
+    const r = phaseCoordinationIndex(strides, [0.6, 1.65, 1.7, 2.8])!;
+    expect(r.phiDeg.map((p) => +p.toFixed(3))).toEqual([196.364, 196.364]);
+    expect(phaseCoordinationIndex(strides, [0.6, 1.65, 1.7])).toBeNull();
+    expect(phaseCoordinationIndex(strides.slice(0, 1), [0.6])).toBeNull();
+  });
+
+  it("does not fold φ into [0°, 180°] (folding biases PCI; DOMAIN.md §3)", () => {
+    const r = phaseCoordinationIndex(strides, [0.9, 2.0, 3.1, 4.2])!;
+    expect(r.phiDeg.every((p) => p > 180)).toBe(true);
+  });
+});
+
+describe("gaitAsymmetryPct(swingL, swingR)", () => {
+  it("GA(0.38, 0.42) = 10.0083 (DOMAIN.md; formula from Plotnik 2007 / Yogev 2007, from memory)", () => {
+    expect(Math.abs(gaitAsymmetryPct(0.38, 0.42)! - 10.0083)).toBeLessThan(1e-4);
+    expect(gaitAsymmetryPct(0.42, 0.38)).toBeCloseTo(gaitAsymmetryPct(0.38, 0.42)!, 12);
+  });
+  it("is 0 for equal swings and null for missing or non-positive ones", () => {
+    expect(gaitAsymmetryPct(0.4, 0.4)).toBe(0);
+    expect(gaitAsymmetryPct(null, 0.4)).toBeNull();
+    expect(gaitAsymmetryPct(0, 0.4)).toBeNull();
+  });
+});
+
+describe("coefficientOfVariationPct(values, ddof)", () => {
+  it("CV [1.10, 1.12, 1.08, 1.11, 1.09, 1.10] s = 1.2856 % with ddof 1 (DOMAIN.md check value)", () => {
+    expect(Math.abs(coefficientOfVariationPct([1.1, 1.12, 1.08, 1.11, 1.09, 1.1], 1)! - 1.2856)).toBeLessThan(1e-4);
+  });
+  it("is null for fewer than two values and for a zero mean", () => {
+    expect(coefficientOfVariationPct([1.1])).toBeNull();
+    expect(coefficientOfVariationPct([])).toBeNull();
+    expect(coefficientOfVariationPct([1, -1])).toBeNull();
+    expect(standardDeviation([1, 2, 3], 0)).toBeCloseTo(Math.sqrt(2 / 3), 12);
+  });
+});
+
+describe("buildStrides + strideMetrics — temporal worked example (DOMAIN.md)", () => {
+  // IC_L 0 / 1.10 s, FC_L 0.66 s, IC_R 0.55 s, FC_R 0.11 s → stance 60 %, DS 20 %, 109.0909 steps/min.
+  // Repeated for several strides so the bout-edge rule leaves steady strides in the middle.
+  const k = 8;
+  const left = { initialContactsS: [] as number[], finalContactsS: [] as number[], midSwingsS: [] };
+  const right = { initialContactsS: [] as number[], finalContactsS: [] as number[], midSwingsS: [] };
+  for (let i = 0; i <= k; i++) {
+    left.initialContactsS.push(1.1 * i);
+    left.finalContactsS.push(1.1 * i + 0.66);
+    right.initialContactsS.push(1.1 * i + 0.55);
+    right.finalContactsS.push(1.1 * i + 0.11);
+  }
+  const ctx = { bouts: [{ startS: -1, endS: 100 }], turns: [], invalidSpans: [] };
+  const strides: Stride[] = [...buildStrides("left", left, right, ctx), ...buildStrides("right", right, left, ctx)];
+
+  it("gives stance 60 %, swing 40 %, double support 20 % and cadence 109.0909 steps/min (1e-6)", () => {
+    const m = strideMetrics(strides);
+    expect(m.stancePct.left!).toBeCloseTo(60, 6);
+    expect(m.swingPct.left!).toBeCloseTo(40, 6);
+    expect(m.stancePct.right!).toBeCloseTo(60, 6);
+    expect(m.doubleSupportPct!).toBeCloseTo(20, 6);
+    expect(m.cadenceStepsPerMin!).toBeCloseTo(109.0909, 4);
+    expect(m.strideTimeMeanS!).toBeCloseTo(1.1, 9);
+    expect(m.stepTimeMeanS.left!).toBeCloseTo(0.55, 9);
+  });
+
+  it("leaves out the first and last stride of each side per bout", () => {
+    // The very first left stride has no preceding right IC (no opening step) and is out for event order.
+    expect(strides.filter((s) => s.excludedReason === "bout-edge").length).toBe(3);
+    expect(strides.filter((s) => s.excludedReason === "event-order").map((s) => [s.side, s.icS])).toEqual([["left", 0]]);
+    expect(strides.filter((s) => s.steady).length).toBe(2 * k - 4);
+  });
+
+  it("excludes strides near turns, across invalid spans, outside 0.25–2.25 s and with bad event order", () => {
+    const withTurn = buildStrides("left", left, right, { ...ctx, turns: [{ startS: 4.5, endS: 4.6 }] });
+    expect(withTurn.filter((s) => s.excludedReason === "turn").map((s) => s.icS.toFixed(1))).toEqual(["3.3", "4.4", "5.5"]);
+    const withGap = buildStrides("left", left, right, { ...ctx, invalidSpans: [{ startS: 2.3, endS: 2.4 }] });
+    expect(withGap.find((s) => s.excludedReason === "invalid-span")!.icS).toBeCloseTo(2.2, 9);
+    const slow = buildStrides("left", { ...left, initialContactsS: [0, 2.5, 3.6] }, null, ctx);
+    expect(slow[0]!.excludedReason).toBe("out-of-range");
+    const stray = buildStrides("left", left, { ...right, initialContactsS: [...right.initialContactsS, 3.25].sort((a, b) => a - b) }, ctx);
+    expect(stray.find((s) => Math.abs(s.icS - 3.3) < 1e-9)!.excludedReason).toBe("event-order");
+    const noFc = buildStrides("left", { ...left, finalContactsS: [] }, right, ctx);
+    expect(noFc.every((s) => s.excludedReason === "event-order" || s.excludedReason === "bout-edge")).toBe(true);
+  });
+});
+
+describe("detrendedFluctuation(series) — Hausdorff 1995 method", () => {
+  // Deterministic PRNG + Box–Muller so the check is reproducible.
+  function gaussian(seed: number, n: number): Float64Array {
+    let s = seed >>> 0;
+    const u = () => {
+      s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+      return (s + 0.5) / 4294967296;
+    };
+    const out = new Float64Array(n);
+    for (let i = 0; i < n; i++) out[i] = Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u());
+    return out;
+  }
+
+  it("α of white noise (N 512) is 0.5 ± 0.1 on average over 20 seeds (DOMAIN.md Monte Carlo: 0.532 ± 0.037)", () => {
+    const alphas = Array.from({ length: 20 }, (_, k) => detrendedFluctuation(gaussian(k + 1, 512))!.alpha);
+    const m = alphas.reduce((a, b) => a + b, 0) / alphas.length;
+    expect(Math.abs(m - 0.5)).toBeLessThan(0.1);
+  });
+
+  it("α of a random walk (N 512) is 1.5 ± 0.15 on average over 20 seeds (DOMAIN.md: 1.490 ± 0.062)", () => {
+    const alphas = Array.from({ length: 20 }, (_, k) => {
+      const g = gaussian(100 + k, 512);
+      for (let i = 1; i < g.length; i++) g[i] = g[i]! + g[i - 1]!;
+      return detrendedFluctuation(g)!.alpha;
+    });
+    const m = alphas.reduce((a, b) => a + b, 0) / alphas.length;
+    expect(Math.abs(m - 1.5)).toBeLessThan(0.15);
+  });
+
+  it("returns null with a reason below 256 strides, and α from 256 on", () => {
+    const short = dfaAlphaOrReason(Array.from(gaussian(7, DFA_MIN_STRIDES - 1)));
+    expect(short.alpha).toBeNull();
+    expect(short.reason).toMatch(/255 steady strides.*256/);
+    const enough = dfaAlphaOrReason(Array.from(gaussian(7, DFA_MIN_STRIDES), (v) => 1.1 + 0.02 * v));
+    expect(enough.alpha).not.toBeNull();
+    expect(enough.reason).toBeNull();
+    expect(detrendedFluctuation([1, 2, 3])).toBeNull();
+  });
+});
