@@ -9,3 +9,4 @@ export * from "./activity";
 export * from "./gait";
 export * from "./quality";
 export * as coordination from "./coordination";
+export * from "./synth";
