@@ -2,6 +2,13 @@
 // nothing here may import server code (knex, express, node built-ins).
 export * from "./enums";
 export * from "./common";
+export * from "./auth";
+export * from "./me";
+export * from "./users";
+export * from "./invitations";
+export * from "./devices";
+export * from "./audit";
+export * from "./mailbox";
 export * from "./sessions";
 export * from "./patients";
 export * from "./trends";

@@ -1,9 +1,12 @@
 import type { RouteModule } from "../http/api-router";
-import { notesRoutes } from "./notes/notes.router";
-import { patientsRoutes } from "./patients/patients.router";
-import { researchRoutes } from "./research/research.router";
-import { sessionsRoutes } from "./sessions/sessions.router";
-import { trainingRoutes } from "./training/training.router";
+import { assignmentsRoutes } from "./assignments/assignments.router";
+import { auditRoutes } from "./audit/audit.router";
+import { authRoutes } from "./auth/auth.router";
+import { devMailboxRoutes } from "./dev-mailbox/dev-mailbox.router";
+import { devicesRoutes } from "./devices/devices.router";
+import { invitationsRoutes } from "./invitations/invitations.router";
+import { meRoutes } from "./me/me.router";
+import { usersRoutes } from "./users/users.router";
 
 /**
  * The route table: every resource module mounted by createApp, in order. Add a module here and it
@@ -11,9 +14,12 @@ import { trainingRoutes } from "./training/training.router";
  * Each module lives in routes/<resource>/<resource>.router.ts and exports one RouteModule.
  */
 export const ROUTE_TABLE: RouteModule[] = [
-  sessionsRoutes,
-  patientsRoutes,
-  notesRoutes,
-  trainingRoutes,
-  researchRoutes,
+  authRoutes,
+  meRoutes,
+  usersRoutes,
+  invitationsRoutes,
+  devicesRoutes,
+  assignmentsRoutes,
+  auditRoutes,
+  devMailboxRoutes,
 ];

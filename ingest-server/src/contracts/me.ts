@@ -1,0 +1,12 @@
+import { z } from "zod";
+import { ROLES } from "./enums";
+
+export const meResponse = z.object({
+  id: z.uuid(),
+  email: z.string(),
+  role: z.enum(ROLES),
+  displayName: z.string(),
+  patientId: z.uuid().optional(),
+  scopes: z.array(z.string()),
+});
+export type MeResponse = z.infer<typeof meResponse>;

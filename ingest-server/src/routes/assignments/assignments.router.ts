@@ -1,0 +1,60 @@
+import { z } from "zod";
+import type { AppDeps } from "../../deps";
+import { idParams } from "../../contracts/common";
+import {
+  assignmentList,
+  assignmentParams,
+  assignmentView,
+  createAssignmentRequest,
+  endAssignmentRequest,
+  swapPlacementRequest,
+} from "../../contracts/devices";
+import { ApiRouter, type RouteModule } from "../../http/api-router";
+import { createAssignmentsService } from "./assignments.service";
+
+const PREFIX = "/api/devices";
+
+export function assignmentsRouter(deps: AppDeps): ApiRouter {
+  const service = createAssignmentsService(deps);
+  return new ApiRouter(PREFIX, deps)
+    .endpoint({
+      method: "get",
+      path: "/:id/assignments",
+      summary: "Assignment history of a sensor, newest first",
+      access: { scopes: ["assignments:read"] },
+      request: { params: idParams },
+      response: assignmentList,
+      handler: ({ params }) => service.list(params.id),
+    })
+    .endpoint({
+      method: "post",
+      path: "/:id/assignments",
+      summary: "Put a sensor on a patient's placement from a moment on (409 when it overlaps)",
+      access: { scopes: ["assignments:write"] },
+      status: 201,
+      request: { params: idParams, body: createAssignmentRequest },
+      response: assignmentView,
+      handler: ({ auth, params, body }, req) => service.create(auth, params.id, body, req),
+    })
+    .endpoint({
+      method: "patch",
+      path: "/:id/assignments/:assignmentId",
+      summary: "End (or move the end of) an assignment",
+      access: { scopes: ["assignments:write"] },
+      request: { params: assignmentParams, body: endAssignmentRequest },
+      response: assignmentView,
+      handler: ({ params, body }, req) => service.end(params.id, params.assignmentId, body, req),
+    })
+    .endpoint({
+      method: "post",
+      path: "/:id/assignments/:assignmentId/swap",
+      summary: "Move a sensor to another placement on the same patient",
+      access: { scopes: ["assignments:write"] },
+      status: 201,
+      request: { params: assignmentParams, body: swapPlacementRequest },
+      response: z.object({ ended: assignmentView, started: assignmentView }),
+      handler: ({ auth, params, body }, req) => service.swap(auth, params.id, params.assignmentId, body, req),
+    });
+}
+
+export const assignmentsRoutes: RouteModule = { prefix: PREFIX, router: assignmentsRouter };
