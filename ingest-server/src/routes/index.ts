@@ -6,6 +6,11 @@ import { devMailboxRoutes } from "./dev-mailbox/dev-mailbox.router";
 import { devicesRoutes } from "./devices/devices.router";
 import { invitationsRoutes } from "./invitations/invitations.router";
 import { meRoutes } from "./me/me.router";
+import { notesRoutes } from "./notes/notes.router";
+import { patientsRoutes } from "./patients/patients.router";
+import { researchRoutes } from "./research/research.router";
+import { sessionsRoutes } from "./sessions/sessions.router";
+import { trainingRoutes } from "./training/training.router";
 import { usersRoutes } from "./users/users.router";
 
 /**
@@ -22,4 +27,9 @@ export const ROUTE_TABLE: RouteModule[] = [
   assignmentsRoutes,
   auditRoutes,
   devMailboxRoutes,
+  sessionsRoutes,
+  patientsRoutes,
+  notesRoutes,
+  trainingRoutes,
+  researchRoutes,
 ];
