@@ -1,8 +1,7 @@
-import { QueryClient } from "@tanstack/react-query";
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { render } from "@testing-library/react";
 import type { ReactNode } from "react";
 import { createMemoryRouter, RouterProvider, type RouteObject } from "react-router-dom";
-import { AppProviders } from "@/app/provider";
 
 /** A fresh client per test: no cache leaks between tests, and failures surface at once. */
 export function createTestQueryClient(): QueryClient {
@@ -14,9 +13,9 @@ export function createTestQueryClient(): QueryClient {
 export function renderRoutes(routes: RouteObject[], initialPath: string, queryClient = createTestQueryClient()) {
   const router = createMemoryRouter(routes, { initialEntries: [initialPath] });
   const utils = render(
-    <AppProviders queryClient={queryClient}>
+    <QueryClientProvider client={queryClient}>
       <RouterProvider router={router} />
-    </AppProviders>,
+    </QueryClientProvider>,
   );
   return { ...utils, router, queryClient };
 }

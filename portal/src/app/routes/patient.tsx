@@ -1,6 +1,35 @@
 import type { QueryClient } from "@tanstack/react-query";
 import type { RouteObject } from "react-router-dom";
+import { ErrorState } from "@/components/ui";
+import { meQueryOptions, useMe } from "@/features/auth";
 
-export function patientRoutes(_queryClient: QueryClient): RouteObject[] {
-  return [];
+/** The patient's area under /patient: this week's walk (home) and progress over the weeks. */
+export function patientRoutes(queryClient: QueryClient): RouteObject[] {
+  return [
+    {
+      index: true,
+      lazy: async () => {
+        const { WeeklyWalk } = await import("@/features/patient-walk");
+        return { Component: WeeklyWalk };
+      },
+    },
+    {
+      path: "progress",
+      lazy: async () => {
+        const m = await import("@/features/patient-progress");
+        return {
+          loader: async () => {
+            const me = await queryClient.ensureQueryData(meQueryOptions());
+            if (me?.patientId) await m.prefetchMyWalks(queryClient, me.patientId);
+            return null;
+          },
+          Component: function ProgressRoute() {
+            const { data: me } = useMe();
+            if (!me?.patientId) return <ErrorState title="This account is not linked to a patient record" />;
+            return <m.PatientProgress patientId={me.patientId} />;
+          },
+        };
+      },
+    },
+  ];
 }

@@ -1,0 +1,3 @@
+export { PatientProgress } from "./components/patient-progress";
+export { prefetchMyWalks, myWalksQueryOptions, progressKeys } from "./api/get-my-walks";
+export { progressWords } from "./components/progress-words";

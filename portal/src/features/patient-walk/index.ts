@@ -1,0 +1,2 @@
+export { WeeklyWalk } from "./components/weekly-walk";
+export { walkKeys } from "./api/walk-keys";
