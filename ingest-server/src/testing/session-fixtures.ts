@@ -74,3 +74,37 @@ export async function storedCounts(ctx: TestContext) {
   const [f] = await ctx.db("raw_files").count<{ n: string }[]>({ n: "*" });
   return { sessions: Number(s?.n), files: Number(f?.n), objects: (await listObjectKeys(ctx)).length };
 }
+
+/**
+ * A processed session written straight to the tables (for list, trend and export tests that do
+ * not need a real analysis). The analysis column holds a minimal object.
+ */
+export async function insertDoneSession(
+  ctx: TestContext,
+  patientId: string,
+  recordedAt: string,
+  metrics: Record<string, number>,
+  options: { algorithmVersion?: string; units?: Record<string, string> } = {},
+): Promise<string> {
+  const [row] = await ctx.db("walk_sessions")
+    .insert({
+      patient_id: patientId,
+      recorded_at: recordedAt,
+      status: "done",
+      progress_pct: 100,
+      analysis: JSON.stringify({ metrics }),
+      algorithm_version: options.algorithmVersion ?? "test-1",
+      content_sha256: `${patientId}-${recordedAt}`,
+    })
+    .returning("id");
+  const rows = Object.entries(metrics).map(([metric_key, value]) => ({
+    session_id: row.id,
+    patient_id: patientId,
+    recorded_at: recordedAt,
+    metric_key,
+    value,
+    unit: options.units?.[metric_key] ?? (metric_key.endsWith("Pct") ? "%" : metric_key === "cadenceStepsPerMin" ? "/min" : "1"),
+  }));
+  if (rows.length) await ctx.db("session_metrics").insert(rows);
+  return row.id as string;
+}

@@ -1,0 +1,193 @@
+import request from "supertest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createTestContext, type SeededUser, type TestContext } from "../../../testing/harness";
+import { insertDoneSession } from "../../../testing/session-fixtures";
+
+let ctx: TestContext;
+let clinician: SeededUser;
+let otherClinician: SeededUser;
+let patient: SeededUser;
+let otherPatient: SeededUser;
+let researcher: SeededUser;
+let admin: SeededUser;
+const tokens: Record<string, string> = {};
+const sessionIds: string[] = [];
+
+const as = (u: SeededUser) => ({ Authorization: `Bearer ${tokens[u.id]}` });
+
+beforeAll(async () => {
+  ctx = await createTestContext();
+  clinician = await ctx.seedUser({ role: "clinician" });
+  otherClinician = await ctx.seedUser({ role: "clinician" });
+  patient = await ctx.seedUser({
+    role: "patient",
+    caseloadOf: [clinician.id],
+    patient: { displayName: "Ilse Varnhagen", condition: "stroke", birthYear: 1961, enrolledOn: "2026-09-07" },
+  });
+  otherPatient = await ctx.seedUser({ role: "patient", caseloadOf: [otherClinician.id] });
+  researcher = await ctx.seedUser({ role: "researcher" });
+  admin = await ctx.seedUser({ role: "admin" });
+  for (const u of [clinician, otherClinician, patient, otherPatient, researcher, admin]) tokens[u.id] = await ctx.tokenFor(u);
+  // Eight weekly sessions with cadence rising 92 → 106 steps/min.
+  for (let w = 0; w < 8; w++) {
+    const day = new Date(Date.UTC(2026, 8, 8 + 7 * w, 9)).toISOString();
+    sessionIds.push(
+      await insertDoneSession(ctx, patient.patientId!, day, { cadenceStepsPerMin: 92 + 2 * w, strideTimeCvPct: 3.2 - 0.1 * w, phaseCoordinationIndexPct: 6 }),
+    );
+  }
+});
+
+afterAll(async () => {
+  await ctx?.close();
+});
+
+describe("GET /api/patients", () => {
+  it("clinician: own caseload only, with summary columns", async () => {
+    const res = await request(ctx.app).get("/api/patients").set(as(clinician));
+    expect(res.status).toBe(200);
+    expect(res.body.items.map((p: { id: string }) => p.id)).toEqual([patient.patientId]);
+    const [row] = res.body.items;
+    expect(row).toMatchObject({ displayName: "Ilse Varnhagen", condition: "stroke", sessionsCount: 8 });
+    expect(row.latest).toMatchObject({ sessionId: sessionIds[7], cadenceStepsPerMin: 106 });
+    expect(row.lastRecordedAt).toBe(new Date(Date.UTC(2026, 8, 57, 9)).toISOString());
+    expect(row.adherencePct === null || (row.adherencePct >= 0 && row.adherencePct <= 100)).toBe(true);
+  });
+
+  it("admin: every patient, identity columns only (no condition, no metrics)", async () => {
+    const res = await request(ctx.app).get("/api/patients").set(as(admin));
+    expect(res.status).toBe(200);
+    expect(res.body.items.map((p: { id: string }) => p.id).sort()).toEqual([patient.patientId, otherPatient.patientId].sort());
+    for (const item of res.body.items) {
+      expect(Object.keys(item).sort()).toEqual(["displayName", "enrolledOn", "id", "researchConsent", "researchId"]);
+    }
+  });
+
+  it("patients and researchers are refused", async () => {
+    expect((await request(ctx.app).get("/api/patients").set(as(patient))).status).toBe(403);
+    expect((await request(ctx.app).get("/api/patients").set(as(researcher))).status).toBe(403);
+  });
+});
+
+describe("GET /api/patients/:id and /sessions", () => {
+  it("the patient, their clinician and an admin (identity only) may read; others get 404 or 403", async () => {
+    const get = (u: SeededUser) => request(ctx.app).get(`/api/patients/${patient.patientId}`).set(as(u));
+    expect((await get(patient)).body).toMatchObject({ id: patient.patientId, condition: "stroke" });
+    expect((await get(clinician)).status).toBe(200);
+    const adminView = await get(admin);
+    expect(adminView.status).toBe(200);
+    expect(adminView.body.condition).toBeUndefined();
+    expect((await get(otherClinician)).status).toBe(404);
+    expect((await get(otherPatient)).status).toBe(404);
+    expect((await get(researcher)).status).toBe(403);
+  });
+
+  it("lists sessions newest first with paging", async () => {
+    const res = await request(ctx.app).get(`/api/patients/${patient.patientId}/sessions?limit=3`).set(as(clinician));
+    expect(res.status).toBe(200);
+    expect(res.body.total).toBe(8);
+    expect(res.body.items.map((s: { id: string }) => s.id)).toEqual([sessionIds[7], sessionIds[6], sessionIds[5]]);
+    expect(res.body.items[0].cadenceStepsPerMin).toBe(106);
+    expect((await request(ctx.app).get(`/api/patients/${patient.patientId}/sessions`).set(as(admin))).status).toBe(403);
+    expect((await request(ctx.app).get(`/api/patients/${patient.patientId}/sessions`).set(as(otherClinician))).status).toBe(404);
+  });
+
+  it("a malformed id is a 400, not a 500", async () => {
+    expect((await request(ctx.app).get("/api/patients/not-a-uuid").set(as(clinician))).status).toBe(400);
+  });
+});
+
+describe("GET /api/patients/:id/trends", () => {
+  it("returns one point per session per metric, keyed by the signal metric names, with clinical annotations", async () => {
+    const res = await request(ctx.app).get(`/api/patients/${patient.patientId}/trends`).set(as(clinician));
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const keys = res.body.metrics.map((m: { key: string }) => m.key);
+    expect(keys).toEqual(["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct"]);
+    const cadence = res.body.metrics[0];
+    expect(cadence.unit).toBe("/min");
+    expect(cadence.points.map((p: { value: number }) => p.value)).toEqual([92, 94, 96, 98, 100, 102, 104, 106]);
+    expect(cadence.points[0]).toMatchObject({ sessionId: sessionIds[0], recordedAt: new Date(Date.UTC(2026, 8, 8, 9)).toISOString() });
+    expect(Array.isArray(cadence.bands)).toBe(true);
+    expect(Array.isArray(res.body.cautions)).toBe(true);
+  });
+
+  it("filters by metric and rejects unknown keys with 400", async () => {
+    const one = await request(ctx.app).get(`/api/patients/${patient.patientId}/trends?metrics=strideTimeCvPct`).set(as(patient));
+    expect(one.body.metrics.map((m: { key: string }) => m.key)).toEqual(["strideTimeCvPct"]);
+    const bad = await request(ctx.app).get(`/api/patients/${patient.patientId}/trends?metrics=walkingSpeed`).set(as(patient));
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.message).toMatch(/walkingSpeed/);
+  });
+
+  it("is out of reach for other patients, other clinicians, admins and researchers", async () => {
+    const get = (u: SeededUser) => request(ctx.app).get(`/api/patients/${patient.patientId}/trends`).set(as(u));
+    expect((await get(otherPatient)).status).toBe(404);
+    expect((await get(otherClinician)).status).toBe(404);
+    expect((await get(admin)).status).toBe(403);
+    expect((await get(researcher)).status).toBe(403);
+  });
+
+  it("audits the read with the patient id", async () => {
+    const n = await ctx.db("audit_events").where({ action: "patient.read_trends", patient_id: patient.patientId }).count<{ n: string }[]>({ n: "*" });
+    expect(Number(n[0]?.n)).toBeGreaterThan(0);
+  });
+});
+
+describe("/api/patients/:id/notes", () => {
+  const path = () => `/api/patients/${patient.patientId}/notes`;
+
+  it("the clinician of the caseload writes and reads notes", async () => {
+    const created = await request(ctx.app).post(path()).set(as(clinician)).send({ body: "Walked without the cane today.", sessionId: sessionIds[7] });
+    expect(created.status, JSON.stringify(created.body)).toBe(201);
+    expect(created.body).toMatchObject({ body: "Walked without the cane today.", sessionId: sessionIds[7], authorId: clinician.id });
+    const list = await request(ctx.app).get(path()).set(as(clinician));
+    expect(list.body.items).toHaveLength(1);
+  });
+
+  it("admins, patients, researchers and other clinicians cannot read clinical free text", async () => {
+    expect((await request(ctx.app).get(path()).set(as(admin))).status).toBe(403);
+    expect((await request(ctx.app).get(path()).set(as(patient))).status).toBe(403);
+    expect((await request(ctx.app).get(path()).set(as(researcher))).status).toBe(403);
+    expect((await request(ctx.app).get(path()).set(as(otherClinician))).status).toBe(404);
+    expect((await request(ctx.app).post(path()).set(as(otherClinician)).send({ body: "x" })).status).toBe(404);
+  });
+
+  it("rejects an empty body and a session of another patient, storing nothing", async () => {
+    const other = await insertDoneSession(ctx, otherPatient.patientId!, "2026-10-01T09:00:00Z", {});
+    expect((await request(ctx.app).post(path()).set(as(clinician)).send({ body: "   " })).status).toBe(400);
+    expect((await request(ctx.app).post(path()).set(as(clinician)).send({ body: "ok", sessionId: other })).status).toBe(422);
+    const n = await ctx.db("clinician_notes").count<{ n: string }[]>({ n: "*" });
+    expect(Number(n[0]?.n)).toBe(1);
+  });
+
+  it("the audit event records the note without its text", async () => {
+    const [event] = await ctx.db("audit_events").where({ action: "note.create" });
+    expect(JSON.stringify(event.details)).not.toContain("cane");
+  });
+});
+
+describe("/api/patients/:id/training", () => {
+  const path = () => `/api/patients/${patient.patientId}/training`;
+
+  it("the clinician logs and lists training", async () => {
+    const res = await request(ctx.app).post(path()).set(as(clinician)).send({ performedOn: "2026-10-12", kind: "treadmill", minutes: 30, description: "2.0 km/h" });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body).toMatchObject({ performedOn: "2026-10-12", kind: "treadmill", minutes: 30 });
+    const list = await request(ctx.app).get(path()).set(as(clinician));
+    expect(list.body.items.map((t: { performedOn: string }) => t.performedOn)).toEqual(["2026-10-12"]);
+  });
+
+  it("validates kind, minutes and date", async () => {
+    for (const body of [
+      { performedOn: "2026-10-12", kind: "swimming", minutes: 30 },
+      { performedOn: "2026-10-12", kind: "balance", minutes: 0 },
+      { performedOn: "12/10/2026", kind: "balance", minutes: 20 },
+    ]) {
+      expect((await request(ctx.app).post(path()).set(as(clinician)).send(body)).status).toBe(400);
+    }
+  });
+
+  it("is closed to other clinicians (404), admins, patients and researchers (403)", async () => {
+    expect((await request(ctx.app).get(path()).set(as(otherClinician))).status).toBe(404);
+    for (const u of [admin, patient, researcher]) expect((await request(ctx.app).get(path()).set(as(u))).status).toBe(403);
+  });
+});
