@@ -15,7 +15,16 @@ export interface TrendPointInput {
 export interface AnnotateTrendsInput {
   metrics: { key: string; unit: string; points: TrendPointInput[] }[];
   patient: { birthYear: number; condition: string; enrolledOn: string };
-  options?: ChangeOptions & { confirmSessions?: number };
+  options?: ChangeOptions & {
+    confirmSessions?: number;
+    /**
+     * Show only points and events in [visibleFrom, visibleTo] (ISO instants). Baselines, MDC and
+     * events are still computed from the whole series, so a date filter in the UI never moves the
+     * baseline. Pass every stored session and filter here rather than in the query.
+     */
+    visibleFrom?: string;
+    visibleTo?: string;
+  };
 }
 
 export interface BandOut {
@@ -51,8 +60,19 @@ function ageAt(birthYear: number, metrics: AnnotateTrendsInput["metrics"]): numb
   return Number.isInteger(birthYear) ? year - birthYear : null;
 }
 
+function visibility(from?: string, to?: string): (recordedAt: string) => boolean {
+  const lo = from === undefined ? Number.NEGATIVE_INFINITY : Date.parse(from);
+  const hi = to === undefined ? Number.POSITIVE_INFINITY : Date.parse(to);
+  if (Number.isNaN(lo) || Number.isNaN(hi)) throw new RangeError("visibleFrom/visibleTo must be ISO dates");
+  return (recordedAt) => {
+    const t = Date.parse(recordedAt);
+    return t >= lo && t <= hi;
+  };
+}
+
 export function annotateTrends(input: AnnotateTrendsInput): AnnotatedTrends {
   const { patient, options = {} } = input;
+  const visible = visibility(options.visibleFrom, options.visibleTo);
   const age = ageAt(patient.birthYear, input.metrics);
   const metrics = input.metrics.map((m): AnnotatedMetric => {
     const change = flagMetricChanges(m.key, m.points, patient.condition, options);
@@ -60,6 +80,7 @@ export function annotateTrends(input: AnnotateTrendsInput): AnnotatedTrends {
       key: m.key,
       unit: m.unit,
       ...change,
+      points: change.points.filter((p) => visible(p.recordedAt)),
       bands: bandsFor(m.key, { age, condition: patient.condition }).map(({ low, high, label, citation, confirmed }) => ({
         low,
         high,
@@ -74,5 +95,5 @@ export function annotateTrends(input: AnnotateTrendsInput): AnnotatedTrends {
     confirmSessions: options.confirmSessions,
     condition: patient.condition,
   });
-  return { metrics, events, cautions: [...CLINICAL_CAUTIONS] };
+  return { metrics, events: events.filter((e) => visible(e.recordedAt)), cautions: [...CLINICAL_CAUTIONS] };
 }

@@ -57,4 +57,24 @@ describe("annotateTrends", () => {
     });
     expect(younger.metrics[0]!.bands.some((b) => /under 70/.test(b.label))).toBe(true);
   });
+
+  it("filters the visible range without moving the baseline", () => {
+    const points = weekly([2.1, 2.3, 2.2, 2.25, 3.5]);
+    const r = annotateTrends({
+      patient,
+      metrics: [
+        { key: "strideTimeCvPct", unit: "%", points },
+        { key: "armLegLeftArmRightLegFrequencyRatio", unit: "1", points: weekly([2, 2, 2, 1, 1]) },
+      ],
+      options: { visibleFrom: points[3]!.recordedAt },
+    });
+    const cv = r.metrics[0]!;
+    expect(cv.points.map((p) => p.sessionId)).toEqual(["s4", "s5"]);
+    expect(cv.baseline?.mean).toBeCloseTo(2.2, 12); // still the first three sessions
+    expect(cv.points.map((p) => p.flag)).toEqual(["within-error", "worsened"]);
+    expect(r.events.map((e) => e.sessionId)).toEqual(["s5"]);
+    const none = annotateTrends({ patient, metrics: [{ key: "strideTimeCvPct", unit: "%", points }], options: { visibleTo: points[0]!.recordedAt } });
+    expect(none.metrics[0]!.points).toHaveLength(1);
+    expect(() => annotateTrends({ patient, metrics: [], options: { visibleFrom: "soon" } })).toThrow(RangeError);
+  });
 });
