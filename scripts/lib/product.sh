@@ -41,15 +41,15 @@ product_env() {
   export S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER
   export AWS_ACCESS_KEY_ID=S3RVER AWS_SECRET_ACCESS_KEY=S3RVER
   export SMTP_HOST=127.0.0.1 SMTP_PORT="$PENDULA_SMTP_PORT" MAIL_FROM="Pendula <no-reply@pendula.test>"
-  export PENDULA_MAILBOX_DIR="$PENDULA_DATA/mailbox"
-  export PENDULA_PORTAL_DIST="$ROOT/portal/dist"
+  export DEV_MAILBOX_DIR="$PENDULA_DATA/fakes/mailbox"
+  export PORTAL_DIST="$ROOT/portal/dist"
 }
 
 start_fakes() {
   local log="$PENDULA_DATA/fakes.log"
   : >"$log"
   (cd "$ROOT" && exec npx tsx ingest-server/src/dev/fakes.ts --data "$PENDULA_DATA/fakes" \
-    --s3-port "$PENDULA_S3_PORT" --smtp-port "$PENDULA_SMTP_PORT" --mailbox "$PENDULA_MAILBOX_DIR") >>"$log" 2>&1 &
+    --s3-port "$PENDULA_S3_PORT" --smtp-port "$PENDULA_SMTP_PORT") >>"$log" 2>&1 &
   PRODUCT_PIDS+=($!)
   wait_for_line "$log" "fakes ready" 60 || { log "object-storage/e-mail fakes did not start:"; cat "$log" >&2; return 1; }
 }
