@@ -1,6 +1,8 @@
 // Prints "<passed> <failed>" from a vitest JSON report. A file that failed without any failing test
 // (an import error, a crashed hook) counts as one failure, so a broken file can never pass silently.
-const report = require(require("node:path").resolve(process.argv[2]));
+/* eslint-disable @typescript-eslint/no-require-imports */
+const path = require("node:path");
+const report = require(path.resolve(process.argv[2]));
 let failed = report.numFailedTests || 0;
 for (const file of report.testResults || []) {
   const anyTestFailed = (file.assertionResults || []).some((a) => a.status === "failed");
