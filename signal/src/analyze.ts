@@ -124,19 +124,21 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   // Turns: lower back when worn (cleanest yaw), else the mean over the leg sensors.
   const back = sensors.get("lower_back");
   const yawSources = back ? [back] : legSensors;
-  const yaw = new Float64Array(n);
+  let turns: Bout[] = [];
   if (yawSources.length > 0) {
-    const count = new Uint8Array(n);
-    for (const s of yawSources) {
-      const y = yawRateAboutGravity(s, fs);
-      for (let i = 0; i < n; i++) if (s.valid[i]) {
-        yaw[i]! += y[i]!;
+    const traces = yawSources.map((s) => yawRateAboutGravity(s, fs));
+    const m = traces[0]!.yawDegS.length;
+    const yaw = new Float64Array(m);
+    const count = new Uint8Array(m);
+    for (const tr of traces) {
+      for (let i = 0; i < m; i++) if (tr.valid[i]) {
+        yaw[i]! += tr.yawDegS[i]!;
         count[i]!++;
       }
     }
-    for (let i = 0; i < n; i++) if (count[i]! > 1) yaw[i]! /= count[i]!;
+    for (let i = 0; i < m; i++) if (count[i]! > 1) yaw[i]! /= count[i]!;
+    turns = detectTurns(yaw, traces[0]!.sampleRateHz).map((t) => ({ startS: t.startS, endS: t.endS }));
   }
-  const turns: Bout[] = detectTurns(yaw, fs).map((t) => ({ startS: t.startS, endS: t.endS }));
 
   // Strides.
   const ctx = { bouts, turns, invalidSpans };

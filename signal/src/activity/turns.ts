@@ -20,10 +20,22 @@ export interface Turn extends Bout {
   angleDeg: number;
 }
 
+/** Yaw is computed at about this rate (block means); turns last seconds, so 20 Hz is ample. */
+export const YAW_TARGET_RATE_HZ = 20;
+
+export interface YawTrace {
+  yawDegS: Float64Array;
+  valid: Uint8Array;
+  sampleRateHz: number;
+  /** Grid samples per yaw sample. */
+  factor: number;
+}
+
 /**
  * Angular rate about the gravity axis (°/s): gyro · ĝ, with ĝ the unit low-passed accelerometer
  * vector (at rest the accelerometer points up, so positive = counter-clockwise seen from above).
- * Mounting-independent. Low-passed at YAW_LOW_PASS_HZ. Invalid samples are 0.
+ * Mounting-independent. Computed on block means at ~YAW_TARGET_RATE_HZ (a block is valid only when
+ * all its samples are), low-passed at YAW_LOW_PASS_HZ. Invalid samples are 0.
  */
 export function yawRateAboutGravity(
   s: {
@@ -36,19 +48,37 @@ export function yawRateAboutGravity(
     valid: Uint8Array;
   },
   sampleRateHz: number,
-): Float64Array {
-  const gx = lowPassZeroPhaseSegments(s.accX, s.valid, sampleRateHz, GRAVITY_LOW_PASS_HZ, 2);
-  const gy = lowPassZeroPhaseSegments(s.accY, s.valid, sampleRateHz, GRAVITY_LOW_PASS_HZ, 2);
-  const gz = lowPassZeroPhaseSegments(s.accZ, s.valid, sampleRateHz, GRAVITY_LOW_PASS_HZ, 2);
-  const n = gx.length;
-  const yaw = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    if (!s.valid[i]) continue;
+): YawTrace {
+  const factor = Math.max(1, Math.floor(sampleRateHz / YAW_TARGET_RATE_HZ));
+  const rate = sampleRateHz / factor;
+  const m = Math.floor(s.valid.length / factor);
+  const ch = [s.accX, s.accY, s.accZ, s.gyroX, s.gyroY, s.gyroZ].map(() => new Float64Array(m));
+  const src = [s.accX, s.accY, s.accZ, s.gyroX, s.gyroY, s.gyroZ];
+  const valid = new Uint8Array(m);
+  for (let k = 0; k < m; k++) {
+    let ok = 1;
+    const o = k * factor;
+    for (let i = 0; i < factor; i++) ok &= s.valid[o + i]!;
+    valid[k] = ok;
+    if (!ok) continue;
+    for (let c = 0; c < 6; c++) {
+      let sum = 0;
+      const x = src[c]!;
+      for (let i = 0; i < factor; i++) sum += x[o + i]!;
+      ch[c]![k] = sum / factor;
+    }
+  }
+  const gx = lowPassZeroPhaseSegments(ch[0]!, valid, rate, GRAVITY_LOW_PASS_HZ, 2);
+  const gy = lowPassZeroPhaseSegments(ch[1]!, valid, rate, GRAVITY_LOW_PASS_HZ, 2);
+  const gz = lowPassZeroPhaseSegments(ch[2]!, valid, rate, GRAVITY_LOW_PASS_HZ, 2);
+  const yaw = new Float64Array(m);
+  for (let i = 0; i < m; i++) {
+    if (!valid[i]) continue;
     const norm = Math.hypot(gx[i]!, gy[i]!, gz[i]!);
     if (norm < 1e-6) continue;
-    yaw[i] = (s.gyroX[i]! * gx[i]! + s.gyroY[i]! * gy[i]! + s.gyroZ[i]! * gz[i]!) / norm;
+    yaw[i] = (ch[3]![i]! * gx[i]! + ch[4]![i]! * gy[i]! + ch[5]![i]! * gz[i]!) / norm;
   }
-  return lowPassZeroPhaseSegments(yaw, s.valid, sampleRateHz, YAW_LOW_PASS_HZ, 2);
+  return { yawDegS: lowPassZeroPhaseSegments(yaw, valid, rate, YAW_LOW_PASS_HZ, 2), valid, sampleRateHz: rate, factor };
 }
 
 /** Turns from a yaw-rate trace (°/s): onset/extension thresholds, same-direction merging, angle and duration limits. */

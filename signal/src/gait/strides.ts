@@ -37,8 +37,8 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
     const a = ic[k]!;
     const b = ic[k + 1]!;
     const strideTimeS = b - a;
-    const inside = fcs.filter((t) => t > a && t < b);
-    const fcS = inside.length === 1 ? inside[0]! : null;
+    const inside = openRange(fcs, a, b);
+    const fcS = inside.count === 1 ? fcs[inside.from]! : null;
     const stanceTimeS = fcS === null ? null : fcS - a;
     const swingTimeS = fcS === null ? null : b - fcS;
     let doubleSupportPct: number | null = null;
@@ -51,10 +51,12 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
         orderOk = false;
       }
       if (fcS !== null) {
-        const fcC = contra.finalContactsS.filter((t) => t > a && t < fcS);
-        const icC = contra.initialContactsS.filter((t) => t > a && t < b);
-        if (fcC.length === 1 && icC.length === 1 && fcC[0]! < icC[0]! && icC[0]! < fcS) {
-          doubleSupportPct = (100 * (fcC[0]! - a + (fcS - icC[0]!))) / strideTimeS;
+        const fcR = openRange(contra.finalContactsS, a, fcS);
+        const icR = openRange(contra.initialContactsS, a, b);
+        const fcC = contra.finalContactsS[fcR.from]!;
+        const icC = contra.initialContactsS[icR.from]!;
+        if (fcR.count === 1 && icR.count === 1 && fcC < icC && icC < fcS) {
+          doubleSupportPct = (100 * (fcC - a + (fcS - icC))) / strideTimeS;
         } else orderOk = false;
       }
     }
@@ -103,6 +105,25 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
 function markEdge(s: Stride): void {
   s.steady = false;
   s.excludedReason = "bout-edge";
+}
+
+/** Index of the first element > a and the number of elements in (a, b) of a sorted array (binary search). */
+function openRange(sorted: readonly number[], a: number, b: number): { from: number; count: number } {
+  const from = firstAbove(sorted, a);
+  let to = from;
+  while (to < sorted.length && sorted[to]! < b) to++;
+  return { from, count: to - from };
+}
+
+function firstAbove(sorted: readonly number[], t: number): number {
+  let lo = 0;
+  let hi = sorted.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (sorted[mid]! > t) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
 }
 
 function lastBefore(sorted: readonly number[], t: number): number | null {
