@@ -82,7 +82,7 @@ export async function sendWeeklyReminders(deps: ClinicalDeps, now: Date = new Da
 export async function sendChangeAlerts(deps: ClinicalDeps, sessionId: string): Promise<SendReport> {
   const ref = await sessionRef(deps.db, sessionId);
   if (!ref) return { planned: 0, sent: 0 };
-  const data = await patientTrendData(deps.db, ref.patientId, ref.recordedAt);
+  const data = await patientTrendData(deps.db, ref.patientId, { sessionId });
   if (!data) return { planned: 0, sent: 0 };
   const trends = annotateTrends({ metrics: data.metrics, patient: data.patient });
   const reasons = alertReasons(trends, sessionId);

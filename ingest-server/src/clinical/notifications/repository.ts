@@ -73,7 +73,11 @@ export interface PatientTrendData {
  * A patient's stored metrics as annotateTrends input, optionally only up to `until` (inclusive), so
  * an alert for a reprocessed older session judges it against what came before it.
  */
-export async function patientTrendData(db: Knex, patientId: string, until?: string): Promise<PatientTrendData | null> {
+export async function patientTrendData(
+  db: Knex,
+  patientId: string,
+  until?: string | { sessionId: string },
+): Promise<PatientTrendData | null> {
   // enrolled_on as text: node-pg turns a DATE into local midnight, which shifts a day east of UTC.
   const p = await db("patients")
     .where({ id: patientId })
@@ -84,7 +88,9 @@ export async function patientTrendData(db: Knex, patientId: string, until?: stri
     .where({ "m.patient_id": patientId, "s.status": "done" })
     .orderBy([{ column: "m.recorded_at" }, { column: "m.session_id" }])
     .select("m.session_id", "m.recorded_at", "m.metric_key", "m.value", "m.unit");
-  if (until) q.andWhere("m.recorded_at", "<=", until);
+  // By session: compared in SQL, so microsecond timestamps are not cut to JavaScript milliseconds.
+  if (typeof until === "string") q.andWhere("m.recorded_at", "<=", until);
+  else if (until) q.andWhere("m.recorded_at", "<=", db("walk_sessions").where({ id: until.sessionId }).select("recorded_at"));
   const byKey = new Map<string, AnnotateTrendsInput["metrics"][number]>();
   for (const r of await q) {
     const key = r.metric_key as string;

@@ -125,6 +125,11 @@ describe("clinical e-mail jobs against PostgreSQL, pg-boss and the SMTP fake", (
     expect(m.text).not.toMatch(/Tamsin|Orrin/);
   });
 
+  it("judges a session recorded with microsecond precision against the sessions up to and including it", async () => {
+    const sid = await addSession(walker.patientId!, "2026-10-13T10:00:00.123456Z", { strideTimeCvPct: [3.7, "%"] });
+    expect((await sendChangeAlerts(deps, sid)).planned).toBe(2);
+  });
+
   it("runs the alert through the queue: enqueue twice, one e-mail per clinician", async () => {
     const sid = await addSession(walker.patientId!, "2026-10-19T10:00:00Z", { strideTimeCvPct: [3.8, "%"] });
     ctx.mailbox.clear();
