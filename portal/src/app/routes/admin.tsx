@@ -1,16 +1,73 @@
 import type { QueryClient } from "@tanstack/react-query";
-import type { RouteObject } from "react-router-dom";
+import { redirect, type RouteObject } from "react-router-dom";
 import type { NavItem } from "./nav";
 
 /*
- * Admin screens (devices and assignments, users and invitations, audit log, development
- * mailbox) plug in here. The router mounts these under `/admin`, behind the admin role guard and
- * inside the shared layout; give them an `index` route for the admin's home. Use `lazy` so their
- * code loads only for admins. Owned by the researcher/admin portal work.
+ * Admin screens, each loaded with its route. Loaders start the first request while the chunk is
+ * still parsing (prefetch, not ensure: a failed request shows the screen's own error state with
+ * a retry button instead of the route error page).
  */
-export function adminRoutes(_queryClient: QueryClient): RouteObject[] {
-  return [];
+export function adminRoutes(queryClient: QueryClient): RouteObject[] {
+  return [
+    { index: true, loader: () => redirect("/admin/devices") },
+    {
+      path: "devices",
+      lazy: async () => {
+        const [page, api] = await Promise.all([
+          import("@/features/admin-devices/components/device-inventory-page"),
+          import("@/features/admin-devices/api/devices"),
+        ]);
+        return {
+          Component: page.DeviceInventoryPage,
+          loader: () => {
+            void queryClient.prefetchQuery(api.devicesQueryOptions());
+            return null;
+          },
+        };
+      },
+    },
+    {
+      path: "devices/:deviceId",
+      lazy: async () => {
+        const [page, api, history] = await Promise.all([
+          import("@/features/admin-devices/components/device-page"),
+          import("@/features/admin-devices/api/devices"),
+          import("@/features/admin-devices/api/device-assignments"),
+        ]);
+        return {
+          Component: page.DevicePage,
+          loader: ({ params }: { params: { deviceId?: string } }) => {
+            void queryClient.prefetchQuery(api.devicesQueryOptions());
+            if (params.deviceId) void queryClient.prefetchQuery(history.deviceAssignmentsQueryOptions(params.deviceId));
+            return null;
+          },
+        };
+      },
+    },
+    {
+      path: "users",
+      lazy: async () => ({ Component: (await import("@/features/admin-users/components/users-page")).UsersPage }),
+    },
+    {
+      path: "invitations",
+      lazy: async () => ({ Component: (await import("@/features/admin-users/components/invitations-page")).InvitationsPage }),
+    },
+    {
+      path: "audit",
+      lazy: async () => ({ Component: (await import("@/features/admin-audit/components/audit-log-page")).AuditLogPage }),
+    },
+    {
+      path: "mailbox",
+      lazy: async () => ({ Component: (await import("@/features/admin-mailbox/components/mailbox-page")).MailboxPage }),
+    },
+  ];
 }
 
 /** Links shown in the admin's navigation bar (paths relative to the site root). */
-export const adminNav: NavItem[] = [];
+export const adminNav: NavItem[] = [
+  { to: "/admin/devices", label: "Devices" },
+  { to: "/admin/users", label: "Users" },
+  { to: "/admin/invitations", label: "Invitations" },
+  { to: "/admin/audit", label: "Audit log" },
+  { to: "/admin/mailbox", label: "Mailbox" },
+];

@@ -3,14 +3,17 @@ import type { RouteObject } from "react-router-dom";
 import type { NavItem } from "./nav";
 
 /*
- * Researcher screens (cohort builder, preview with suppression, CSV/FHIR export) plug in here.
- * The router mounts these under `/research`, behind the researcher role guard and inside the
- * shared layout; give them an `index` route for the researcher's home. Use `lazy` so their code
- * loads only for researchers. Owned by the researcher/admin portal work.
+ * Researcher screens. `lazy` keeps the cohort builder out of everyone else's first load. The
+ * preview is a POST made on demand, so there is nothing for a loader to prefetch.
  */
 export function researcherRoutes(_queryClient: QueryClient): RouteObject[] {
-  return [];
+  return [
+    {
+      index: true,
+      lazy: async () => ({ Component: (await import("@/features/research/components/research-page")).ResearchPage }),
+    },
+  ];
 }
 
 /** Links shown in the researcher's navigation bar (paths relative to the site root). */
-export const researcherNav: NavItem[] = [];
+export const researcherNav: NavItem[] = [{ to: "/research", label: "Cohort builder", end: true }];
