@@ -35,10 +35,11 @@ export const ARM_SEARCH_HIGH = 2.6;
  * summarised over steady-state samples: circular mean (degrees, (−180, 180]), mean resultant
  * length R (`couplingStrength`) and circular SD √(−2 ln R) in degrees.
  *
- * Both signals are first reduced to ≈ 25 Hz (or 27 × the stride frequency if higher) by
- * averaging blocks of D samples: the block mean has its zeros exactly at multiples of the new
- * rate, so nothing folds into the 0.3–4 Hz band, it shifts arm and leg alike (ψ unchanged) and it
- * keeps the FFT work of the Hilbert step small for 30-minute recordings. A block counts as steady
+ * Both signals are first reduced to ≈ 12.5 Hz (or 13.5 × the stride frequency if higher, i.e.
+ * ≥ 4 × the highest band edge the arm search allows) by averaging blocks of D samples: the block
+ * mean has its zeros exactly at multiples of the new rate, so little folds into the gait band, it
+ * shifts arm and leg alike (ψ unchanged) and it keeps the FFT work of the Hilbert step small
+ * for 30-minute recordings. A block counts as steady
  * only when all its samples do. Non-finite samples are set to 0 and left out of the steady set.
  *
  * Returns `UNAVAILABLE_COUPLING` when the stride frequency is unusable, there are fewer than
@@ -56,7 +57,7 @@ export function armLegCoupling(
   assertPositiveFinite(sampleRateHz, "sampleRateHz");
   if (!Number.isFinite(strideFrequencyHz) || strideFrequencyHz <= 0) return { ...UNAVAILABLE_COUPLING };
 
-  const targetHz = Math.max(25, 27 * strideFrequencyHz);
+  const targetHz = Math.max(12.5, 13.5 * strideFrequencyHz);
   const factor = Math.max(1, Math.floor(sampleRateHz / targetHz));
   const rateHz = sampleRateHz / factor;
   const { arm, leg, mask, steadyCount } = decimate(armOmegaDegS, legOmegaDegS, steadyMask, factor);

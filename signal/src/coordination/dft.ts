@@ -13,8 +13,13 @@ interface BluesteinPlan {
   /** Chirp c_k = exp(−iπk²/N), interleaved re/im, length 2N. */
   chirp: Float64Array;
   /** FFT of the conjugate chirp filter, length 2M interleaved. */
-  filterSpectrum: number[];
+  filterSpectrum: Float64Array;
+  /** Work buffers of length 2M, reused by every transform of this size. */
+  work: Float64Array;
+  workSpectrum: Float64Array;
 }
+
+// fft.js accepts any indexable buffers; Float64Array avoids its boxed Array (createComplexArray).
 
 // Plans are cached by size: the analysis transforms a few signals of one length per session.
 const fftCache = new Map<number, FFT>();
@@ -49,8 +54,7 @@ function bluesteinPlan(n: number): BluesteinPlan {
     chirp[2 * k + 1] = Math.sin(angle);
     k2 = (k2 + 2 * k + 1) % twoN;
   }
-  const filter = fft.createComplexArray() as number[];
-  filter.fill(0);
+  const filter = new Float64Array(2 * m);
   filter[0] = chirp[0]!;
   filter[1] = -chirp[1]!;
   for (let k = 1; k < n; k++) {
@@ -61,9 +65,9 @@ function bluesteinPlan(n: number): BluesteinPlan {
     filter[2 * (m - k)] = re;
     filter[2 * (m - k) + 1] = im;
   }
-  const filterSpectrum = fft.createComplexArray() as number[];
+  const filterSpectrum = new Float64Array(2 * m);
   fft.transform(filterSpectrum, filter);
-  lastPlan = { n, m, fft, chirp, filterSpectrum };
+  lastPlan = { n, m, fft, chirp, filterSpectrum, work: filter, workSpectrum: new Float64Array(2 * m) };
   return lastPlan;
 }
 
@@ -87,12 +91,12 @@ export function dft(
   }
   if (isPowerOfTwo(n)) {
     const fft = fftOfSize(n);
-    const input = fft.createComplexArray() as number[];
+    const input = new Float64Array(2 * n);
     for (let i = 0; i < n; i++) {
       input[2 * i] = real[i]!;
       input[2 * i + 1] = imag ? imag[i]! : 0;
     }
-    const out = fft.createComplexArray() as number[];
+    const out = new Float64Array(2 * n);
     fft.transform(out, input);
     for (let i = 0; i < n; i++) {
       re[i] = out[2 * i]!;
@@ -102,7 +106,7 @@ export function dft(
   }
   const plan = bluesteinPlan(n);
   const { m, fft, chirp, filterSpectrum } = plan;
-  const a = fft.createComplexArray() as number[];
+  const a = plan.work;
   a.fill(0);
   for (let k = 0; k < n; k++) {
     const xr = real[k]!;
@@ -112,7 +116,7 @@ export function dft(
     a[2 * k] = xr * cr - xi * ci;
     a[2 * k + 1] = xr * ci + xi * cr;
   }
-  const spectrum = fft.createComplexArray() as number[];
+  const spectrum = plan.workSpectrum;
   fft.transform(spectrum, a);
   for (let k = 0; k < m; k++) {
     const ar = spectrum[2 * k]!;

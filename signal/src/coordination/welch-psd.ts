@@ -58,8 +58,8 @@ export function welchPsd(x: ArrayLike<number>, sampleRateHz: number, options: We
   }
 
   const fft = new FFT(L);
-  const segment = new Array<number>(L);
-  const out = fft.createComplexArray() as number[];
+  const segment = new Float64Array(L);
+  const out = new Float64Array(2 * L);
   let count = 0;
   for (let start = 0; start + L <= x.length; start += step) {
     if (maskPrefix && (maskPrefix[start + L]! - maskPrefix[start]!) / L < minFraction) continue;

@@ -56,7 +56,7 @@ export function sensorCsvText(
     }
     buf[pos++] = 10; // "\n"
   }
-  return head + new TextDecoder("latin1").decode(buf.subarray(0, pos));
+  return head + asciiToString(buf.subarray(0, pos));
 }
 
 /** Writes v with d decimals (round half away from zero) as ASCII at pos; returns the new pos. */
@@ -91,4 +91,11 @@ function writeFixed(buf: Uint8Array, pos: number, v: number, d: number, scratch:
   }
   while (len > 0) buf[pos++] = scratch[--len]!;
   return pos;
+}
+
+/** ASCII bytes → string. Node's Buffer yields a compact one-byte string quickly; browsers decode. */
+function asciiToString(bytes: Uint8Array): string {
+  const nodeBuffer = (globalThis as { Buffer?: { from(b: ArrayBufferLike, o: number, l: number): { toString(e: string): string } } }).Buffer;
+  if (nodeBuffer) return nodeBuffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString("latin1");
+  return new TextDecoder("latin1").decode(bytes);
 }

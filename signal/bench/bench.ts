@@ -1,0 +1,145 @@
+// Parse and analysis time and peak memory for a 6-minute and a 30-minute four-sensor 200 Hz
+// session from the project's synthetic generator. Run from the repository root: `npm run bench`.
+// Each size is generated in one child process and measured in a fresh one (so the generator's
+// memory is not counted), pinned to one CPU with `taskset` when it exists. Figures are printed,
+// never asserted; the machine may be shared, so the load average is printed too.
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { loadavg, tmpdir } from "node:os";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { analyze } from "../src/analyze";
+import { readSensorCsv } from "../src/io/read-sensor-csv";
+import { synthesizeSession, type SynthOptions } from "../src/synth";
+import type { SensorRecording } from "../src/types";
+
+const SIZES_MIN = [6, 30];
+const TARGETS_30_MIN = { analysisS: 1, endToEndS: 2, peakMb: 300 };
+const SELF = fileURLToPath(import.meta.url);
+
+/** A home walking test: 180° turns every 20 s, a 20 s rest every 5 minutes, 1:1 arm swing. */
+function scenario(minutes: number): SynthOptions {
+  const durationS = minutes * 60;
+  const turns: NonNullable<SynthOptions["turns"]> = [];
+  const standing: NonNullable<SynthOptions["standing"]> = [];
+  for (let t = 20; t < durationS - 10; t += 20) {
+    if (t % 300 === 0) standing.push({ startS: t, durationS: 20 });
+    else turns.push({ startS: t, durationS: 2, angleDeg: 180 });
+  }
+  return { seed: 2026, durationS, sampleRateHz: 200, misalignmentDeg: 12, timestampJitterS: 0.0005, turns, standing };
+}
+
+function mb(bytes: number): string {
+  return (bytes / 1048576).toFixed(0);
+}
+
+function generate(minutes: number, dir: string): void {
+  const t0 = performance.now();
+  const session = synthesizeSession(scenario(minutes));
+  for (const f of session.files) writeFileSync(join(dir, f.fileName), f.text);
+  const rows = session.files.reduce((s, f) => s + f.rowCount, 0);
+  process.stdout.write(JSON.stringify({ generateS: (performance.now() - t0) / 1000, rows }));
+}
+
+/** CPU seconds (user + system) of this process: steadier than wall time on a shared machine. */
+function cpuS(): number {
+  const u = process.cpuUsage();
+  return (u.user + u.system) / 1e6;
+}
+
+function measure(dir: string): void {
+  const baselineRss = process.memoryUsage().rss;
+  const names = readdirSync(dir).filter((n) => n.endsWith(".csv")).sort();
+  const c0 = cpuS();
+  const t0 = performance.now();
+  const texts = names.map((n) => readFileSync(join(dir, n), "utf8"));
+  const t1 = performance.now();
+  const c1 = cpuS();
+  let recordings: SensorRecording[] | null = texts.map((text, i) => readSensorCsv(text, names[i]!));
+  texts.length = 0;
+  const t2 = performance.now();
+  const c2 = cpuS();
+  const analysis = analyze(recordings);
+  const t3 = performance.now();
+  const c3 = cpuS();
+  const afterAnalysis = process.memoryUsage();
+  const peakRssBytes = process.resourceUsage().maxRSS * 1024;
+  // A second run on warm code, for information only.
+  const t4 = performance.now();
+  analyze(recordings);
+  const warmS = (performance.now() - t4) / 1000;
+  recordings = null;
+  process.stdout.write(
+    JSON.stringify({
+      files: names.length,
+      readS: (t1 - t0) / 1000,
+      parseS: (t2 - t1) / 1000,
+      analysisS: (t3 - t2) / 1000,
+      endToEndS: (t3 - t0) / 1000,
+      readCpuS: c1 - c0,
+      parseCpuS: c2 - c1,
+      analysisCpuS: c3 - c2,
+      endToEndCpuS: c3 - c0,
+      warmAnalysisS: warmS,
+      peakRssBytes,
+      baselineRssBytes: baselineRss,
+      heapUsedAfterBytes: afterAnalysis.heapUsed,
+      strides: analysis.strides.length,
+      cadence: analysis.metrics.cadenceStepsPerMin,
+    }),
+  );
+}
+
+function runChild(args: string[]): Record<string, number> {
+  const node = [...process.execArgv, SELF, ...args];
+  const pinned = spawnSync("taskset", ["-c", "0", process.execPath, ...node], { encoding: "utf8", maxBuffer: 1 << 20 });
+  const result = pinned.error ? spawnSync(process.execPath, node, { encoding: "utf8", maxBuffer: 1 << 20 }) : pinned;
+  if (result.status !== 0) throw new Error(`bench child ${args.join(" ")} failed:\n${result.stderr}`);
+  return JSON.parse(result.stdout) as Record<string, number>;
+}
+
+function main(): void {
+  const [mode, a, b] = process.argv.slice(2);
+  if (mode === "--generate") return generate(Number(a), b!);
+  if (mode === "--measure") return measure(a!);
+
+  console.log(`Pendula signal benchmark — node ${process.version}, load average ${loadavg().map((x) => x.toFixed(2)).join(" ")}`);
+  console.log("Session: four sensors (shanks, wrists), 200 Hz, synthetic home walk (turns every 20 s, rests every 5 min).");
+  const rows: string[][] = [];
+  for (const minutes of SIZES_MIN) {
+    const dir = mkdtempSync(join(tmpdir(), "pendula-bench-"));
+    try {
+      const gen = runChild(["--generate", String(minutes), dir]);
+      const m = runChild(["--measure", dir]);
+      rows.push([
+        `${minutes} min`,
+        String(gen.rows),
+        gen.generateS!.toFixed(2),
+        `${m.readS!.toFixed(2)} (${m.readCpuS!.toFixed(2)})`,
+        `${m.parseS!.toFixed(2)} (${m.parseCpuS!.toFixed(2)})`,
+        `${m.analysisS!.toFixed(2)} (${m.analysisCpuS!.toFixed(2)})`,
+        m.warmAnalysisS!.toFixed(2),
+        `${m.endToEndS!.toFixed(2)} (${m.endToEndCpuS!.toFixed(2)})`,
+        mb(m.peakRssBytes!),
+        mb(m.baselineRssBytes!),
+        mb(m.heapUsedAfterBytes!),
+        String(m.strides),
+      ]);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  }
+  const header = ["size", "rows", "gen s", "read s", "parse s", "analysis s", "warm s", "end-to-end s", "peak RSS MB", "start RSS MB", "heap after MB", "strides"];
+  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.length)));
+  const line = (cells: string[]) => cells.map((c, i) => c.padStart(widths[i]!)).join("  ");
+  console.log(line(header));
+  for (const r of rows) console.log(line(r));
+  console.log(
+    `Targets (30 min): analysis after parsing < ${TARGETS_30_MIN.analysisS} s, end to end (read + parse + analysis) < ${TARGETS_30_MIN.endToEndS} s, peak RSS < ${TARGETS_30_MIN.peakMb} MB.`,
+  );
+  console.log("Times are wall seconds (CPU seconds of the process in brackets; CPU includes GC and JIT helper threads).");
+  console.log("Generation is not part of the targets; 'warm' is a second analysis in the same process, for information.");
+  console.log("Start RSS is the Node + tsx runtime before any file is read.");
+}
+
+main();
