@@ -45,7 +45,11 @@ export function authRouter(deps: AppDeps): ApiRouter {
   // (one client spraying many accounts).
   const loginPerAccount = limiter(max, windowS, (req) => `${ip(req)}|${bodyEmail(req)}`, true);
   const loginPerIp = limiter(max * 5, windowS, ip, true);
-  const tokenAttempts = limiter(max * 2, windowS, ip, false);
+  // Guessing invitation or reset tokens is hopeless (256 bits), but failures are still capped.
+  const tokenFailures = limiter(max * 2, windowS, ip, true);
+  // Reset requests send mail, so every request counts (per address and per e-mail).
+  const resetRequestsPerIp = limiter(max * 2, windowS, ip, false);
+  const resetRequestsPerEmail = limiter(Math.max(3, Math.ceil(max / 2)), windowS, bodyEmail, false);
 
   const cookieBase: CookieOptions = { httpOnly: true, sameSite: "strict", secure: config.secureCookies, path: PREFIX };
   const answer = (res: Response, s: IssuedSession) => {
@@ -100,7 +104,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       path: "/invitations/accept",
       summary: "Set the password of an invited account (once) and sign in",
       access: "public",
-      before: [tokenAttempts],
+      before: [tokenFailures],
       request: { body: acceptInvitationRequest },
       response: tokenResponse,
       handler: async ({ body }, req, res) => answer(res, await service.acceptInvitation(body.token, body.password, req)),
@@ -110,7 +114,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       path: "/password-reset/request",
       summary: "E-mail a reset link if the address has an account (always 202)",
       access: "public",
-      before: [tokenAttempts],
+      before: [resetRequestsPerIp, resetRequestsPerEmail],
       status: 202,
       request: { body: passwordResetRequest },
       response: acceptedResponse,
@@ -124,7 +128,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       path: "/password-reset/confirm",
       summary: "Choose a new password with a reset token; ends every other session",
       access: "public",
-      before: [tokenAttempts],
+      before: [tokenFailures],
       status: 204,
       request: { body: passwordResetConfirm },
       handler: async ({ body }, req, res) => {
