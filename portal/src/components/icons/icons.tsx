@@ -122,8 +122,8 @@ export const IconNote = (p: IconProps) => (
     <path d="M7 7h6M7 10h4" />
   </Svg>
 );
-export const IconSort = (p: IconProps & { direction?: "asc" | "desc" | false }) => {
-  const { direction, ...rest } = p;
+export const IconSort = (p: Omit<IconProps, "direction"> & { sortDir?: "asc" | "desc" | false }) => {
+  const { sortDir: direction, ...rest } = p;
   return (
     <Svg {...rest}>
       <path d="M6.5 8L10 4.5 13.5 8" opacity={direction === "desc" ? 0.3 : 1} />

@@ -1,0 +1,193 @@
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getFilteredRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from "@tanstack/react-table";
+import { useMemo, useState } from "react";
+import { Link } from "react-router-dom";
+import { IconSearch, IconSort } from "@/components/icons";
+import { Badge, EmptyState, SelectField, TextField } from "@/components/ui";
+import { CONDITION_LABEL, type CaseloadRow } from "../api/get-caseload";
+
+const col = createColumnHelper<CaseloadRow>();
+const fmt = (v: number | null | undefined, digits = 0) => (typeof v === "number" ? v.toFixed(digits) : "—");
+
+function daysAgo(iso: string | null | undefined): string {
+  if (!iso) return "never";
+  const d = Math.floor((Date.now() - Date.parse(iso)) / 86_400_000);
+  return d <= 0 ? "today" : d === 1 ? "yesterday" : `${d} days ago`;
+}
+
+// Nulls sort last in both directions so "no data" never hides the patients that have data.
+const nullsLast = (a: number | null | undefined, b: number | null | undefined) => {
+  if (a == null && b == null) return 0;
+  if (a == null) return 1;
+  if (b == null) return -1;
+  return a - b;
+};
+
+export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
+  const [sorting, setSorting] = useState<SortingState>([{ id: "lastUpload", desc: true }]);
+  const [search, setSearch] = useState("");
+  const [condition, setCondition] = useState("");
+  const [flaggedOnly, setFlaggedOnly] = useState(false);
+
+  const columns = useMemo(
+    () => [
+      col.accessor("displayName", {
+        id: "patient",
+        header: "Patient",
+        cell: (c) => (
+          <Link to={`/clinician/patients/${c.row.original.id}`} className="font-semibold text-sky-deep underline-offset-2 hover:underline">
+            {c.getValue()}
+          </Link>
+        ),
+      }),
+      col.accessor((r) => r.condition ?? "", {
+        id: "condition",
+        header: "Condition",
+        cell: (c) => CONDITION_LABEL[c.getValue()] ?? (c.getValue() || "—"),
+        filterFn: "equalsString",
+      }),
+      col.accessor((r) => (r.lastUploadAt ? Date.parse(r.lastUploadAt) : null), {
+        id: "lastUpload",
+        header: "Last upload",
+        sortingFn: (a, b) => nullsLast(a.getValue("lastUpload"), b.getValue("lastUpload")),
+        cell: (c) => (
+          <span title={c.row.original.lastUploadAt ? new Date(c.row.original.lastUploadAt).toLocaleString() : undefined}>{daysAgo(c.row.original.lastUploadAt)}</span>
+        ),
+      }),
+      col.accessor((r) => r.adherencePct ?? null, {
+        id: "adherence",
+        header: "Adherence (4 wk)",
+        sortingFn: (a, b) => nullsLast(a.getValue("adherence"), b.getValue("adherence")),
+        cell: (c) => {
+          const v = c.getValue();
+          if (v == null) return "—";
+          return v < 50 ? <Badge tone="caution">{`${Math.round(v)} %`}</Badge> : <span className="tabular">{Math.round(v)} %</span>;
+        },
+      }),
+      col.accessor((r) => r.flags?.length ?? 0, {
+        id: "flags",
+        header: "Flags",
+        cell: (c) => {
+          const flags = c.row.original.flags ?? [];
+          if (!c.row.original.flags) return "—";
+          const worse = flags.filter((f) => f.flag === "worsened").length;
+          const other = flags.length - worse;
+          if (!flags.length) return <span className="text-ink-soft">none</span>;
+          return (
+            <span className="flex flex-wrap gap-1">
+              {worse ? <Badge tone="alert">{`${worse} worsened`}</Badge> : null}
+              {other ? <Badge tone="info">{`${other} other`}</Badge> : null}
+            </span>
+          );
+        },
+      }),
+      col.accessor((r) => r.latest?.cadenceStepsPerMin ?? null, {
+        id: "cadence",
+        header: "Cadence (steps/min)",
+        sortingFn: (a, b) => nullsLast(a.getValue("cadence"), b.getValue("cadence")),
+        cell: (c) => <span className="tabular">{fmt(c.getValue(), 1)}</span>,
+      }),
+      col.accessor((r) => r.latest?.phaseCoordinationIndexPct ?? null, {
+        id: "pci",
+        header: "PCI (%)",
+        sortingFn: (a, b) => nullsLast(a.getValue("pci"), b.getValue("pci")),
+        cell: (c) => <span className="tabular">{fmt(c.getValue(), 1)}</span>,
+      }),
+    ],
+    [],
+  );
+
+  const data = useMemo(() => (flaggedOnly ? rows.filter((r) => (r.flags?.length ?? 0) > 0) : rows), [rows, flaggedOnly]);
+  const table = useReactTable({
+    data,
+    columns,
+    state: { sorting, globalFilter: search, columnFilters: condition ? [{ id: "condition", value: condition }] : [] },
+    onSortingChange: setSorting,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+    getFilteredRowModel: getFilteredRowModel(),
+    // Search looks at names and research ids only, not at numbers.
+    globalFilterFn: (row, _id, value: string) => {
+      const q = value.trim().toLowerCase();
+      if (!q) return true;
+      return `${row.original.displayName} ${row.original.researchId ?? ""}`.toLowerCase().includes(q);
+    },
+  });
+  const conditions = [...new Set(rows.map((r) => r.condition).filter((c): c is string => Boolean(c)))].sort();
+  const shown = table.getRowModel().rows;
+
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="no-print grid gap-3 sm:grid-cols-[2fr_1fr_auto] sm:items-end">
+        <div className="relative">
+          <TextField label="Search patients" type="search" value={search} onChange={(e) => setSearch(e.target.value)} placeholder="Name or research id" className="pl-9" />
+          <IconSearch className="pointer-events-none absolute bottom-3 left-3 text-ink-faint" />
+        </div>
+        <SelectField label="Condition" value={condition} onChange={(e) => setCondition(e.target.value)}>
+          <option value="">All conditions</option>
+          {conditions.map((c) => (
+            <option key={c} value={c}>
+              {CONDITION_LABEL[c] ?? c}
+            </option>
+          ))}
+        </SelectField>
+        <label className="flex items-center gap-2 pb-2 text-sm font-semibold">
+          <input type="checkbox" className="size-4 accent-moss" checked={flaggedOnly} onChange={(e) => setFlaggedOnly(e.target.checked)} />
+          Flagged only
+        </label>
+      </div>
+      <p className="text-sm text-ink-soft" aria-live="polite">
+        Showing {shown.length} of {rows.length} patients
+      </p>
+      {shown.length === 0 ? (
+        <EmptyState title="No patients match">Clear the search or choose another condition.</EmptyState>
+      ) : (
+        <div className="card overflow-x-auto">
+          <table className="w-full border-collapse text-left text-sm">
+            <caption className="sr-only">Caseload. Column headers sort the table.</caption>
+            <thead>
+              {table.getHeaderGroups().map((hg) => (
+                <tr key={hg.id}>
+                  {hg.headers.map((h) => {
+                    const dir = h.column.getIsSorted();
+                    return (
+                      <th
+                        key={h.id}
+                        scope="col"
+                        aria-sort={dir === "asc" ? "ascending" : dir === "desc" ? "descending" : "none"}
+                        className="border-b border-line bg-sand px-4 py-2 font-semibold"
+                      >
+                        <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 rounded hover:text-moss-deep">
+                          {flexRender(h.column.columnDef.header, h.getContext())}
+                          <IconSort sortDir={dir} />
+                        </button>
+                      </th>
+                    );
+                  })}
+                </tr>
+              ))}
+            </thead>
+            <tbody>
+              {shown.map((row) => (
+                <tr key={row.id} className="hover:bg-sand/60">
+                  {row.getVisibleCells().map((cell) => (
+                    <td key={cell.id} className="border-b border-line/70 px-4 py-2.5">
+                      {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                    </td>
+                  ))}
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,2 @@
+export { CaseloadPage } from "./components/caseload-page";
+export { caseloadQueryOptions, caseloadKeys } from "./api/get-caseload";

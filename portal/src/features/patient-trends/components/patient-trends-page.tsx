@@ -1,0 +1,135 @@
+import type { ReactNode } from "react";
+import { Link, useNavigate } from "react-router-dom";
+import type { ChartMarker } from "@/components/charts/time-series-chart";
+import { IconPrint } from "@/components/icons";
+import { Badge, Button, EmptyState, PageHeader, Section, Table, Td, Th } from "@/components/ui";
+import { FAMILIES, familyOf } from "../api/metric-families";
+import { usePatientDetail, usePatientSessions, useTrends, type CoordinationEvent, type TrendMetric } from "../api/trends";
+import { DEFAULT_CAUTIONS } from "./flag-badge";
+import { TrendFamilyCard } from "./trend-family-card";
+
+const CONDITION_LABEL: Record<string, string> = { incomplete_sci: "Incomplete SCI", stroke: "Stroke", parkinsons: "Parkinson's disease", other: "Other" };
+const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: "numeric", month: "short", year: "numeric" });
+
+export interface PatientTrendsPageProps {
+  patientId: string;
+  /** Notes and training sessions, drawn on every chart at the same time positions. */
+  markers?: ChartMarker[];
+  /** The notes and training panel, supplied by the route (it belongs to the notes feature). */
+  notesPanel?: ReactNode;
+}
+
+/** One shared time domain so every chart, the notes and the training log line up. */
+export function sharedDomain(metrics: TrendMetric[], markers: ChartMarker[]): [Date, Date] | null {
+  const ts = metrics.flatMap((m) => m.points.map((p) => Date.parse(p.recordedAt))).concat(markers.map((m) => m.t.getTime()));
+  if (!ts.length) return null;
+  const lo = Math.min(...ts);
+  const hi = Math.max(...ts);
+  const pad = Math.max(3 * 86_400_000, (hi - lo) * 0.03);
+  return [new Date(lo - pad), new Date(hi + pad)];
+}
+
+export function PatientTrendsPage({ patientId, markers = [], notesPanel }: PatientTrendsPageProps) {
+  const { data: patient } = usePatientDetail(patientId);
+  const { data: trends } = useTrends(patientId);
+  const { data: sessions } = usePatientSessions(patientId);
+  const navigate = useNavigate();
+  const openSession = (id: string) => navigate(`/clinician/sessions/${id}`);
+  const events: CoordinationEvent[] = trends.events ?? [];
+  const cautions = trends.cautions?.length ? trends.cautions : DEFAULT_CAUTIONS;
+  const domain = sharedDomain(trends.metrics, markers);
+  const byFamily = FAMILIES.map((f) => ({
+    family: f,
+    metrics: trends.metrics.filter((m) => familyOf(m.key) === f.id),
+  })).filter((g) => g.metrics.length > 0);
+
+  return (
+    <div>
+      <PageHeader
+        eyebrow="Patient trends"
+        title={patient.displayName}
+        actions={
+          <Button variant="secondary" icon={<IconPrint />} onClick={() => window.print()}>
+            Print report
+          </Button>
+        }
+      >
+        {[patient.condition ? CONDITION_LABEL[patient.condition] ?? patient.condition : null, patient.conditionDetail, patient.enrolledOn ? `enrolled ${day(patient.enrolledOn)}` : null, patient.researchId ? `research id ${patient.researchId}` : null]
+          .filter(Boolean)
+          .join(" · ")}
+      </PageHeader>
+      <p className="print-only mb-4 text-sm">Trend report printed {new Date().toLocaleString()}. Pendula supports clinical judgement; it does not diagnose.</p>
+
+      <details className="no-print mb-6 rounded-lg border border-line bg-paper p-3 text-sm">
+        <summary className="cursor-pointer font-semibold">How to read these charts</summary>
+        <ul className="mt-2 grid gap-1 sm:grid-cols-2">
+          <li>▲ filled: improved beyond MDC</li>
+          <li>▼ filled: worsened beyond MDC</li>
+          <li>◆ open: change within measurement error</li>
+          <li>● small: no flag (baseline or not assessed)</li>
+          <li>Shaded bands: published reference ranges, numbered and sourced under each chart</li>
+          <li>Dotted lines — N: clinician note, T: training, E: coordination event</li>
+        </ul>
+        <p className="mt-2">Select a point, or a row in the session list, to open that session.</p>
+      </details>
+
+      {byFamily.length === 0 || !domain ? (
+        <EmptyState title="No measured sessions yet">Trends appear after the first weekly walk has been processed.</EmptyState>
+      ) : (
+        <div className="mb-8 grid gap-5 xl:grid-cols-2">
+          {byFamily.map(({ family, metrics }) => (
+            <TrendFamilyCard
+              key={family.id}
+              family={family}
+              metrics={metrics}
+              events={events.filter((e) => e.metricKey && familyOf(e.metricKey) === family.id)}
+              markers={markers}
+              xDomain={domain}
+              cautions={cautions}
+              onOpenSession={openSession}
+            />
+          ))}
+        </div>
+      )}
+
+      {notesPanel}
+
+      <Section title="Sessions" id="sessions">
+        {sessions.items.length === 0 ? (
+          <EmptyState title="No sessions uploaded">The patient has not uploaded a walk yet.</EmptyState>
+        ) : (
+          <Table>
+            <thead>
+              <tr>
+                <Th>Recorded</Th>
+                <Th>Status</Th>
+                <Th>Cadence</Th>
+                <Th>Stride-time CV</Th>
+                <Th>PCI</Th>
+              </tr>
+            </thead>
+            <tbody>
+              {[...sessions.items]
+                .sort((a, b) => b.recordedAt.localeCompare(a.recordedAt))
+                .map((s) => (
+                  <tr key={s.id}>
+                    <Td>
+                      <Link to={`/clinician/sessions/${s.id}`} className="font-semibold text-sky-deep underline-offset-2 hover:underline">
+                        {new Date(s.recordedAt).toLocaleString(undefined, { dateStyle: "medium", timeStyle: "short" })}
+                      </Link>
+                    </Td>
+                    <Td>
+                      {s.status === "done" ? <Badge tone="good">Processed</Badge> : s.status === "failed" ? <Badge tone="alert">Failed</Badge> : <Badge tone="info">{s.status === "queued" ? "Queued" : "Processing"}</Badge>}
+                    </Td>
+                    <Td className="tabular">{s.cadenceStepsPerMin != null ? `${s.cadenceStepsPerMin.toFixed(1)} steps/min` : "—"}</Td>
+                    <Td className="tabular">{s.strideTimeCvPct != null ? `${s.strideTimeCvPct.toFixed(2)} %` : "—"}</Td>
+                    <Td className="tabular">{s.phaseCoordinationIndexPct != null ? `${s.phaseCoordinationIndexPct.toFixed(1)} %` : "—"}</Td>
+                  </tr>
+                ))}
+            </tbody>
+          </Table>
+        )}
+      </Section>
+    </div>
+  );
+}

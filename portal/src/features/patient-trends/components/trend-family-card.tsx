@@ -1,0 +1,155 @@
+import { IconAlert } from "@/components/icons";
+import { TimeSeriesChart, type ChartMarker, type ChartSeries, type PointFlag } from "@/components/charts/time-series-chart";
+import type { CoordinationEvent, TrendBand, TrendMetric } from "../api/trends";
+import { metricLabel, seriesColor, type FamilyInfo } from "../api/metric-families";
+import { FlagBadge } from "./flag-badge";
+
+const asFlag = (f: string | undefined): PointFlag | undefined => (f === "improved" || f === "worsened" || f === "within-error" ? f : undefined);
+const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: "numeric", month: "short", year: "numeric" });
+
+function fmt(v: number, unit: string) {
+  const digits = Math.abs(v) >= 20 ? 1 : 2;
+  return `${v.toFixed(digits)}${unit && unit !== "1" ? ` ${unit}` : ""}`;
+}
+
+export interface TrendFamilyCardProps {
+  family: FamilyInfo;
+  metrics: TrendMetric[];
+  events: CoordinationEvent[];
+  markers: ChartMarker[];
+  xDomain: [Date, Date];
+  cautions: string[];
+  onOpenSession: (sessionId: string) => void;
+}
+
+export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cautions, onOpenSession }: TrendFamilyCardProps) {
+  const unit = metrics[0]?.unit ?? "";
+  const series: ChartSeries[] = metrics.map((m, i) => ({
+    id: m.key,
+    label: metricLabel(m.key, m.label),
+    color: seriesColor(i),
+    dashed: i % 2 === 1,
+    points: m.points
+      .map((p) => ({ key: `${m.key}-${p.sessionId}`, t: new Date(p.recordedAt), v: p.value, flag: asFlag(p.flag), sessionId: p.sessionId }))
+      .sort((a, b) => a.t.getTime() - b.t.getTime()),
+  }));
+  // Bands are shown once even when several series (left/right) share them.
+  const bands: TrendBand[] = [];
+  for (const m of metrics) for (const b of m.bands ?? []) if (!bands.some((x) => x.label === b.label && x.low === b.low)) bands.push(b);
+  const flagged = metrics.flatMap((m) =>
+    m.points.filter((p) => p.flag === "improved" || p.flag === "worsened").map((p) => ({ metric: m, point: p })),
+  );
+  const slopes = metrics.filter((m) => m.slopeFlag && m.slopeFlag.flag !== "within-error");
+  const eventMarkers: ChartMarker[] = events.map((e) => ({ t: new Date(e.recordedAt), glyph: "E", label: e.message }));
+  const hasFlags = flagged.length > 0 || slopes.length > 0 || events.length > 0;
+  const sessionOf = new Map(series.flatMap((s) => s.points.map((p) => [p.key, (p as { sessionId?: string }).sessionId ?? ""])));
+
+  return (
+    <section aria-labelledby={`fam-${family.id}`} className="card break-inside-avoid p-4 sm:p-5">
+      <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
+        <h3 id={`fam-${family.id}`} className="text-base font-bold">
+          {family.title} {unit && unit !== "1" ? <span className="font-normal text-ink-soft">({unit})</span> : null}
+        </h3>
+        <ul className="flex flex-wrap gap-3 text-xs text-ink-soft" aria-label="Series">
+          {series.map((s) => (
+            <li key={s.id} className="flex items-center gap-1.5">
+              <svg width="22" height="8" aria-hidden="true">
+                <line x1="0" x2="22" y1="4" y2="4" stroke={s.color} strokeWidth="2" strokeDasharray={s.dashed ? "5 4" : undefined} />
+              </svg>
+              {s.label}
+            </li>
+          ))}
+        </ul>
+      </div>
+      <p className="mb-2 text-sm text-ink-soft">{family.description}</p>
+
+      {series.every((s) => s.points.length === 0) ? (
+        <p className="rounded-lg bg-sand p-4 text-sm text-ink-soft">No values yet for this measure.</p>
+      ) : (
+        <TimeSeriesChart
+          ariaLabel={`${family.title} over time`}
+          series={series}
+          bands={bands.map((b) => ({ low: b.low, high: b.high, label: b.label }))}
+          markers={[...markers, ...eventMarkers]}
+          xDomain={xDomain}
+          formatY={(v) => (Math.abs(v) >= 20 ? v.toFixed(0) : v.toFixed(1))}
+          onPointClick={(p) => {
+            const id = sessionOf.get(p.key);
+            if (id) onOpenSession(id);
+          }}
+        />
+      )}
+
+      <div className="mt-3 grid gap-3 text-sm lg:grid-cols-2">
+        <div>
+          <h4 className="font-semibold">Reference bands</h4>
+          {bands.length === 0 ? (
+            <p className="text-ink-soft">No published band fits this measure; none is drawn.</p>
+          ) : (
+            <ol className="mt-1 flex flex-col gap-1">
+              {bands.map((b, i) => (
+                <li key={`${b.label}-${i}`}>
+                  <span className="font-semibold">Band {i + 1}:</span> {b.label} ({fmt(b.low, "")}–{fmt(b.high, unit)}).{" "}
+                  <span className="text-ink-soft">Source: {b.citation ?? "not given"}</span>
+                  {b.confirmed === false ? <span className="ml-1 font-semibold text-ochre">Unconfirmed: verify against the source before use.</span> : null}
+                </li>
+              ))}
+            </ol>
+          )}
+          {metrics.map((m) =>
+            m.mdc ? (
+              <p key={m.key} className="mt-1 text-ink-soft">
+                MDC95 for {metricLabel(m.key, m.label)}: {fmt(m.mdc.value, m.unit)} —{" "}
+                {m.mdc.source === "published" ? `published (${m.mdc.citation ?? "source not given"})` : "from this patient's own first sessions (a rough estimate with few sessions)"}.
+              </p>
+            ) : null,
+          )}
+        </div>
+
+        {hasFlags ? (
+          <div>
+            <h4 className="font-semibold">Flags and events</h4>
+            <ul className="mt-1 flex flex-col gap-1.5">
+              {flagged.map(({ metric, point }) => (
+                <li key={`${metric.key}-${point.sessionId}`} className="flex flex-wrap items-center gap-2">
+                  <FlagBadge flag={point.flag!} />
+                  <button type="button" className="text-left text-sky-deep underline underline-offset-2" onClick={() => onOpenSession(point.sessionId)}>
+                    {metricLabel(metric.key, metric.label)} {fmt(point.value, metric.unit)} on {day(point.recordedAt)}
+                  </button>
+                </li>
+              ))}
+              {slopes.map((m) => (
+                <li key={`slope-${m.key}`} className="flex flex-wrap items-center gap-2">
+                  <FlagBadge flag={m.slopeFlag!.flag} prefix="Trend" />
+                  <span>
+                    {metricLabel(m.key, m.label)}: {m.slopeFlag!.slopePerWeek >= 0 ? "+" : ""}
+                    {fmt(m.slopeFlag!.slopePerWeek, m.unit)} per week
+                    {m.slopeFlag!.windowWeeks ? ` over ${m.slopeFlag!.windowWeeks} weeks` : ""}
+                  </span>
+                </li>
+              ))}
+              {events.map((e, i) => (
+                <li key={`ev-${i}`} className="flex items-start gap-2">
+                  <span className="inline-flex items-center gap-1 rounded-full border border-sky/30 bg-sky-wash px-2 py-0.5 text-xs font-semibold text-sky-deep">
+                    <span aria-hidden="true">E</span> Coordination event
+                  </span>
+                  <span>
+                    {day(e.recordedAt)}: {e.message}
+                  </span>
+                </li>
+              ))}
+            </ul>
+            <div role="note" className="mt-2 flex gap-2 rounded-lg border border-ochre/30 bg-ochre-wash p-2.5 text-xs text-ink">
+              <IconAlert className="mt-0.5 shrink-0 text-ochre" />
+              <div className="flex flex-col gap-1">
+                {cautions.map((c) => (
+                  <p key={c}>{c}</p>
+                ))}
+              </div>
+            </div>
+          </div>
+        ) : null}
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,2 @@
+export { PatientTrendsPage } from "./components/patient-trends-page";
+export { patientDetailQueryOptions, trendsQueryOptions, patientSessionsQueryOptions, trendsKeys } from "./api/trends";
