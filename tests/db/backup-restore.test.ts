@@ -44,8 +44,8 @@ describe("npm run db:backup / db:restore", () => {
 
     expect(await tdb("patients").pluck("research_id")).toEqual(["R-BK-1"]);
     expect(await tdb("devices").pluck("serial")).toEqual(["BK-0001"]);
-    const [{ n }] = await tdb("device_assignments").count({ n: "*" });
-    expect(Number(n)).toBe(1);
+    const row = await tdb("device_assignments").count({ n: "*" }).first();
+    expect(Number(row?.n)).toBe(1);
     // The exclusion constraint came back too: an overlapping assignment is still refused.
     await expect(
       tdb("device_assignments").insert({ device_id: d.id, patient_id: p.id, placement: "right_wrist", valid_from: "2026-03-01T00:00:00Z" }),

@@ -1,0 +1,92 @@
+import autocannon from "autocannon";
+import type { AddressInfo } from "node:net";
+import { analyze, readSensorCsv, synthesizeSession } from "@pendula/signal";
+import { createTestContext } from "../../ingest-server/src/testing/harness";
+import { metricRows } from "../../ingest-server/src/metrics/metric-catalog";
+
+/**
+ * Load test of the two routes clinicians hit most: a patient's trends and one session.
+ * Bulk rows are written with SQL (this is a load fixture, not demo data), but every metric row
+ * and the stored analysis come from one real analyze() run, so row shapes and sizes are real.
+ * Target (issue): trend route p95 < 30 ms at 200 requests/s on this machine.
+ */
+const PATIENTS = Number(process.env.BENCH_PATIENTS ?? 500);
+const WEEKS = Number(process.env.BENCH_WEEKS ?? 104);
+const RATE = Number(process.env.BENCH_RATE ?? 200);
+const DURATION_S = Number(process.env.BENCH_DURATION_S ?? 15);
+
+const ctx = await createTestContext();
+const { db } = ctx;
+const t0 = performance.now();
+const synth = synthesizeSession({ seed: 7, durationS: 100 });
+const analysis = analyze(synth.files.map((f) => readSensorCsv(f.text, f.fileName)));
+const rows = metricRows(analysis.metrics);
+const clinician = await ctx.seedUser({ role: "clinician" });
+
+await db.raw(
+  `INSERT INTO patients (display_name, research_id, birth_year, sex, condition, enrolled_on, research_consent)
+   SELECT 'Load Patient ' || g, 'LOAD-' || g, 1940 + (g % 50), 'unknown', (ARRAY['stroke','parkinsons','incomplete_sci','other'])[1 + g % 4], DATE '2024-11-04', g % 3 = 0
+   FROM generate_series(1, ?) g`,
+  [PATIENTS],
+);
+await db.raw(`INSERT INTO caseload (clinician_id, patient_id) SELECT ?, id FROM patients WHERE research_id LIKE 'LOAD-%'`, [clinician.id]);
+await db.raw(
+  `INSERT INTO walk_sessions (patient_id, recorded_at, status, progress_pct, algorithm_version, analysis, content_sha256, duration_s, processed_at)
+   SELECT p.id, TIMESTAMPTZ '2024-11-05 09:00Z' + (w || ' weeks')::interval, 'done', 100, ?, ?::jsonb, md5(p.id::text || w), 100, now()
+   FROM patients p CROSS JOIN generate_series(0, ? - 1) w WHERE p.research_id LIKE 'LOAD-%'`,
+  [analysis.algorithm.version, JSON.stringify(analysis), WEEKS],
+);
+const keys = rows.map((r) => r.key);
+const values = rows.map((r) => r.value);
+const units = rows.map((r) => r.unit);
+await db.raw(
+  `INSERT INTO session_metrics (session_id, patient_id, recorded_at, metric_key, value, unit)
+   SELECT s.id, s.patient_id, s.recorded_at, m.key, m.value * (0.9 + 0.2 * random()), m.unit
+   FROM walk_sessions s CROSS JOIN unnest(?::text[], ?::float8[], ?::text[]) AS m(key, value, unit)`,
+  [keys, values, units],
+);
+await db.raw("ANALYZE");
+const counts = await db.raw(`SELECT (SELECT count(*) FROM walk_sessions)::int AS sessions, (SELECT count(*) FROM session_metrics)::int AS metrics`);
+console.log(`seeded ${PATIENTS} patients × ${WEEKS} weeks: ${counts.rows[0].sessions} sessions, ${counts.rows[0].metrics} metric rows in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+
+const patientIds: string[] = await db("patients").where("research_id", "like", "LOAD-%").pluck("id");
+const sessionIds: string[] = (await db.raw(`SELECT id FROM walk_sessions ORDER BY random() LIMIT 2000`)).rows.map((r: { id: string }) => r.id);
+const token = await ctx.login(clinician.email, clinician.password);
+const server = ctx.app.listen(0, "127.0.0.1");
+await new Promise((r) => server.once("listening", r));
+const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+
+function percentile(sorted: number[], q: number): number {
+  if (sorted.length === 0) return Number.NaN;
+  const idx = Math.min(sorted.length - 1, Math.max(0, Math.ceil(q * sorted.length) - 1));
+  return sorted[idx]!;
+}
+
+async function run(title: string, path: (i: number) => string): Promise<void> {
+  let i = 0;
+  const times: number[] = [];
+  const instance = autocannon({
+    url: base,
+    connections: 20,
+    overallRate: RATE,
+    duration: DURATION_S,
+    headers: { authorization: `Bearer ${token}` },
+    requests: [{ setupRequest: (req) => ({ ...req, path: path(i++) }) }],
+  });
+  // Exact percentiles from every response time (autocannon's own summary has p97.5 but no p95).
+  instance.on("response", (_client, _status, _bytes, responseTimeMs) => times.push(responseTimeMs));
+  const result = await instance;
+  times.sort((a, b) => a - b);
+  const f = (x: number) => x.toFixed(1);
+  console.log(
+    `${title.padEnd(30)} n ${times.length}  p50 ${f(percentile(times, 0.5))} ms  p95 ${f(percentile(times, 0.95))} ms  ` +
+      `p99 ${f(percentile(times, 0.99))} ms  max ${f(times.at(-1) ?? Number.NaN)} ms  ${result.requests.average.toFixed(0)} req/s  ` +
+      `non-2xx ${result.non2xx}  errors ${result.errors}`,
+  );
+}
+
+console.log(`autocannon: ${RATE} requests/s target, 20 connections, ${DURATION_S} s per route; target: trends p95 < 30 ms`);
+await run("GET /api/patients/:id/trends", (i) => `/api/patients/${patientIds[i % patientIds.length]}/trends`);
+await run("GET /api/sessions/:id", (i) => `/api/sessions/${sessionIds[i % sessionIds.length]}`);
+server.close();
+await ctx.close();
