@@ -54,7 +54,7 @@ count_vitest "$REPORTS/vitest.json"
 E2E_RC=0
 if [ "${PENDULA_SKIP_E2E:-}" != "1" ] && [ -f tests/e2e/vitest.e2e.config.ts ]; then
   log "browser tests against the running product (throwaway database, demo seed)"
-  PENDULA_DATA="$TMP/product"; PENDULA_DB=pendula_e2e; PENDULA_PORT="$(free_port)"
+  PENDULA_DATA="$TMP/product"; PENDULA_DB=pendula_e2e; PENDULA_PORT="$(free_port)"; PENDULA_SEED_MAX_WEEKS=8
   product_env
   if start_fakes && migrate_and_seed && build_portal && start_services; then
     PENDULA_E2E_URL="http://127.0.0.1:$PENDULA_PORT" npx vitest run --config tests/e2e/vitest.e2e.config.ts \

@@ -57,7 +57,8 @@ start_fakes() {
 migrate_and_seed() {
   pg_ensure_database "$PENDULA_DB"
   (cd "$ROOT" && npx tsx db/src/migrate.ts)
-  (cd "$ROOT" && npx tsx ingest-server/src/dev/seed-demo.ts --if-empty)
+  # PENDULA_SEED_MAX_WEEKS shortens each patient's history (the browser tests use 8 weeks).
+  (cd "$ROOT" && npx tsx ingest-server/src/dev/seed-demo.ts --if-empty ${PENDULA_SEED_MAX_WEEKS:+--max-weeks "$PENDULA_SEED_MAX_WEEKS"})
 }
 
 build_portal() {
