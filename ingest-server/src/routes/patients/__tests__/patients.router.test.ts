@@ -191,3 +191,14 @@ describe("/api/patients/:id/training", () => {
     for (const u of [admin, patient, researcher]) expect((await request(ctx.app).get(path()).set(as(u))).status).toBe(403);
   });
 });
+
+describe("OpenAPI document", () => {
+  it("documents the session, patient, note, training and research endpoints from their zod contracts", async () => {
+    const res = await request(ctx.app).get("/api/openapi.json");
+    expect(res.status, JSON.stringify(res.body).slice(0, 500)).toBe(200);
+    const paths = Object.keys(res.body.paths);
+    for (const p of ["/api/sessions", "/api/sessions/{id}", "/api/sessions/{id}/signal", "/api/patients/{id}/trends", "/api/patients/{id}/notes", "/api/research/cohort-metrics"]) {
+      expect(paths).toContain(p);
+    }
+  });
+});
