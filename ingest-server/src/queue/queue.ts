@@ -1,3 +1,4 @@
+import { randomUUID } from "node:crypto";
 import PgBoss from "pg-boss";
 
 /** Queue names: one constant per kind of job, shared by producers and workers. */
@@ -8,8 +9,17 @@ export const QUEUES = {
 } as const;
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
 
+/**
+ * pg-boss 10 decides deduplication per queue. `stately`: per singletonKey at most one job waiting
+ * (created or retry) and one active, so "reprocess" clicked twice queues one job while the first
+ * still runs. Queues not listed are `standard` (no deduplication; singletonKey has no effect there).
+ */
+export const QUEUE_POLICIES: Partial<Record<string, "standard" | "stately">> = {
+  [QUEUES.processSession]: "stately",
+};
+
 export interface SendOptions {
-  /** At most one queued/active job per key (pg-boss singleton). */
+  /** On a `stately` queue (QUEUE_POLICIES): one waiting and one active job per key. */
   singletonKey?: string;
   retryLimit?: number;
   /** Seconds before the first retry. */
@@ -57,7 +67,13 @@ export class PgBossQueue implements JobQueue {
   private readonly created = new Set<string>();
   private started = false;
 
-  constructor(connectionString: string, options: { schema?: string; max?: number; application?: string } = {}) {
+  private readonly policies: Partial<Record<string, "standard" | "stately">>;
+
+  constructor(
+    connectionString: string,
+    options: { schema?: string; max?: number; application?: string; policies?: Partial<Record<string, "standard" | "stately">> } = {},
+  ) {
+    this.policies = { ...QUEUE_POLICIES, ...options.policies };
     this.boss = new PgBoss({
       connectionString,
       schema: options.schema ?? "pgboss",
@@ -85,14 +101,16 @@ export class PgBossQueue implements JobQueue {
   /** pg-boss 10 needs a queue to exist before send/work; creating it is idempotent. */
   private async ensureQueue(name: string): Promise<void> {
     if (this.created.has(name)) return;
-    await this.boss.createQueue(name, { name, ...DEFAULT_RETRY });
+    await this.boss.createQueue(name, { name, policy: this.policies[name] ?? "standard", ...DEFAULT_RETRY });
     this.created.add(name);
   }
 
   async send(name: string, data: object, options: SendOptions = {}): Promise<string | null> {
     await this.start();
     await this.ensureQueue(name);
-    return this.boss.send(name, data, { ...DEFAULT_RETRY, ...options });
+    // On a stately queue every key-less job would share the empty key; give each its own.
+    const singletonKey = options.singletonKey ?? (this.policies[name] === "stately" ? randomUUID() : undefined);
+    return this.boss.send(name, data, { ...DEFAULT_RETRY, ...options, ...(singletonKey ? { singletonKey } : {}) });
   }
 
   async work<T extends object>(
@@ -106,8 +124,8 @@ export class PgBossQueue implements JobQueue {
       name,
       { includeMetadata: true, batchSize: options.batchSize ?? 1, pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
       async (jobs) => {
-        // With a batch, pg-boss settles every job of the batch together; one at a time keeps one
-        // job's failure from failing its neighbours.
+        // pg-boss settles a fetched batch as a whole: with batchSize > 1 one failing job fails its
+        // neighbours too, which is why the default is 1.
         for (const job of jobs) {
           await handler({ id: job.id, name: job.name, data: job.data, retryCount: job.retryCount, retryLimit: job.retryLimit });
         }
