@@ -65,6 +65,21 @@ describe("hilbert(x)", () => {
     });
   }
 
+  // The length the arm–leg step transforms for a 30-minute session (22 500 samples at 12.5 Hz):
+  // Bluestein rounding grows slowly with size, so the bound is 5e-12 (measured ≈ 1.1e-12).
+  it("keeps the whole-cycle cosine error below 5e-12 at N = 22 500", () => {
+    const n = 22500;
+    const k = 1234;
+    const x = Float64Array.from({ length: n }, (_, i) => Math.cos((2 * Math.PI * k * i) / n));
+    const z = hilbert(x);
+    let err = 0;
+    for (let i = 0; i < n; i++) {
+      const a = (2 * Math.PI * k * i) / n;
+      err = Math.max(err, Math.hypot(z.re[i]! - Math.cos(a), z.im[i]! - Math.sin(a)));
+    }
+    expect(err).toBeLessThan(5e-12);
+  });
+
   // Source: DOMAIN.md §5 — two cosines 90° apart give a continuous relative phase of 90.000°.
   it("gives a relative phase of 90° for two cosines a quarter cycle apart", () => {
     const n = 1200;
