@@ -1,0 +1,66 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser } from "playwright-core";
+import { launchBrowser, openPage, saveScreenshot, type TestPage } from "./support/browser";
+import { signIn } from "./support/sign-in";
+
+let browser: Browser;
+let t: TestPage;
+beforeAll(async () => {
+  browser = await launchBrowser();
+  t = await openPage(browser);
+  await signIn(t.page, "admin");
+});
+afterAll(async () => {
+  await t?.context.close();
+  await browser?.close();
+});
+
+describe("admin users, invitations, audit log and mailbox", () => {
+  it("lists users with roles and statuses", async () => {
+    const { page } = t;
+    await page.goto("/admin/users");
+    const table = page.getByRole("table");
+    await table.waitFor();
+    await table.getByText("researcher@demo.pendula.test").waitFor();
+    expect(await table.getByText("Administrator").count()).toBeGreaterThan(0);
+    await saveScreenshot(page, "admin-users");
+  });
+
+  it("invites a researcher and the e-mail's link can be followed from the mailbox", async () => {
+    const { page } = t;
+    const email = `e2e.invitee.${Date.now()}@demo.pendula.test`;
+    await page.goto("/admin/invitations");
+    await page.getByLabel("E-mail").fill(email);
+    await page.getByLabel("Display name").fill("Corvin Ashdale (visiting analyst)");
+    await page.getByLabel("Role").selectOption("researcher");
+    await page.getByRole("button", { name: "Send invitation" }).click();
+    await page.getByText(`Invitation created for ${email}`).waitFor();
+    await page.getByRole("table").getByText(email).waitFor();
+    await saveScreenshot(page, "admin-invitations");
+
+    await page.goto("/admin/mailbox");
+    const message = page.getByRole("listitem").filter({ hasText: email }).first();
+    await message.waitFor({ timeout: 30_000 });
+    const link = message.getByRole("link").filter({ hasText: /accept|invit|token/i }).first();
+    await link.waitFor();
+    await saveScreenshot(page, "admin-mailbox");
+    await link.click();
+    await page.waitForURL(/accept-invitation/);
+    expect(new URL(page.url()).pathname).toContain("accept-invitation");
+    await page.waitForLoadState("networkidle");
+    await saveScreenshot(page, "accept-invitation");
+  });
+
+  it("filters the audit log by an action prefix", async () => {
+    const { page } = t;
+    await page.goto("/admin/audit");
+    await page.getByRole("table").waitFor();
+    await page.getByLabel("Action").fill("auth.");
+    await page.getByRole("button", { name: "Apply filters" }).click();
+    await page.waitForLoadState("networkidle");
+    const actions = await page.getByRole("table").locator("tbody tr td:nth-child(3)").allTextContents();
+    expect(actions.length).toBeGreaterThan(0);
+    for (const a of actions) expect(a.startsWith("auth.")).toBe(true);
+    await saveScreenshot(page, "admin-audit");
+  });
+});

@@ -1,0 +1,63 @@
+import { readFile } from "node:fs/promises";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser } from "playwright-core";
+import { launchBrowser, openPage, saveScreenshot, type TestPage } from "./support/browser";
+import { apiGet, apiToken, signIn } from "./support/sign-in";
+
+let browser: Browser;
+let t: TestPage;
+beforeAll(async () => {
+  browser = await launchBrowser();
+  t = await openPage(browser);
+  await signIn(t.page, "researcher");
+});
+afterAll(async () => {
+  await t?.context.close();
+  await browser?.close();
+});
+
+describe("a researcher previews a cohort and downloads the anonymised export", () => {
+  it("previews group sizes with small groups suppressed in words", async () => {
+    const { page } = t;
+    await page.goto("/research");
+    await page.getByRole("heading", { name: "Cohort builder" }).waitFor();
+    // All conditions, all bands, the whole study period.
+    for (const label of ["Incomplete spinal cord injury", "Stroke", "Parkinson's disease", "Other condition"]) {
+      await page.getByRole("checkbox", { name: label }).check();
+    }
+    await page.getByRole("button", { name: "Select all bands" }).click();
+    await page.getByLabel("To week").fill("200");
+    await page.getByRole("button", { name: "Preview cohort" }).click();
+    const table = page.getByRole("table");
+    await table.waitFor();
+    // The seed clusters ages so some cells reach k = 5 and leaves a few below it (db/seeds/demo-scenario.ts).
+    expect(await table.getByText("suppressed (< 5 subjects)").count()).toBeGreaterThan(0);
+    const published = table.locator("tbody tr").filter({ hasNotText: "suppressed" });
+    expect(await published.count()).toBeGreaterThan(0);
+    await saveScreenshot(page, "researcher-cohort-preview");
+  });
+
+  it("downloads a CSV with pseudonymous ids and weeks, and no names, e-mails or serials", async () => {
+    const { page } = t;
+    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download CSV" }).click()]);
+    expect(download.suggestedFilename()).toMatch(/\.csv$/);
+    const path = await download.path();
+    const csv = await readFile(path, "utf8");
+    const [header, ...rows] = csv.trim().split(/\r?\n/);
+    expect(header).toBeDefined();
+    expect(rows.length).toBeGreaterThan(0);
+    expect(header!.toLowerCase()).toContain("week");
+    // Direct identifiers the seed holds must not appear (HIPAA Safe Harbor, 45 CFR 164.514(b)(2)).
+    expect(csv).not.toMatch(/@demo\.pendula\.test/);
+    expect(csv).not.toMatch(/FHG-IMU-\d{4}/);
+    for (const name of ["Wren Halloway", "Osric Delacourt", "Hollis Brackenridge"]) expect(csv).not.toContain(name);
+    expect(csv).not.toMatch(/\b20\d\d-\d\d-\d\d\b/);
+    await page.getByText(/Saved .*\.csv/).waitFor();
+    await saveScreenshot(page, "researcher-export-done");
+  });
+
+  it("is refused the admin device list by the API itself", async () => {
+    const token = await apiToken("researcher");
+    await expect(apiGet("/api/devices", token)).rejects.toThrow(/403|404/);
+  });
+});
