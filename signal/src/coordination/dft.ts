@@ -30,7 +30,7 @@ function fftOfSize(size: number): FFT {
   if (!f) {
     if (fftCache.size > 8) fftCache.clear();
     f = new FFT(size);
-    fftCache.set(size, f);
+    if (size <= 1 << 18) fftCache.set(size, f);
   }
   return f;
 }
@@ -67,8 +67,11 @@ function bluesteinPlan(n: number): BluesteinPlan {
   }
   const filterSpectrum = new Float64Array(2 * m);
   fft.transform(filterSpectrum, filter);
-  lastPlan = { n, m, fft, chirp, filterSpectrum, work: filter, workSpectrum: new Float64Array(2 * m) };
-  return lastPlan;
+  const plan = { n, m, fft, chirp, filterSpectrum, work: filter, workSpectrum: new Float64Array(2 * m) };
+  // Keep at most one plan, and only a modest one (≤ 2¹⁸ points ≈ 12 MB of buffers), so a single
+  // transform of a long signal does not pin its buffers for the rest of the process.
+  lastPlan = m <= 1 << 18 ? plan : null;
+  return plan;
 }
 
 /**
