@@ -141,6 +141,3 @@ export const DEMO_SPARE_DEVICES = 6;
 export function demoSerial(index: number): string {
   return `FHG-IMU-${String(index).padStart(4, "0")}`;
 }
-
-/** The Monday of the scenario's first week; sessions fall on a weekday morning of each week. */
-export const DEMO_FIRST_WEEK_UTC = "2026-07-06T00:00:00.000Z";

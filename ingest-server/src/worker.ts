@@ -1,3 +1,4 @@
+import { ensureClinicalSchedules, workClinicalJobs } from "./clinical/notifications";
 import { ConfigError, loadConfig } from "./config/env";
 import { handleProcessSessionJob, requeueStaleSessions } from "./processing/session-job";
 import { QUEUES } from "./queue/queue";
@@ -26,6 +27,9 @@ const { deps } = runtime;
 const SWEEP_INTERVAL_MS = 5 * 60 * 1000;
 
 await deps.queue.work<ProcessSessionJob>(QUEUES.processSession, (job) => handleProcessSessionJob(deps, job));
+// Weekly reminders and digests (cron in the same queue) and per-session change alerts.
+await ensureClinicalSchedules(config);
+await workClinicalJobs(deps);
 const sweep = async () => {
   try {
     const n = await requeueStaleSessions(deps);

@@ -5,7 +5,6 @@ import { synthesizeSession, type SynthOptions } from "@pendula/signal";
 import {
   DEMO_CLINIC,
   DEMO_DEVICE_FIRMWARE,
-  DEMO_FIRST_WEEK_UTC,
   DEMO_PASSWORD,
   DEMO_PATIENTS,
   DEMO_SPARE_DEVICES,
@@ -37,6 +36,11 @@ import { createRuntime } from "../runtime";
 
 const PLACEMENTS = ["left_shank", "right_shank", "left_wrist", "right_wrist"] as const;
 const DAY_MS = 86_400_000;
+
+function mondayUtc(d: Date): Date {
+  const day = (d.getUTCDay() + 6) % 7;
+  return new Date(Date.UTC(d.getUTCFullYear(), d.getUTCMonth(), d.getUTCDate() - day));
+}
 
 /** Recovery follows 1 − e^(−week/τ); a setback walks part of it back, week by week. */
 export function recoveryFraction(t: DemoTrajectory, week: number): number {
@@ -130,12 +134,14 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
       .returning("id");
     staff.set(s.key, row.id as string);
   }
-  const enrolMs = Date.parse(DEMO_FIRST_WEEK_UTC);
+  // The scenario ends last week, whenever the seed runs, so the demo always looks current and
+  // "this week's test" is still open for the demo patients.
+  const thisMonday = mondayUtc(new Date());
   let deviceIndex = 1;
   let sessions = 0;
   for (const [index, p] of DEMO_PATIENTS.entries()) {
-    // Later patients joined the service later, so caseloads show different lengths of history.
-    const enrolledAt = new Date(enrolMs + (20 - p.weeks) * 7 * DAY_MS);
+    // Longer histories started earlier, so caseloads show different lengths of history.
+    const enrolledAt = new Date(thisMonday.getTime() - p.weeks * 7 * DAY_MS);
     const [pat] = await db("patients")
       .insert({
         display_name: p.displayName,
@@ -190,6 +196,10 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
         files: synth.files.map((f) => ({ originalName: f.fileName, buffer: Buffer.from(f.text, "utf8") })),
       });
       await processSession(deps, result.id);
+      // Uploaded the same morning it was recorded, not at seed time.
+      const uploadedAt = new Date(at.getTime() + 40 * 60_000);
+      await db("walk_sessions").where({ id: result.id }).update({ created_at: uploadedAt, processed_at: uploadedAt, updated_at: uploadedAt });
+      await db("raw_files").where({ session_id: result.id }).update({ created_at: uploadedAt });
       sessions += 1;
     }
     log(`  ${p.displayName}: ${weeks - p.missedWeeks.filter((w) => w < weeks).length} sessions`);

@@ -2,6 +2,7 @@ import { SignalInputError } from "@pendula/signal";
 import type { AppDeps } from "../deps";
 import { QUEUES, type QueueJob } from "../queue/queue";
 import type { ProcessSessionJob } from "../routes/sessions/upload.service";
+import { enqueueChangeAlerts } from "../clinical/notifications";
 import { markFailed, markRetrying, processSession } from "./process-session";
 
 /** Short, clinician-readable reason; the full error goes to the worker log. */
@@ -17,10 +18,11 @@ export function failureText(err: unknown): string {
  * Bad input (SignalInputError) cannot improve on retry, so it fails immediately and the job ends
  * without burning retries. The raw files are never touched: reprocess starts again from them.
  */
-export async function handleProcessSessionJob(deps: Pick<AppDeps, "db" | "storage">, job: QueueJob<ProcessSessionJob>): Promise<void> {
+export async function handleProcessSessionJob(deps: Pick<AppDeps, "db" | "storage" | "queue">, job: QueueJob<ProcessSessionJob>): Promise<void> {
   const { sessionId } = job.data;
+  let outcome;
   try {
-    await processSession(deps, sessionId);
+    outcome = await processSession(deps, sessionId);
   } catch (err) {
     const text = failureText(err);
     const last = job.retryCount >= job.retryLimit || err instanceof SignalInputError;
@@ -31,6 +33,13 @@ export async function handleProcessSessionJob(deps: Pick<AppDeps, "db" | "storag
     }
     await markRetrying(deps.db, sessionId, text);
     throw err;
+  }
+  if (outcome !== "done") return;
+  // Alerts are a separate job: a mail-server outage must not turn a processed session into a failed one.
+  try {
+    await enqueueChangeAlerts(deps, sessionId);
+  } catch (err) {
+    console.error(`[worker] session ${sessionId}: could not enqueue change alerts`, err);
   }
 }
 
