@@ -80,7 +80,10 @@ export function weekSynthOptions(patient: DemoPatient, index: number, week: numb
     left: affectedLeft ? peakSound * (1 - 0.8 * asym) : peakSound,
     right: affectedLeft ? peakSound : peakSound * (1 - 0.8 * asym),
   };
-  const armMode = coupling < 0.4 ? "uncoupled" : t.armOneToOneAboveCadence !== null && cadence < t.armOneToOneAboveCadence ? "2:1" : "1:1";
+  // Below ~0.32 the arms are treated as swinging on their own; above it they lock with a phase
+  // wander whose size gives the planned coupling strength (R ≈ exp(−σ²/2)).
+  const phaseJitterDeg = (Math.sqrt(-2 * Math.log(Math.min(0.97, coupling))) * 180) / Math.PI;
+  const armMode = coupling < 0.32 ? "uncoupled" : t.armOneToOneAboveCadence !== null && cadence < t.armOneToOneAboveCadence ? "2:1" : "1:1";
   return {
     seed,
     durationS: 100,
@@ -102,7 +105,7 @@ export function weekSynthOptions(patient: DemoPatient, index: number, week: numb
     stanceFraction,
     stepFraction: 0.5 + (affectedLeft ? 1 : -1) * asym * 0.08,
     midSwingPeakDegS,
-    arm: { coupling: armMode, phaseDeg: 15 + 10 * wobble(seed + 11), amplitudeDegS: 40 + 90 * f, uncoupledRatio: 1.45 },
+    arm: { coupling: armMode, phaseDeg: 15 + 10 * wobble(seed + 11), amplitudeDegS: 40 + 90 * f, uncoupledRatio: 1.45, phaseJitterDeg },
     // Home recordings are not perfect: one week with an upside-down shank, one with a dropout.
     invertedPlacement: week === 4 && index % 5 === 2 ? "right_shank" : null,
     gaps: week === 6 && index % 4 === 0 ? [{ placement: "left_wrist", startS: 50, durationS: 0.09 }] : [],

@@ -67,6 +67,12 @@ export interface SynthOptions {
     amplitudeDegS?: number;
     /** Arm cycles per stride when uncoupled. Default 1.4. */
     uncoupledRatio?: number;
+    /**
+     * Stationary SD of a slow (τ ≈ 2 s) wander of a locked arm's phase, degrees. Default 0. Gaussian
+     * phase noise of SD σ gives a mean resultant length R ≈ exp(−σ²/2), so a weaker coupling is
+     * σ = √(−2 ln R).
+     */
+    phaseJitterDeg?: number;
   };
   gyroNoiseDegS?: number;
   accNoiseMs2?: number;
@@ -165,6 +171,7 @@ export function resolveSynthOptions(o: SynthOptions = {}): ResolvedSynthOptions 
       phaseDeg: o.arm?.phaseDeg ?? 20,
       amplitudeDegS: o.arm?.amplitudeDegS ?? 90,
       uncoupledRatio: o.arm?.uncoupledRatio ?? 1.4,
+      phaseJitterDeg: o.arm?.phaseJitterDeg ?? 0,
     },
     gyroNoiseDegS: o.gyroNoiseDegS ?? 3,
     accNoiseMs2: o.accNoiseMs2 ?? 0.05,
@@ -252,6 +259,12 @@ export function synthesizeSession(options: SynthOptions = {}): SynthSession {
   const driftStep = 0.1;
   const drift = new Float64Array(Math.ceil(o.durationS / driftStep) + 2);
   for (let i = 1; i < drift.length; i++) drift[i] = drift[i - 1]! + 0.25 * Math.sqrt(driftStep) * prng.normal();
+  // Ornstein–Uhlenbeck wander with unit stationary SD for a locked arm (scaled by phaseJitterDeg).
+  // Drawn only when asked for, so sessions without it keep their exact pseudo-random sequence.
+  const wander = new Float64Array(o.arm.phaseJitterDeg > 0 ? drift.length : 0);
+  const ouKeep = Math.exp(-driftStep / 2);
+  if (wander.length > 0) wander[0] = prng.normal();
+  for (let i = 1; i < wander.length; i++) wander[i] = ouKeep * wander[i - 1]! + Math.sqrt(1 - ouKeep * ouKeep) * prng.normal();
   const mounts = new Map<SynthPlacement, Matrix3>();
   const misalignmentTruth: Partial<Record<SynthPlacement, number>> = {};
   for (const p of o.placements) {
@@ -277,7 +290,7 @@ export function synthesizeSession(options: SynthOptions = {}): SynthSession {
       clock[j] = Math.round((j / effectiveRate + jitter) * 1e5) / 1e5;
       time[j] = offset + clock[j]!;
     }
-    const body = bodySignals(placement, time, { legs, knots, theta, walkingBouts, turns, drift, driftStep, o, T }, filePrng);
+    const body = bodySignals(placement, time, { legs, knots, theta, walkingBouts, turns, drift, wander, driftStep, o, T }, filePrng);
     const m = mounts.get(placement)!;
     const acc: [Float64Array, Float64Array, Float64Array] = [new Float64Array(n), new Float64Array(n), new Float64Array(n)];
     const gyro: [Float64Array, Float64Array, Float64Array] = [new Float64Array(n), new Float64Array(n), new Float64Array(n)];
@@ -373,6 +386,7 @@ interface BodyContext {
   turns: TurnSpan[];
   drift: Float64Array;
   driftStep: number;
+  wander: Float64Array;
   o: ResolvedSynthOptions;
   T: number;
 }
@@ -415,7 +429,8 @@ function bodySignals(
     // Each arm swings with the contralateral leg.
     const contra = placement === "left_wrist" ? "right" : "left";
     evaluateGaitPhase(c.legs[contra].ic, c.T, time, phase);
-    const { coupling, amplitudeDegS, phaseDeg, uncoupledRatio } = o.arm;
+    const { coupling, amplitudeDegS, phaseDeg, uncoupledRatio, phaseJitterDeg } = o.arm;
+    const jitter = phaseJitterDeg * RAD_PER_DEG;
     const order = coupling === "2:1" ? 2 : 1;
     const offset = phaseDeg * RAD_PER_DEG;
     for (let j = 0; j < n; j++) {
@@ -425,6 +440,10 @@ function bodySignals(
         const k = Math.min(c.drift.length - 2, Math.max(0, Math.floor(time[j]! / c.driftStep)));
         const u = time[j]! / c.driftStep - k;
         armPhase = (twoPi * uncoupledRatio * time[j]!) / c.T + c.drift[k]! * (1 - u) + c.drift[k + 1]! * u;
+      } else if (jitter > 0) {
+        const k = Math.min(c.wander.length - 2, Math.max(0, Math.floor(time[j]! / c.driftStep)));
+        const u = time[j]! / c.driftStep - k;
+        armPhase = order * legPhase + offset + jitter * (c.wander[k]! * (1 - u) + c.wander[k + 1]! * u);
       } else armPhase = order * legPhase + offset;
       const amp = coupling === "none" ? 0 : amplitudeDegS * env[j]!;
       gz[j] = amp * Math.cos(armPhase);

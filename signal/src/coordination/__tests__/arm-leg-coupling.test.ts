@@ -67,6 +67,19 @@ describe("armLegCoupling(arm, leg, fs, strideHz, steadyMask) on the project's sy
     }
   });
 
+  // Gaussian phase noise of SD σ has mean resultant length E[R] = exp(−σ²/2) (wrapped-normal
+  // distribution; Mardia & Jupp, Directional Statistics, 2000 — from memory). The wander is slow
+  // (τ ≈ 2 s), so one 3-minute session samples it coarsely: tolerance ±0.12.
+  it("a locked arm with 40° phase wander → R near exp(−σ²/2) = 0.78, still ratio 1", () => {
+    const sigma = (40 * Math.PI) / 180;
+    const r = couple({ seed: 21, durationS: 180, sampleRateHz: 100, arm: { coupling: "1:1", phaseDeg: 10, phaseJitterDeg: 40 } });
+    for (const c of [r.leftArmRightLeg, r.rightArmLeftLeg]) {
+      expect(c.frequencyRatio).toBe(1);
+      expect(c.couplingStrength!).toBeGreaterThan(Math.exp((-sigma * sigma) / 2) - 0.12);
+      expect(c.couplingStrength!).toBeLessThan(Math.exp((-sigma * sigma) / 2) + 0.12);
+    }
+  });
+
   it("no arm swing → every field null", () => {
     const r = couple({ seed: 14, durationS: 90, arm: { coupling: "none" } });
     expect(r.leftArmRightLeg).toEqual({ frequencyRatio: null, meanRelativePhaseDeg: null, couplingStrength: null, circularSdDeg: null });
