@@ -37,10 +37,11 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           loader: requireUser(queryClient),
           errorElement: <RouteError />,
           children: [
-            { path: "patient", loader: requireRole(queryClient, "patient"), children: patientRoutes(queryClient) },
-            { path: "clinician", loader: requireRole(queryClient, "clinician"), children: clinicianRoutes(queryClient) },
-            { path: "research", loader: requireRole(queryClient, "researcher"), children: researcherRoutes(queryClient) },
-            { path: "admin", loader: requireRole(queryClient, "admin"), children: adminRoutes(queryClient) },
+            // Each area has its own error boundary so a failed screen keeps the navigation around it.
+            { path: "patient", loader: requireRole(queryClient, "patient"), errorElement: <RouteError />, children: patientRoutes(queryClient) },
+            { path: "clinician", loader: requireRole(queryClient, "clinician"), errorElement: <RouteError />, children: clinicianRoutes(queryClient) },
+            { path: "research", loader: requireRole(queryClient, "researcher"), errorElement: <RouteError />, children: researcherRoutes(queryClient) },
+            { path: "admin", loader: requireRole(queryClient, "admin"), errorElement: <RouteError />, children: adminRoutes(queryClient) },
           ],
         },
         { path: "*", element: <NotFound /> },

@@ -7,7 +7,7 @@ import {
   useReactTable,
   type SortingState,
 } from "@tanstack/react-table";
-import { useMemo, useState } from "react";
+import { useMemo, useRef, useState } from "react";
 import { Link } from "react-router-dom";
 import { IconSearch, IconSort } from "@/components/icons";
 import { Badge, EmptyState, SelectField, TextField } from "@/components/ui";
@@ -22,22 +22,27 @@ function daysAgo(iso: string | null | undefined): string {
   return d <= 0 ? "today" : d === 1 ? "yesterday" : `${d} days ago`;
 }
 
-// Nulls sort last in both directions so "no data" never hides the patients that have data.
-const nullsLast = (a: number | null | undefined, b: number | null | undefined) => {
+// Nulls sort last in both directions so "no data" never hides the patients that have data. The
+// table flips a sorting function's answer for descending order, so the null rule flips with it.
+const nullsLastBy = (isDesc: () => boolean) => (a: number | null | undefined, b: number | null | undefined) => {
+  const last = isDesc() ? -1 : 1;
   if (a == null && b == null) return 0;
-  if (a == null) return 1;
-  if (b == null) return -1;
+  if (a == null) return last;
+  if (b == null) return -last;
   return a - b;
 };
 
 export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: "lastUpload", desc: true }]);
+  const sortingRef = useRef(sorting);
+  sortingRef.current = sorting;
   const [search, setSearch] = useState("");
   const [condition, setCondition] = useState("");
   const [flaggedOnly, setFlaggedOnly] = useState(false);
 
-  const columns = useMemo(
-    () => [
+  const columns = useMemo(() => {
+    const nullsLast = nullsLastBy(() => sortingRef.current[0]?.desc ?? false);
+    return [
       col.accessor("displayName", {
         id: "patient",
         header: "Patient",
@@ -100,9 +105,8 @@ export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
         sortingFn: (a, b) => nullsLast(a.getValue("pci"), b.getValue("pci")),
         cell: (c) => <span className="tabular">{fmt(c.getValue(), 1)}</span>,
       }),
-    ],
-    [],
-  );
+    ];
+  }, []);
 
   const data = useMemo(() => (flaggedOnly ? rows.filter((r) => (r.flags?.length ?? 0) > 0) : rows), [rows, flaggedOnly]);
   const table = useReactTable({

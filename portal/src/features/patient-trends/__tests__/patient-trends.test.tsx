@@ -1,0 +1,98 @@
+import { screen, within } from "@testing-library/react";
+import { afterEach, describe, expect, it, vi } from "vitest";
+import { mockApi } from "@/testing/mock-api";
+import { createTestQueryClient, renderWithProviders } from "@/testing/render";
+import { PatientTrendsPage, sharedDomain } from "../components/patient-trends-page";
+import { familyOf } from "../api/metric-families";
+
+const PID = "5a0c7f0e-2b9d-4b59-9d7e-6a1f3c2b9e01";
+const FRENKEL = "Frenkel-Toledo et al. 2005, J NeuroEng Rehabil 2:23, Table 2 (overground, comfortable speed)";
+const pts = (values: number[], flags: Record<number, string> = {}) =>
+  values.map((v, i) => ({ sessionId: `s${i}`, recordedAt: new Date(Date.UTC(2026, 8, 1 + 7 * i)).toISOString(), value: v, ...(flags[i] ? { flag: flags[i] } : {}) }));
+
+function server() {
+  return mockApi({
+    [`GET /api/patients/${PID}`]: { body: { id: PID, displayName: "Odile Marchetti", condition: "parkinsons", enrolledOn: "2026-08-25" } },
+    [`GET /api/patients/${PID}/sessions`]: { body: { items: [], total: 0 } },
+    [`GET /api/patients/${PID}/trends`]: {
+      body: {
+        patientId: PID,
+        metrics: [
+          { key: "cadenceStepsPerMin", unit: "steps/min", points: pts([98, 99, 97, 104, 106], { 3: "within-error", 4: "improved" }), bands: [] },
+          {
+            key: "strideTimeCvPct",
+            unit: "%",
+            points: pts([2.1, 2.3, 2.2, 3.4], { 3: "worsened" }),
+            // Band values as in Frenkel-Toledo 2005 Table 2: controls 1.94 ± 0.36 %, PD 2.24 ± 0.74 %.
+            bands: [
+              { low: 1.58, high: 2.3, label: "Control group, mean ± 1 SD (1.94 ± 0.36 %)", citation: FRENKEL, confirmed: true },
+              { low: 1.5, high: 2.98, label: "Parkinson's disease group, mean ± 1 SD (2.24 ± 0.74 %)", citation: FRENKEL, confirmed: true },
+            ],
+            mdc: { value: 0.9, source: "patient-baseline", citation: "", confirmed: false },
+          },
+          { key: "stancePct.left", unit: "%", points: pts([62, 63, 61]) },
+          { key: "armLeg.leftArmRightLeg.frequencyRatio", unit: "1", points: pts([2, 2, 1, 1]) },
+        ],
+        events: [{ kind: "arm-leg-mode-change", sessionId: "s2", recordedAt: pts([0, 0, 0])[2]!.recordedAt, metricKey: "armLeg.leftArmRightLeg.frequencyRatio", from: 2, to: 1, message: "Left arm–right leg locking changed from 2:1 to 1:1" }],
+        cautions: ["A flag or event is a prompt to look at the recording and the patient, not a diagnosis."],
+      },
+    },
+  });
+}
+
+afterEach(() => vi.unstubAllGlobals());
+
+describe("patient trend charts", () => {
+  it("draws one chart per metric family with band sources and flag labels", async () => {
+    server();
+    renderWithProviders(<PatientTrendsPage patientId={PID} />, { queryClient: createTestQueryClient() });
+
+    const cv = await screen.findByRole("region", { name: /Stride-time variability/ });
+    expect(within(cv).getByRole("img", { name: "Stride-time variability over time" })).toBeTruthy();
+    expect(within(cv).getAllByText(new RegExp(`Source: ${FRENKEL.replace(/[()]/g, "\\$&")}`))).toHaveLength(2);
+    expect(within(cv).getByText("Worsened beyond MDC")).toBeTruthy();
+    expect(within(cv).getByText(/prompt to look at the recording and the patient, not a diagnosis/)).toBeTruthy();
+    expect(within(cv).getByText(/from this patient's own first sessions/)).toBeTruthy();
+    // The flagged point is drawn with the worsened shape (a downward triangle), not only a colour.
+    expect(cv.querySelectorAll('[data-flag="worsened"]')).toHaveLength(1);
+
+    const cad = screen.getByRole("region", { name: /Cadence/ });
+    expect(within(cad).getByText("Improved beyond MDC")).toBeTruthy();
+    expect(within(cad).getByText(/No published band fits this measure/)).toBeTruthy();
+
+    expect(screen.getByRole("region", { name: /Stance and double support/ })).toBeTruthy();
+    const ratio = screen.getByRole("region", { name: /Arm–leg frequency ratio/ });
+    const eventItem = within(ratio).getAllByRole("listitem").find((li) => /locking changed from 2:1 to 1:1/.test(li.textContent ?? ""));
+    expect(eventItem?.textContent).toMatch(/Coordination event/);
+    expect(screen.queryByRole("region", { name: /Phase Coordination Index/ })).toBeNull();
+  });
+
+  it("shows an empty state when nothing has been measured", async () => {
+    mockApi({
+      [`GET /api/patients/${PID}`]: { body: { id: PID, displayName: "Wren Castellanos" } },
+      [`GET /api/patients/${PID}/sessions`]: { body: { items: [], total: 0 } },
+      [`GET /api/patients/${PID}/trends`]: { body: { patientId: PID, metrics: [] } },
+    });
+    renderWithProviders(<PatientTrendsPage patientId={PID} />);
+    expect(await screen.findByText("No measured sessions yet")).toBeTruthy();
+  });
+});
+
+describe("metric families and the shared time axis", () => {
+  it.each([
+    ["cadenceStepsPerMin", "cadence"],
+    ["strideTimeCvPct", "variability"],
+    ["stancePctLeft", "phases"],
+    ["doubleSupportPct", "phases"],
+    ["phaseCoordinationIndexPct", "pci"],
+    ["leftArmRightLegCouplingStrength", "armLegCoupling"],
+    ["armLeg.rightArmLeftLeg.frequencyRatio", "armLegRatio"],
+    ["gaitAsymmetryPct", null],
+  ])("%s → %s", (key, family) => expect(familyOf(key)).toBe(family));
+
+  it("spans every point and marker", () => {
+    const d = sharedDomain([{ key: "k", unit: "", points: pts([1, 2]) }], [{ t: new Date(Date.UTC(2026, 9, 1)), glyph: "N", label: "n" }])!;
+    expect(d[0].getTime()).toBeLessThan(Date.UTC(2026, 8, 1));
+    expect(d[1].getTime()).toBeGreaterThan(Date.UTC(2026, 9, 1));
+  });
+});
