@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
-import { launchBrowser, openPage, saveScreenshot, type TestPage } from "./support/browser";
+import { launchBrowser, openPage, saveScreenshot, settle, type TestPage } from "./support/browser";
 import { signIn } from "./support/sign-in";
 
 let browser: Browser;
@@ -47,7 +47,7 @@ describe("admin users, invitations, audit log and mailbox", () => {
     await link.click();
     await page.waitForURL(/accept-invitation/);
     expect(new URL(page.url()).pathname).toContain("accept-invitation");
-    await page.waitForLoadState("networkidle");
+    await settle(page);
     await saveScreenshot(page, "accept-invitation");
   });
 
@@ -56,8 +56,11 @@ describe("admin users, invitations, audit log and mailbox", () => {
     await page.goto("/admin/audit");
     await page.getByRole("table").waitFor();
     await page.getByLabel("Action").fill("auth.");
-    await page.getByRole("button", { name: "Apply filters" }).click();
-    await page.waitForLoadState("networkidle");
+    await Promise.all([
+      page.waitForResponse((r) => r.url().includes("/api/audit") && r.url().includes("action=auth.") && r.ok()),
+      page.getByRole("button", { name: "Apply filters" }).click(),
+    ]);
+    await page.waitForFunction(() => document.querySelector("table[aria-busy]") === null);
     const actions = await page.getByRole("table").locator("tbody tr td:nth-child(3)").allTextContents();
     expect(actions.length).toBeGreaterThan(0);
     for (const a of actions) expect(a.startsWith("auth.")).toBe(true);

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
-import { launchBrowser, openPage, saveScreenshot, type TestPage } from "./support/browser";
+import { launchBrowser, openPage, saveScreenshot, settle, type TestPage } from "./support/browser";
 import { signIn } from "./support/sign-in";
 
 // A patient on clinician@'s caseload with weeks of processed sessions (db/seeds/demo-scenario.ts).
@@ -26,7 +26,7 @@ describe("a clinician reviews a patient's trends and a session", () => {
     await page.goto("/clinician");
     await page.getByRole("link", { name: PATIENT }).waitFor();
     expect(await page.getByText(OTHER_CASELOAD).count()).toBe(0);
-    await page.waitForLoadState("networkidle");
+    await settle(page);
     await saveScreenshot(page, "clinician-caseload");
   });
 
@@ -39,7 +39,7 @@ describe("a clinician reviews a patient's trends and a session", () => {
     await page.locator("svg").first().waitFor();
     expect(await page.locator("svg").count()).toBeGreaterThan(3);
     expect(await page.getByText("Processed").count()).toBeGreaterThan(0);
-    await page.waitForLoadState("networkidle");
+    await settle(page);
     await saveScreenshot(page, "clinician-patient-trends");
   });
 
@@ -52,7 +52,7 @@ describe("a clinician reviews a patient's trends and a session", () => {
     await page.getByRole("heading", { name: /^Strides \(\d+\)$/ }).waitFor();
     const strides = Number(/\((\d+)\)/.exec((await page.getByRole("heading", { name: /^Strides \(/ }).textContent()) ?? "")?.[1]);
     expect(strides).toBeGreaterThan(10);
-    await page.waitForLoadState("networkidle");
+    await settle(page);
     await saveScreenshot(page, "clinician-session-review");
   });
 });

@@ -4,7 +4,7 @@ import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
 import { synthesizeSession, type SynthPlacement } from "@pendula/signal";
-import { launchBrowser, openPage, saveScreenshot, type TestPage } from "./support/browser";
+import { launchBrowser, openPage, saveScreenshot, settle, type TestPage } from "./support/browser";
 import { apiGet, apiToken, signIn } from "./support/sign-in";
 
 interface Device {
@@ -93,7 +93,7 @@ describe("a patient does this week's walking test at home", () => {
     await page.getByRole("link", { name: /See your progress/ }).click();
     await page.waitForURL(/\/patient\/progress/);
     await page.getByRole("heading", { level: 1 }).waitFor();
-    await page.waitForLoadState("networkidle");
+    await settle(page);
     await saveScreenshot(page, "patient-progress");
   });
 });

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
-import { launchBrowser, openPage, saveScreenshot } from "./support/browser";
+import { launchBrowser, openPage, saveScreenshot, settle } from "./support/browser";
 import type { DemoUser } from "./support/env";
 import { signIn } from "./support/sign-in";
 
@@ -40,7 +40,7 @@ describe("sign-in routes every demo role to its own home", () => {
       await page.waitForURL((url) => path.test(url.pathname));
       await page.getByRole("heading", { level: 1 }).first().waitFor();
       // Let the first queries settle so the screenshot shows the screen, not its spinner.
-      await page.waitForLoadState("networkidle");
+      await settle(page);
       await saveScreenshot(page, screen);
       expect(path.test(new URL(page.url()).pathname)).toBe(true);
       // The persistent notice that Pendula supports, and does not replace, clinical judgement.

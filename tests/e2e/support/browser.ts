@@ -51,6 +51,16 @@ export async function openPage(browser: Browser): Promise<TestPage> {
   return { context, page, offHostRequests, pageErrors };
 }
 
+/**
+ * Waits until no spinner is on screen (every loading state in the portal shows one), then a moment
+ * for charts to lay out. Network idleness is not used: screens that poll (processing status, the
+ * mailbox) never go idle.
+ */
+export async function settle(page: Page, timeoutMs = 30_000): Promise<void> {
+  await page.waitForFunction(() => document.querySelector(".animate-spin") === null, undefined, { timeout: timeoutMs });
+  await page.waitForTimeout(300);
+}
+
 /** Saves a full-page PNG under .screenshots/ so every main screen can be looked at after a run. */
 export async function saveScreenshot(page: Page, name: string): Promise<string> {
   mkdirSync(SCREENSHOT_DIR, { recursive: true });

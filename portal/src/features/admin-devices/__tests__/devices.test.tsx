@@ -49,6 +49,10 @@ describe("DeviceInventoryPage", () => {
     await userEvent.selectOptions(screen.getByLabelText("Status"), "");
     await userEvent.type(screen.getByLabelText("Search"), "halloway");
     expect(screen.getAllByRole("row")).toHaveLength(2);
+    await userEvent.click(screen.getByRole("button", { name: "1 retired" }));
+    expect(screen.getByRole("button", { name: "1 retired" }).getAttribute("aria-pressed")).toBe("true");
+    expect(screen.getByText("No device matches these filters")).toBeTruthy();
+    await userEvent.click(screen.getByRole("button", { name: "1 retired" }));
     await userEvent.type(screen.getByLabelText("Search"), "zzz");
     expect(screen.getByText("No device matches these filters")).toBeTruthy();
   });

@@ -6,9 +6,9 @@ import { patientText, type Assignment } from "../api/devices";
 import { placementLabel } from "../api/placements";
 
 const WIDTH = 880;
-const LANE = 34;
-const MARGIN = { top: 12, right: 24, bottom: 36, left: 210 };
-const DAY_MS = 86_400_000;
+const LANE = 44;
+const MARGIN = { top: 22, right: 72, bottom: 36, left: 200 };
+const HOUR_MS = 3_600_000;
 
 // Each placement gets a fill and its own pattern of dashes on the outline, and every bar carries
 // its placement in words, so the chart never depends on telling the colours apart.
@@ -22,10 +22,19 @@ const FILLS: Record<string, string> = {
 export interface TimelineLane {
   key: string;
   label: string;
+  patient: string;
+  placement: string;
 }
 
 export function laneOf(a: Assignment): TimelineLane {
-  return { key: `${a.patientId}|${a.placement}`, label: `${patientText(a)} · ${placementLabel(a.placement)}` };
+  const patient = patientText(a);
+  const placement = placementLabel(a.placement);
+  return { key: `${a.patientId}|${a.placement}`, label: `${patient} · ${placement}`, patient, placement };
+}
+
+// Long names would run off the left edge of the chart; the table below always has the full name.
+function clip(text: string, max: number): string {
+  return text.length > max ? `${text.slice(0, max - 1)}…` : text;
 }
 
 /** A device's assignments over time, one lane per patient × placement; open assignments run to now. */
@@ -40,7 +49,8 @@ export function AssignmentTimeline({ assignments, now = new Date() }: { assignme
   const ends = assignments.map((a) => (a.to ? new Date(a.to).getTime() : now.getTime()));
   const min = Math.min(...starts);
   const max = Math.max(...ends, now.getTime());
-  const pad = Math.max((max - min) * 0.04, DAY_MS);
+  // A little room either side; at least an hour so a freshly made assignment is still visible.
+  const pad = Math.max((max - min) * 0.05, HOUR_MS);
   const height = MARGIN.top + MARGIN.bottom + lanes.length * LANE;
   const innerWidth = WIDTH - MARGIN.left - MARGIN.right;
   const x = scaleTime({ domain: [new Date(min - pad), new Date(max + pad)], range: [0, innerWidth] });
@@ -60,16 +70,13 @@ export function AssignmentTimeline({ assignments, now = new Date() }: { assignme
       >
         <Group left={MARGIN.left} top={MARGIN.top}>
           {lanes.map((lane) => (
-            <text
-              key={lane.key}
-              x={-10}
-              y={(y(lane.key) ?? 0) + y.bandwidth() / 2}
-              dy="0.35em"
-              textAnchor="end"
-              fontSize={12}
-              fill="var(--color-ink)"
-            >
-              {lane.label}
+            <text key={lane.key} x={-12} y={(y(lane.key) ?? 0) + y.bandwidth() / 2} textAnchor="end" fill="var(--color-ink)">
+              <tspan x={-12} dy="-0.25em" fontSize={12} fontWeight={700}>
+                {clip(lane.patient, 26)}
+              </tspan>
+              <tspan x={-12} dy="1.2em" fontSize={11} fill="var(--color-ink-soft)">
+                {lane.placement}
+              </tspan>
             </text>
           ))}
           {assignments.map((a) => {
@@ -80,6 +87,7 @@ export function AssignmentTimeline({ assignments, now = new Date() }: { assignme
             const open = a.to === null;
             return (
               <g key={a.id}>
+                <title>{`${laneOf(a).label}: ${a.from.slice(0, 16).replace("T", " ")} to ${a.to ? a.to.slice(0, 16).replace("T", " ") : "now (ongoing)"} UTC`}</title>
                 <Bar
                   x={x0}
                   y={top}
@@ -106,7 +114,7 @@ export function AssignmentTimeline({ assignments, now = new Date() }: { assignme
             stroke="var(--color-ink)"
             strokeDasharray="2 3"
           />
-          <text x={x(now)} y={lanes.length * LANE + 4} dy="-0.2em" fontSize={10} textAnchor="middle" fill="var(--color-ink-soft)">
+          <text x={x(now)} y={-8} fontSize={10} textAnchor="middle" fill="var(--color-ink-soft)">
             now
           </text>
           <AxisBottom

@@ -43,6 +43,7 @@ export function DeviceInventoryPage() {
         <EmptyState title="No devices registered yet">Devices appear here once they are added to the inventory.</EmptyState>
       ) : (
         <div className="grid gap-4">
+          <StatusCounts devices={devices.data} status={status} onStatus={setStatus} />
           <div className="grid max-w-2xl gap-4 sm:grid-cols-2" role="search" aria-label="Filter devices">
             <TextField
               label="Search"
@@ -110,6 +111,27 @@ export function DeviceInventoryPage() {
           )}
         </div>
       )}
+    </div>
+  );
+}
+
+/** One button per status with its count: the quickest way to find a spare device. */
+function StatusCounts({ devices, status, onStatus }: { devices: Device[]; status: string; onStatus: (s: string) => void }) {
+  const counts = DEVICE_STATUSES.map((s) => ({ s, n: devices.filter((d) => d.status === s).length })).filter((c) => c.n > 0);
+  return (
+    <div className="flex flex-wrap gap-2" role="group" aria-label="Devices by status">
+      {counts.map(({ s, n }) => (
+        <button
+          key={s}
+          type="button"
+          aria-pressed={status === s}
+          onClick={() => onStatus(status === s ? "" : s)}
+          className="inline-flex items-center gap-2 rounded-full border border-line bg-paper px-3 py-1 text-sm font-semibold text-ink hover:bg-sand-deep aria-pressed:border-ink aria-pressed:bg-sand-deep"
+        >
+          <span className="tabular">{n}</span> {deviceStatusLabel(s).toLowerCase()}
+          {status === s ? <span aria-hidden="true">✓</span> : null}
+        </button>
+      ))}
     </div>
   );
 }
