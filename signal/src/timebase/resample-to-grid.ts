@@ -34,6 +34,23 @@ export interface ResampledSensor {
 }
 
 /**
+ * median(Δt) + k·1.4826·MAD(Δt) over at most ~4096 evenly spaced intervals (robust to the gaps
+ * themselves; the subsample keeps this O(n) on 30-minute files).
+ */
+export function intervalSpreadLimit(t: Float64Array, k: number): number {
+  const n = t.length;
+  if (n < 3) return Number.POSITIVE_INFINITY;
+  const step = Math.max(1, Math.floor((n - 1) / 4096));
+  const d: number[] = [];
+  for (let i = 1; i < n; i += step) d.push(t[i]! - t[i - 1]!);
+  d.sort((a, b) => a - b);
+  const med = d[d.length >> 1]!;
+  const dev = d.map((x) => Math.abs(x - med)).sort((a, b) => a - b);
+  const mad = dev[dev.length >> 1]!;
+  return med + k * 1.4826 * mad;
+}
+
+/**
  * Linear resampling of one recording onto the session grid in one forward pass (O(n + m)). Grid
  * samples outside the recording, or between two samples further apart than MAX_INTERPOLATED_GAP_S,
  * are marked invalid and set to 0.
@@ -48,23 +65,26 @@ export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: n
   const out = src.map(() => new Float32Array(m));
   const valid = new Uint8Array(m);
 
-  const gapLimit = GAP_PERIOD_FACTOR / rec.nominalSampleRateHz;
+  const period = 1 / rec.nominalSampleRateHz;
+  // Jittered timestamps spread the intervals; a dropped packet must stand out from that spread
+  // (median + 5 robust SDs), not merely exceed 1.5 periods, or every jittery file is full of "gaps".
+  const gapLimit = Math.max(GAP_PERIOD_FACTOR * period, intervalSpreadLimit(t, 5));
   const gaps: TimeGap[] = [];
   const invalidSpans: Bout[] = [];
-  let sumDt = 0;
-  let countDt = 0;
+  let missingSamples = 0;
   for (let i = 1; i < n; i++) {
     const dt = t[i]! - t[i - 1]!;
     if (dt > gapLimit) {
       const interpolated = dt <= MAX_INTERPOLATED_GAP_S + 1e-9;
       gaps.push({ startS: offset + t[i - 1]!, endS: offset + t[i]!, interpolated });
       if (!interpolated) invalidSpans.push({ startS: offset + t[i - 1]!, endS: offset + t[i]! });
-    } else {
-      sumDt += dt;
-      countDt++;
+      missingSamples += Math.max(0, Math.round(dt / period) - 1);
     }
   }
-  const effectiveSampleRateHz = countDt > 0 ? countDt / sumDt : rec.nominalSampleRateHz;
+  // The device clock's rate over the whole file, counting the samples the gaps lost: unbiased under
+  // jitter (a mean over "non-gap" intervals leans high because long jittered intervals are dropped).
+  const spanS = n > 1 ? t[n - 1]! - t[0]! : 0;
+  const effectiveSampleRateHz = spanS > 0 ? (n - 1 + missingSamples) / spanS : rec.nominalSampleRateHz;
 
   const first = offset + t[0]!;
   const last = offset + t[n - 1]!;
