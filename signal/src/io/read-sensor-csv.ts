@@ -1,6 +1,7 @@
 import { type Placement, type SensorRecording, SignalInputError } from "../types";
 import { parseDecimal } from "./parse-number";
 import { placementFromLabel } from "./placement-names";
+import { scanDecimalRow } from "./scan-decimal-row";
 
 /** Largest sensor file accepted, in characters of text (= bytes for the ASCII format): 64 MiB. */
 export const MAX_SENSOR_FILE_CHARS = 64 * 1024 * 1024;
@@ -143,34 +144,39 @@ export function readSensorCsv(text: string, fileName: string, options: ReadSenso
   let prevT = Number.NEGATIVE_INFINITY;
 
   while (pos < n) {
-    let end = text.indexOf("\n", pos);
-    if (end < 0) end = n;
     lineNo++;
-    let lineEnd = end;
-    if (lineEnd > pos && text.charCodeAt(lineEnd - 1) === 13) lineEnd--;
-    if (lineEnd === pos || isBlank(text, pos, lineEnd)) {
-      pos = end + 1;
-      continue;
-    }
-    if (text.charCodeAt(pos) === 35) fail(lineNo, undefined, "comment line after the column header");
-    let cellStart = pos;
-    for (let col = 0; col < nCols; col++) {
-      const cellEnd = col === nCols - 1 ? lineEnd : text.indexOf(",", cellStart);
-      if (cellEnd < 0 || cellEnd > lineEnd) {
-        fail(lineNo, names[col], `expected ${nCols} cells, found ${col + 1}`);
+    // Plain rows take the fast scanner; anything else (blank, comment, spaces, a bad cell) the
+    // general path below, which skips or reports it exactly as before.
+    let end = text.charCodeAt(pos) === 35 ? -1 : scanDecimalRow(text, pos, nCols, target, row);
+    if (end < 0) {
+      end = text.indexOf("\n", pos);
+      if (end < 0) end = n;
+      let lineEnd = end;
+      if (lineEnd > pos && text.charCodeAt(lineEnd - 1) === 13) lineEnd--;
+      if (lineEnd === pos || isBlank(text, pos, lineEnd)) {
+        pos = end + 1;
+        continue;
       }
-      if (col === nCols - 1 && text.indexOf(",", cellStart) >= 0 && text.indexOf(",", cellStart) < lineEnd) {
-        fail(lineNo, undefined, `expected ${nCols} cells, found more`);
-      }
-      const k = target[col]!;
-      if (k >= 0) {
-        const v = parseDecimal(text, cellStart, cellEnd);
-        if (Number.isNaN(v)) {
-          fail(lineNo, names[col], `"${text.slice(cellStart, cellEnd).trim()}" is not a number`);
+      if (text.charCodeAt(pos) === 35) fail(lineNo, undefined, "comment line after the column header");
+      let cellStart = pos;
+      for (let col = 0; col < nCols; col++) {
+        const cellEnd = col === nCols - 1 ? lineEnd : text.indexOf(",", cellStart);
+        if (cellEnd < 0 || cellEnd > lineEnd) {
+          fail(lineNo, names[col], `expected ${nCols} cells, found ${col + 1}`);
         }
-        row[k] = v;
+        if (col === nCols - 1 && text.indexOf(",", cellStart) >= 0 && text.indexOf(",", cellStart) < lineEnd) {
+          fail(lineNo, undefined, `expected ${nCols} cells, found more`);
+        }
+        const k = target[col]!;
+        if (k >= 0) {
+          const v = parseDecimal(text, cellStart, cellEnd);
+          if (Number.isNaN(v)) {
+            fail(lineNo, names[col], `"${text.slice(cellStart, cellEnd).trim()}" is not a number`);
+          }
+          row[k] = v;
+        }
+        cellStart = cellEnd + 1;
       }
-      cellStart = cellEnd + 1;
     }
     const t = row[0]!;
     if (!(t > prevT)) {
