@@ -1,6 +1,7 @@
 import { type SensorRecording, SignalInputError } from "../types";
 import { parseDecimal } from "./parse-number";
 import { placementFromLabel } from "./placement-names";
+import { rowCapacity } from "./row-capacity";
 import { MAX_SENSOR_FILE_CHARS, STANDARD_GRAVITY_M_S2, parseUtc } from "./read-sensor-csv";
 
 /** The three texts of one BIDS Motion tracking system (BIDS specification, motion data). */
@@ -162,8 +163,8 @@ export function readBidsMotion(input: BidsMotionTexts): SensorRecording[] {
   }
   if (text.trim() === "") fail(input.motionFileName, 1, undefined, "file is empty");
   const nCols = channels.length;
-  let capacity = 1;
-  for (let p = text.indexOf("\n"); p >= 0; p = text.indexOf("\n", p + 1)) capacity++;
+  // A row holds nCols − 1 tabs and a value (a number or n/a) in every cell.
+  const capacity = rowCapacity(text, 0, 2 * nCols - 1);
   const data = Array.from({ length: nCols }, () => new Float64Array(capacity));
   let rows = 0;
   let pos = text.charCodeAt(0) === 0xfeff ? 1 : 0;

@@ -1,6 +1,7 @@
 import { type Placement, type SensorRecording, SignalInputError } from "../types";
 import { parseDecimal } from "./parse-number";
 import { placementFromLabel } from "./placement-names";
+import { rowCapacity } from "./row-capacity";
 import { scanDecimalRow } from "./scan-decimal-row";
 
 /** Largest sensor file accepted, in characters of text (= bytes for the ASCII format): 64 MiB. */
@@ -135,8 +136,8 @@ export function readSensorCsv(text: string, fileName: string, options: ReadSenso
   index.forEach((col, k) => (target[col] = k));
 
   // --- data rows ---
-  let capacity = 1;
-  for (let p = text.indexOf("\n", pos); p >= 0; p = text.indexOf("\n", p + 1)) capacity++;
+  // A row holds nCols − 1 commas and a number in each of the 7 columns read (extra ones may be empty).
+  const capacity = rowCapacity(text, pos, nCols - 1 + SENSOR_CSV_COLUMNS.length);
   const timeS = new Float64Array(capacity);
   const ch = Array.from({ length: 6 }, () => new Float32Array(capacity));
   const row = new Float64Array(7);
