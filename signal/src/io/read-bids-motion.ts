@@ -219,7 +219,11 @@ export function readBidsMotion(input: BidsMotionTexts): SensorRecording[] {
       for (let k = 0; k < 6; k++) if (Number.isNaN(data[p.cols[k]!]![r]!)) ok = false;
       if (!ok) continue;
       timeS[m] = latencyCol >= 0 ? data[latencyCol]![r]! * latencyScale : r / sampleRateHz;
-      for (let k = 0; k < 6; k++) out[k]![m] = data[p.cols[k]!]![r]! * p.scale[k]!;
+      for (let k = 0; k < 6; k++) {
+        out[k]![m] = data[p.cols[k]!]![r]! * p.scale[k]!;
+        // Stored in single precision: a value beyond its range would become Infinity.
+        if (!Number.isFinite(out[k]![m]!)) fail(input.motionFileName, undefined, channels[p.cols[k]!]!.name, `value ${data[p.cols[k]!]![r]} is beyond any sensor's range`);
+      }
       m++;
     }
     if (m === 0) fail(input.motionFileName, undefined, undefined, `tracked point ${p.label} has no complete samples`);

@@ -191,6 +191,10 @@ export function readSensorCsv(text: string, fileName: string, options: ReadSenso
     ch[3]![count] = row[4]! * gyroScale!;
     ch[4]![count] = row[5]! * gyroScale!;
     ch[5]![count] = row[6]! * gyroScale!;
+    // Samples are stored in single precision: a value beyond its range would become Infinity.
+    for (let k = 0; k < 6; k++) {
+      if (!Number.isFinite(ch[k]![count]!)) fail(lineNo, SENSOR_CSV_COLUMNS[k + 1], `value ${row[k + 1]} is beyond any sensor's range`);
+    }
     count++;
     pos = end + 1;
   }
