@@ -15,7 +15,12 @@ export function createRuntime(config: Config, options: { application?: string } 
   const db = createDb(config.databaseUrl);
   const storage = S3ObjectStorage.fromConfig(config.s3);
   const mailer = new SmtpMailer(db, config.smtp);
-  const queue = new PgBossQueue(config.databaseUrl, { schema: config.queueSchema, application: options.application });
+  const queue = new PgBossQueue(config.databaseUrl, {
+    schema: config.queueSchema,
+    application: options.application,
+    expireInSeconds: config.queue.expireS,
+    maintenanceIntervalSeconds: config.queue.maintenanceS,
+  });
   return {
     deps: { db, config, storage, mailer, queue },
     async close() {

@@ -34,6 +34,9 @@ export const envSchema = z.object({
   JSON_BODY_LIMIT: z.string().default("100kb"),
   LOGIN_RATE_LIMIT: int(10, 1, 10_000),
   LOGIN_RATE_WINDOW_S: int(900, 1, 86_400),
+  // Uploads per signed-in user and window (each one parses and stores megabytes).
+  UPLOAD_RATE_LIMIT: int(60, 1, 100_000),
+  UPLOAD_RATE_WINDOW_S: int(900, 1, 86_400),
   RESEARCH_HMAC_KEY: secret("RESEARCH_HMAC_KEY"),
   // Only behind a reverse proxy on this machine: then X-Forwarded-For from loopback names the client.
   TRUST_PROXY: z.enum(["0", "1", "false", "true"]).default("0"),
@@ -41,6 +44,10 @@ export const envSchema = z.object({
     .string()
     .regex(/^[a-z_][a-z0-9_]*$/, { error: "QUEUE_SCHEMA must be a lower-case SQL identifier" })
     .default("pgboss"),
+  // A job still active this long after it started is taken for crashed and retried (pg-boss
+  // expireInSeconds, under its 24-hour cap); the check runs every QUEUE_MAINTENANCE_S seconds.
+  QUEUE_EXPIRE_S: int(15 * 60, 1, 23 * 3600),
+  QUEUE_MAINTENANCE_S: int(120, 1, 3600),
   // Folder the SMTP fake writes captured messages to; enables GET /api/dev/mailbox when set.
   DEV_MAILBOX_DIR: z.string().min(1).optional(),
   // Built portal; defaults to ../portal/dist relative to the ingest-server package.
@@ -68,9 +75,11 @@ export interface Config {
   upload: { maxFiles: number; maxFileBytes: number };
   jsonBodyLimit: string;
   loginRateLimit: { max: number; windowS: number };
+  uploadRateLimit: { max: number; windowS: number };
   researchHmacKey: string;
   trustProxy: boolean;
   queueSchema: string;
+  queue: { expireS: number; maintenanceS: number };
   devMailboxDir?: string;
   portalDist?: string;
 }
@@ -114,9 +123,11 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     upload: { maxFiles: e.UPLOAD_MAX_FILES, maxFileBytes: e.UPLOAD_MAX_FILE_BYTES },
     jsonBodyLimit: e.JSON_BODY_LIMIT,
     loginRateLimit: { max: e.LOGIN_RATE_LIMIT, windowS: e.LOGIN_RATE_WINDOW_S },
+    uploadRateLimit: { max: e.UPLOAD_RATE_LIMIT, windowS: e.UPLOAD_RATE_WINDOW_S },
     researchHmacKey: e.RESEARCH_HMAC_KEY,
     trustProxy: e.TRUST_PROXY === "1" || e.TRUST_PROXY === "true",
     queueSchema: e.QUEUE_SCHEMA,
+    queue: { expireS: e.QUEUE_EXPIRE_S, maintenanceS: e.QUEUE_MAINTENANCE_S },
     devMailboxDir: e.DEV_MAILBOX_DIR,
     portalDist: e.PORTAL_DIST,
   };

@@ -71,7 +71,16 @@ export class PgBossQueue implements JobQueue {
 
   constructor(
     connectionString: string,
-    options: { schema?: string; max?: number; application?: string; policies?: Partial<Record<string, "standard" | "stately">> } = {},
+    options: {
+      schema?: string;
+      max?: number;
+      application?: string;
+      policies?: Partial<Record<string, "standard" | "stately">>;
+      /** Seconds an active job may run before it counts as crashed and is retried (default 15 min). */
+      expireInSeconds?: number;
+      /** How often expired jobs are looked for (default 120 s). */
+      maintenanceIntervalSeconds?: number;
+    } = {},
   ) {
     this.policies = { ...QUEUE_POLICIES, ...options.policies };
     this.boss = new PgBoss({
@@ -80,7 +89,8 @@ export class PgBossQueue implements JobQueue {
       max: options.max ?? 4,
       application_name: options.application ?? "pendula",
       // Jobs still active after this long are treated as crashed and retried.
-      expireInSeconds: 15 * 60,
+      expireInSeconds: options.expireInSeconds ?? 15 * 60,
+      maintenanceIntervalSeconds: options.maintenanceIntervalSeconds ?? 120,
       ...DEFAULT_RETRY,
     });
     this.boss.on("error", (err) => console.error("[queue]", err));

@@ -1,5 +1,6 @@
 import multer from "multer";
 import type { RequestHandler } from "express";
+import { rateLimit } from "express-rate-limit";
 import { idParams } from "../../contracts/common";
 import { reprocessResponse, sessionDetail, signalQuery, signalResponse, uploadFields, uploadResponse } from "../../contracts/sessions";
 import type { AppDeps } from "../../deps";
@@ -16,6 +17,27 @@ function uploadMiddleware(deps: AppDeps): RequestHandler {
   }).array("files");
 }
 
+/**
+ * Uploads per signed-in user (UPLOAD_RATE_LIMIT per UPLOAD_RATE_WINDOW_S), counted before multer
+ * reads a byte, so a runaway client cannot make the server parse and store without end. Keyed by
+ * user, not address: a clinic behind one NAT uploads for many patients at once.
+ */
+function uploadRateLimit(deps: AppDeps): RequestHandler {
+  const { max, windowS } = deps.config.uploadRateLimit;
+  return rateLimit({
+    windowMs: windowS * 1000,
+    limit: max,
+    standardHeaders: "draft-7",
+    legacyHeaders: false,
+    keyGenerator: (req) => `user:${req.auth?.userId ?? "-"}`,
+    handler: (_req, res, _next, options) => {
+      res.status(options.statusCode).json({
+        error: { code: "rate_limited", message: `too many uploads; at most ${max} per ${Math.ceil(windowS / 60)} minutes, try again later` },
+      });
+    },
+  });
+}
+
 export function sessionsRouter(deps: AppDeps): ApiRouter {
   const api = new ApiRouter("/api/sessions", deps);
   api.endpoint({
@@ -23,7 +45,7 @@ export function sessionsRouter(deps: AppDeps): ApiRouter {
     path: "/",
     summary: "Upload one walking test (multipart field `files`, one file per device); 202 queued, 200 when the same files were uploaded before",
     access: { scopes: ["sessions:write:own", "sessions:write:caseload"] },
-    before: [uploadMiddleware(deps)],
+    before: [uploadRateLimit(deps), uploadMiddleware(deps)],
     request: { body: uploadFields },
     status: 202,
     response: uploadResponse,
