@@ -8,7 +8,10 @@ export default defineConfig({
   plugins: [react(), tailwindcss()],
   resolve: { alias: { "@": path.resolve(import.meta.dirname, "src") } },
   worker: { format: "es" },
-  build: { outDir: "dist", emptyOutDir: true, sourcemap: false },
+  // assetsInlineLimit 0: small font subsets would otherwise become data: URLs, which the server's
+  // CSP (font-src 'self') blocks.
+  build: { outDir: "dist", emptyOutDir: true, sourcemap: false, assetsInlineLimit: 0 },
+  preview: { host: "127.0.0.1", proxy: { "/api": "http://127.0.0.1:8641" } },
   server: { host: "127.0.0.1", proxy: { "/api": "http://127.0.0.1:8641" } },
   test: {
     name: "portal",

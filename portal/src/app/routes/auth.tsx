@@ -1,6 +1,11 @@
+import { useSearchParams } from "react-router-dom";
 import { AcceptInvitationForm, ResetConfirmForm, ResetRequestForm, SignInForm } from "@/features/auth";
 
 export const SignInRoute = () => <SignInForm />;
 export const AcceptInvitationRoute = () => <AcceptInvitationForm />;
-export const ResetRequestRoute = () => <ResetRequestForm />;
+/** The reset e-mail links to /reset-password?token=…; without a token the page asks for the address. */
+export function ResetRequestRoute() {
+  const [params] = useSearchParams();
+  return params.get("token") ? <ResetConfirmForm /> : <ResetRequestForm />;
+}
 export const ResetConfirmRoute = () => <ResetConfirmForm />;

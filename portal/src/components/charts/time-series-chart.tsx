@@ -79,8 +79,12 @@ function Chart({ width, height, ariaLabel, series, bands = [], markers = [], xDo
   const innerH = Math.max(10, height - MARGIN.top - MARGIN.bottom);
   const all = series.flatMap((s) => s.points);
   const times = all.map((p) => p.t.getTime()).concat(markers.map((m) => m.t.getTime()));
-  const tLo = xDomain ? xDomain[0].getTime() : Math.min(...times);
-  const tHi = xDomain ? xDomain[1].getTime() : Math.max(...times);
+  // Without a shared domain, pad 3 % each side so the first and last points are not cut by the edge.
+  const rawLo = Math.min(...times);
+  const rawHi = Math.max(...times);
+  const pad = (rawHi - rawLo) * 0.03;
+  const tLo = xDomain ? xDomain[0].getTime() : rawLo - pad;
+  const tHi = xDomain ? xDomain[1].getTime() : rawHi + pad;
   const x = scaleTime({ domain: [new Date(tLo), new Date(tHi === tLo ? tLo + 86_400_000 : tHi)], range: [0, innerW] });
   const y = scaleLinear({ domain: extent(all.map((p) => p.v).concat(bands.flatMap((b) => [b.low, b.high]))), range: [innerH, 0], nice: true });
 
@@ -103,7 +107,8 @@ function Chart({ width, height, ariaLabel, series, bands = [], markers = [], xDo
             >
               <title>{b.label}</title>
             </rect>
-            <text x={innerW - 4} y={y(b.high) + 11} textAnchor="end" fontSize={10} fill="var(--color-sky-deep)">
+            {/* Bands often share an edge: labels step left so they never sit on top of each other. */}
+            <text x={innerW - 4 - i * 46} y={y(b.high) + 11} textAnchor="end" fontSize={10} fill="var(--color-sky-deep)">
               band {i + 1}
             </text>
           </g>

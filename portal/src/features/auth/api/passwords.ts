@@ -14,10 +14,10 @@ export const NewPasswordSchema = z
 export const ResetRequestSchema = z.object({ email: z.email("Enter a valid e-mail address.") });
 
 export async function acceptInvitation(input: { token: string; password: string }): Promise<void> {
-  await api.post("/auth/accept-invitation", input);
+  await api.post("/auth/invitations/accept", input);
 }
 export async function requestPasswordReset(input: { email: string }): Promise<void> {
-  await api.post("/auth/password-reset", input);
+  await api.post("/auth/password-reset/request", input);
 }
 export async function confirmPasswordReset(input: { token: string; password: string }): Promise<void> {
   await api.post("/auth/password-reset/confirm", input);

@@ -51,7 +51,9 @@ describe("patient trend charts", () => {
     expect(within(cv).getByRole("img", { name: "Stride-time variability over time" })).toBeTruthy();
     expect(within(cv).getAllByText(new RegExp(`Source: ${FRENKEL.replace(/[()]/g, "\\$&")}`))).toHaveLength(2);
     expect(within(cv).getByText("Worsened beyond MDC")).toBeTruthy();
-    expect(within(cv).getByText(/prompt to look at the recording and the patient, not a diagnosis/)).toBeTruthy();
+    // A short caution beside the flags in the card, the server's full cautions once above the charts.
+    expect(within(cv).getByText(/A flag is a prompt to look, not a diagnosis\. MDC95/)).toBeTruthy();
+    expect(screen.getByText("A flag or event is a prompt to look at the recording and the patient, not a diagnosis.")).toBeTruthy();
     expect(within(cv).getByText(/from this patient's own first sessions/)).toBeTruthy();
     // The flagged point is drawn with the worsened shape (a downward triangle), not only a colour.
     expect(cv.querySelectorAll('[data-flag="worsened"]')).toHaveLength(1);

@@ -21,3 +21,8 @@ export const DEFAULT_CAUTIONS = [
   "MDC95 (minimal detectable change, 95 % confidence) is the smallest change between two tests that exceeds measurement error. A smaller change may be noise; a larger one is probably real but not necessarily clinically important.",
   "Follow your local protocols and clinical judgement; Pendula supports decisions and does not make them.",
 ];
+
+/** The short form printed beside every flag; the full cautions sit once above the charts. */
+export const SHORT_CAUTION = [
+  "A flag is a prompt to look, not a diagnosis. MDC95 = the smallest change beyond measurement error (95 % confidence); it says a change is probably real, not that it matters clinically. Follow local protocols.",
+];

@@ -1,11 +1,11 @@
 import type { ReactNode } from "react";
 import { Link, useNavigate } from "react-router-dom";
 import type { ChartMarker } from "@/components/charts/time-series-chart";
-import { IconPrint } from "@/components/icons";
+import { IconAlert, IconPrint } from "@/components/icons";
 import { Badge, Button, EmptyState, PageHeader, Section, Table, Td, Th } from "@/components/ui";
 import { FAMILIES, familyOf } from "../api/metric-families";
 import { usePatientDetail, usePatientSessions, useTrends, type CoordinationEvent, type TrendMetric } from "../api/trends";
-import { DEFAULT_CAUTIONS } from "./flag-badge";
+import { DEFAULT_CAUTIONS, SHORT_CAUTION } from "./flag-badge";
 import { TrendFamilyCard } from "./trend-family-card";
 
 const CONDITION_LABEL: Record<string, string> = { incomplete_sci: "Incomplete SCI", stroke: "Stroke", parkinsons: "Parkinson's disease", other: "Other" };
@@ -36,6 +36,7 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
   const navigate = useNavigate();
   const openSession = (id: string) => navigate(`/clinician/sessions/${id}`);
   const events: CoordinationEvent[] = trends.events ?? [];
+  // The full cautions appear once above the charts; each card repeats the short form beside its flags.
   const cautions = trends.cautions?.length ? trends.cautions : DEFAULT_CAUTIONS;
   const domain = sharedDomain(trends.metrics, markers);
   const byFamily = FAMILIES.map((f) => ({
@@ -76,7 +77,16 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
       {byFamily.length === 0 || !domain ? (
         <EmptyState title="No measured sessions yet">Trends appear after the first weekly walk has been processed.</EmptyState>
       ) : (
-        <div className="mb-8 grid gap-5 xl:grid-cols-2">
+        <div className="mb-8 flex flex-col gap-5">
+          <div role="note" className="card flex gap-2 border-ochre/40 bg-ochre-wash p-4 text-sm">
+            <IconAlert className="mt-0.5 shrink-0 text-ochre" />
+            <div className="flex flex-col gap-1">
+              <p className="font-semibold">Reading flags and bands</p>
+              {cautions.map((c) => (
+                <p key={c}>{c}</p>
+              ))}
+            </div>
+          </div>
           {byFamily.map(({ family, metrics }) => (
             <TrendFamilyCard
               key={family.id}
@@ -85,7 +95,7 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
               events={events.filter((e) => e.metricKey && familyOf(e.metricKey) === family.id)}
               markers={markers}
               xDomain={domain}
-              cautions={cautions}
+              cautions={SHORT_CAUTION}
               onOpenSession={openSession}
             />
           ))}

@@ -7,7 +7,8 @@ import { FlagBadge } from "./flag-badge";
 const asFlag = (f: string | undefined): PointFlag | undefined => (f === "improved" || f === "worsened" || f === "within-error" ? f : undefined);
 const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: "numeric", month: "short", year: "numeric" });
 
-function fmt(v: number, unit: string) {
+function fmt(v: number, rawUnit: string) {
+  const unit = rawUnit === "/min" ? "steps/min" : rawUnit;
   const digits = Math.abs(v) >= 20 ? 1 : 2;
   return `${v.toFixed(digits)}${unit && unit !== "1" ? ` ${unit}` : ""}`;
 }
@@ -23,7 +24,8 @@ export interface TrendFamilyCardProps {
 }
 
 export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cautions, onOpenSession }: TrendFamilyCardProps) {
-  const unit = metrics[0]?.unit ?? "";
+  const rawUnit = metrics[0]?.unit ?? "";
+  const unit = rawUnit === "/min" ? "steps/min" : rawUnit;
   const series: ChartSeries[] = metrics.map((m, i) => ({
     id: m.key,
     label: metricLabel(m.key, m.label),
@@ -36,9 +38,13 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
   // Bands are shown once even when several series (left/right) share them.
   const bands: TrendBand[] = [];
   for (const m of metrics) for (const b of m.bands ?? []) if (!bands.some((x) => x.label === b.label && x.low === b.low)) bands.push(b);
-  const flagged = metrics.flatMap((m) =>
-    m.points.filter((p) => p.flag === "improved" || p.flag === "worsened").map((p) => ({ metric: m, point: p })),
-  );
+  // Flags compare each session with the baseline, so a steady change flags every later session:
+  // list the latest flagged session per metric and count the earlier ones.
+  const flagged = metrics.flatMap((m) => {
+    const hits = m.points.filter((p) => p.flag === "improved" || p.flag === "worsened").sort((a, b) => a.recordedAt.localeCompare(b.recordedAt));
+    const last = hits[hits.length - 1];
+    return last ? [{ metric: m, point: last, earlier: hits.length - 1 }] : [];
+  });
   const slopes = metrics.filter((m) => m.slopeFlag && m.slopeFlag.flag !== "within-error");
   const eventMarkers: ChartMarker[] = events.map((e) => ({ t: new Date(e.recordedAt), glyph: "E", label: e.message }));
   const hasFlags = flagged.length > 0 || slopes.length > 0 || events.length > 0;
@@ -110,12 +116,13 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
           <div>
             <h4 className="font-semibold">Flags and events</h4>
             <ul className="mt-1 flex flex-col gap-1.5">
-              {flagged.map(({ metric, point }) => (
+              {flagged.map(({ metric, point, earlier }) => (
                 <li key={`${metric.key}-${point.sessionId}`} className="flex flex-wrap items-center gap-2">
                   <FlagBadge flag={point.flag!} />
                   <button type="button" className="text-left text-sky-deep underline underline-offset-2" onClick={() => onOpenSession(point.sessionId)}>
                     {metricLabel(metric.key, metric.label)} {fmt(point.value, metric.unit)} on {day(point.recordedAt)}
                   </button>
+                  {earlier > 0 ? <span className="text-xs text-ink-soft">(and {earlier} earlier flagged {earlier === 1 ? "session" : "sessions"})</span> : null}
                 </li>
               ))}
               {slopes.map((m) => (
@@ -141,11 +148,7 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
             </ul>
             <div role="note" className="mt-2 flex gap-2 rounded-lg border border-ochre/30 bg-ochre-wash p-2.5 text-xs text-ink">
               <IconAlert className="mt-0.5 shrink-0 text-ochre" />
-              <div className="flex flex-col gap-1">
-                {cautions.map((c) => (
-                  <p key={c}>{c}</p>
-                ))}
-              </div>
+              <p>{cautions.join(" ")}</p>
             </div>
           </div>
         ) : null}
