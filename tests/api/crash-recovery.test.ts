@@ -53,8 +53,8 @@ describe("a worker killed in the middle of a job", () => {
     const orphan = await session(id);
     expect(orphan.status).toBe("processing");
     expect(orphan.attempts).toBe(1);
-    const [{ n: metricsBefore }] = await ctx.db("session_metrics").where({ session_id: id }).count<{ n: string }[]>({ n: "*" });
-    expect(Number(metricsBefore)).toBe(0);
+    const metricsBefore = await ctx.db("session_metrics").where({ session_id: id }).count<{ n: string }[]>({ n: "*" });
+    expect(Number(metricsBefore[0]?.n)).toBe(0);
     const jobsOf = () => ctx.db(`${ctx.config.queueSchema}.job`).where({ name: "process-session", singleton_key: id }).select("state", "retry_count");
     expect((await jobsOf()).map((j) => j.state)).toEqual(["active"]);
 
