@@ -1,5 +1,6 @@
 import { lowPassZeroPhaseSegments } from "../filter/zero-phase-butterworth";
 import type { Bout } from "../types";
+import { hypot3 } from "./hypot3";
 
 /** Gravity direction: accelerometer low-passed at this cut-off (Hz, 2nd order, zero phase). */
 export const GRAVITY_LOW_PASS_HZ = 0.5;
@@ -74,7 +75,7 @@ export function yawRateAboutGravity(
   const yaw = new Float64Array(m);
   for (let i = 0; i < m; i++) {
     if (!valid[i]) continue;
-    const norm = Math.hypot(gx[i]!, gy[i]!, gz[i]!);
+    const norm = hypot3(gx[i]!, gy[i]!, gz[i]!);
     if (norm < 1e-6) continue;
     yaw[i] = (ch[3]![i]! * gx[i]! + ch[4]![i]! * gy[i]! + ch[5]![i]! * gz[i]!) / norm;
   }

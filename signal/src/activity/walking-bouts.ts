@@ -1,4 +1,5 @@
 import type { Bout } from "../types";
+import { hypot3 } from "./hypot3";
 
 /** Mean |ω| of a leg segment over a 1 s window above which the leg is taken to be walking (°/s). */
 export const WALKING_MEAN_GYRO_DEG_S = 15;
@@ -21,20 +22,33 @@ export function detectWalkingMask(
 ): Uint8Array {
   const mask = new Uint8Array(length);
   const half = Math.max(1, Math.round((WALKING_WINDOW_S * sampleRateHz) / 2));
-  const sum = new Float64Array(length + 1);
-  const cnt = new Float64Array(length + 1);
+  // Prefix sums S[k] of |ω| and of the valid count, kept only for the current window in a ring
+  // (S[hi] − S[lo], hi − lo ≤ 2·half + 1): the same sums and differences as full prefix arrays.
+  const ring = 2 * half + 2;
+  const sumRing = new Float64Array(ring);
+  const cntRing = new Int32Array(ring);
   for (const g of legGyro) {
+    const { x, y, z, valid } = g;
+    let k = 0;
+    let sum = 0;
+    let cnt = 0;
+    sumRing[0] = 0;
+    cntRing[0] = 0;
     for (let i = 0; i < length; i++) {
-      const ok = g.valid[i] === 1;
-      sum[i + 1] = sum[i]! + (ok ? Math.hypot(g.x[i]!, g.y[i]!, g.z[i]!) : 0);
-      cnt[i + 1] = cnt[i]! + (ok ? 1 : 0);
-    }
-    for (let i = 0; i < length; i++) {
-      if (!g.valid[i]) continue;
-      const lo = Math.max(0, i - half);
       const hi = Math.min(length, i + half + 1);
-      const c = cnt[hi]! - cnt[lo]!;
-      if (c > 0 && (sum[hi]! - sum[lo]!) / c > WALKING_MEAN_GYRO_DEG_S) mask[i] = 1;
+      while (k < hi) {
+        if (valid[k] === 1) {
+          sum += hypot3(x[k]!, y[k]!, z[k]!);
+          cnt++;
+        }
+        k++;
+        sumRing[k % ring] = sum;
+        cntRing[k % ring] = cnt;
+      }
+      if (!valid[i]) continue;
+      const lo = Math.max(0, i - half);
+      const c = cnt - cntRing[lo % ring]!;
+      if (c > 0 && (sum - sumRing[lo % ring]!) / c > WALKING_MEAN_GYRO_DEG_S) mask[i] = 1;
     }
   }
   return mask;

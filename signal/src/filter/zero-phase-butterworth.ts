@@ -10,20 +10,45 @@ import { type Biquad, butterworthSections } from "./butterworth-sections";
  */
 export function sosFiltFilt(sections: readonly Biquad[], x: ArrayLike<number>): Float64Array {
   const n = x.length;
-  if (n === 0) return new Float64Array(0);
-  if (n === 1) return Float64Array.of(x[0]!);
-  const padLen = Math.min(3 * (2 * sections.length + 1), n - 1);
+  const out = new Float64Array(n);
+  if (n === 0) return out;
+  sosFiltFiltRange(sections, x, 0, n, new Float64Array(n + 2 * padLength(sections, n)), out);
+  return out;
+}
+
+function padLength(sections: readonly Biquad[], n: number): number {
+  return Math.max(0, Math.min(3 * (2 * sections.length + 1), n - 1));
+}
+
+/**
+ * sosFiltFilt of x[from, to) written to out[from, to), with `scratch` (≥ to − from + 2·padLength
+ * samples) as the work buffer: the same arithmetic as sosFiltFilt, without allocating.
+ */
+function sosFiltFiltRange(
+  sections: readonly Biquad[],
+  x: ArrayLike<number>,
+  from: number,
+  to: number,
+  scratch: Float64Array,
+  out: Float64Array,
+): void {
+  const n = to - from;
+  if (n === 1) {
+    out[from] = x[from]!;
+    return;
+  }
+  const padLen = padLength(sections, n);
   const m = n + 2 * padLen;
-  const ext = new Float64Array(m);
-  const x0 = x[0]!;
-  const xn = x[n - 1]!;
-  for (let i = 0; i < padLen; i++) ext[i] = 2 * x0 - x[padLen - i]!;
-  for (let i = 0; i < n; i++) ext[padLen + i] = x[i]!;
-  for (let i = 0; i < padLen; i++) ext[padLen + n + i] = 2 * xn - x[n - 2 - i]!;
+  const ext = scratch.subarray(0, m);
+  const x0 = x[from]!;
+  const xn = x[to - 1]!;
+  for (let i = 0; i < padLen; i++) ext[i] = 2 * x0 - x[from + padLen - i]!;
+  for (let i = 0; i < n; i++) ext[padLen + i] = x[from + i]!;
+  for (let i = 0; i < padLen; i++) ext[padLen + n + i] = 2 * xn - x[to - 2 - i]!;
 
   filterInPlace(sections, ext, false);
   filterInPlace(sections, ext, true);
-  return ext.slice(padLen, padLen + n);
+  for (let i = 0; i < n; i++) out[from + i] = ext[padLen + i]!;
 }
 
 /** Direct form II transposed, each section started at its steady state for a constant input. */
@@ -93,7 +118,22 @@ export function lowPassZeroPhaseSegments(
 ): Float64Array {
   const sections = butterworthSections("lowpass", order, cutoffHz, sampleRateHz);
   const n = x.length;
-  const out = Float64Array.from(x);
+  const out = new Float64Array(n);
+  // One work buffer sized for the longest run serves every run.
+  let longest = 0;
+  for (let i = 0; i < n; ) {
+    if (!valid[i]) {
+      out[i] = x[i]!;
+      i++;
+      continue;
+    }
+    let j = i;
+    while (j < n && valid[j]) j++;
+    longest = Math.max(longest, j - i);
+    i = j;
+  }
+  if (longest === 0) return out;
+  const scratch = new Float64Array(longest + 2 * padLength(sections, longest));
   let i = 0;
   while (i < n) {
     if (!valid[i]) {
@@ -102,8 +142,7 @@ export function lowPassZeroPhaseSegments(
     }
     let j = i;
     while (j < n && valid[j]) j++;
-    const seg = sosFiltFilt(sections, out.subarray(i, j));
-    out.set(seg, i);
+    sosFiltFiltRange(sections, x, i, j, scratch, out);
     i = j;
   }
   return out;

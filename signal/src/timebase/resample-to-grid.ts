@@ -90,6 +90,9 @@ export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: n
   const last = offset + t[n - 1]!;
   const kStart = Math.max(0, Math.ceil((first - 1e-9) * fs));
   const kEnd = Math.min(m - 1, Math.floor((last + 1e-9) * fs));
+  // One pass, the six channels unrolled (no per-sample channel array look-ups, no index buffers).
+  const [ax, ay, az, gx, gy, gz] = src as [Float32Array, Float32Array, Float32Array, Float32Array, Float32Array, Float32Array];
+  const [oax, oay, oaz, ogx, ogy, ogz] = out as [Float32Array, Float32Array, Float32Array, Float32Array, Float32Array, Float32Array];
   let j = 0;
   for (let k = kStart; k <= kEnd; k++) {
     const tl = k / fs - offset;
@@ -99,11 +102,19 @@ export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: n
     const span = t1 - t0;
     if (span > MAX_INTERPOLATED_GAP_S + 1e-9 && tl > t0 + 1e-9 && tl < t1 - 1e-9) continue;
     const w = span > 0 ? Math.min(1, Math.max(0, (tl - t0) / span)) : 0;
-    for (let c = 0; c < 6; c++) {
-      const s = src[c]!;
-      const a = s[j]!;
-      out[c]![k] = a + (s[Math.min(j + 1, n - 1)]! - a) * w;
-    }
+    const r = j + 1 < n ? j + 1 : n - 1;
+    let v = ax[j]!;
+    oax[k] = v + (ax[r]! - v) * w;
+    v = ay[j]!;
+    oay[k] = v + (ay[r]! - v) * w;
+    v = az[j]!;
+    oaz[k] = v + (az[r]! - v) * w;
+    v = gx[j]!;
+    ogx[k] = v + (gx[r]! - v) * w;
+    v = gy[j]!;
+    ogy[k] = v + (gy[r]! - v) * w;
+    v = gz[j]!;
+    ogz[k] = v + (gz[r]! - v) * w;
     valid[k] = 1;
   }
 
