@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { IconInfo } from "@/components/icons";
 import { Button, ErrorState, FormMessage, LoadingState, PageHeader } from "@/components/ui";
-import { describeError } from "@/lib/api-error";
+import { describeError, isApiError } from "@/lib/api-error";
 import { useUploadSession, type FileProgress } from "../api/upload-session";
 import { usePrecheck } from "../precheck/use-precheck";
 import { FileDrop } from "./file-drop";
@@ -77,12 +77,12 @@ export function WeeklyWalk() {
             </section>
           ) : null}
           {upload.isError ? (
-            <div className="flex flex-col items-start gap-3">
-              <FormMessage tone="error">{describeError(upload.error)}</FormMessage>
-              <Button variant="secondary" onClick={() => upload.mutate(files)}>
-                Try sending again
-              </Button>
-            </div>
+            <FormMessage tone="error">
+              {describeError(upload.error)}
+              {isApiError(upload.error) && upload.error.status === 422
+                ? " Check that these files come from your own sensors; if they do, your care team can check their list of your sensors."
+                : ""}
+            </FormMessage>
           ) : null}
           {upload.data ? <ProcessingStatus sessionId={upload.data.id} duplicate={Boolean(upload.data.duplicate)} /> : null}
         </div>
