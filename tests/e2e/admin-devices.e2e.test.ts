@@ -1,46 +1,86 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
-import { launchBrowser, openPage, saveScreenshot, settle, type TestPage } from "./support/browser";
+import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, settle, type TestPage } from "./support/browser";
 import { apiGet, apiToken, signIn } from "./support/sign-in";
 
+interface Assignment {
+  patientId: string;
+  patientLabel: string;
+  placement: string;
+  from: string;
+  to: string | null;
+}
 interface Device {
   id: string;
   serial: string;
   status: string;
-  assignment: { patientId: string; patientLabel: string; placement: string } | null;
+  assignment: Assignment | null;
 }
 interface Patient {
   id: string;
   displayName: string;
 }
 
-// Placements the seed does not use for the weekly four-sensor test, so a spare can go there.
+// Placements the seed does not use for the weekly four-sensor test, so spares can go there.
 const EXTRA_PLACEMENTS = [
   { value: "lower_back", label: "Lower back" },
   { value: "left_foot", label: "Left foot" },
   { value: "right_foot", label: "Right foot" },
 ];
 
+const MINUTE = 60_000;
+/** `<input type="datetime-local">` value in the browser's zone (the context runs in UTC). */
+function localInput(date: Date): string {
+  return date.toISOString().slice(0, 16);
+}
+
 let browser: Browser;
 let t: TestPage;
 let spares: Device[];
-let target: { patient: Patient; placement: { value: string; label: string } };
+let patient: Patient;
+let placement: { value: string; label: string };
+let swapTo: { value: string; label: string };
+// The scenario starts ten minutes ago, or just after the spare's own last assignment when an earlier
+// run used it more recently (one device, one body at a time), and runs assign → swap → end a
+// minute apart. A re-run against the same database then still finds room.
+const t0 = Date.now();
+let assignedAt: Date;
+let swappedAt: Date;
+let endedAt: Date;
 
 beforeAll(async () => {
   const token = await apiToken("admin");
   const devices = await apiGet<Device[]>("/api/devices", token);
   const patients = (await apiGet<{ items: Patient[] }>("/api/patients", token)).items;
   spares = devices.filter((d) => d.status === "in_stock" && d.assignment === null).sort((a, b) => a.serial.localeCompare(b.serial));
-  // Re-runs against the same database must not trip over their own earlier assignments.
-  const taken = new Set(devices.flatMap((d) => (d.assignment ? [`${d.assignment.patientId}|${d.assignment.placement}`] : [])));
-  const free = patients
-    .flatMap((patient) => EXTRA_PLACEMENTS.map((placement) => ({ patient, placement })))
-    .find(({ patient, placement }) => !taken.has(`${patient.id}|${placement.value}`));
-  if (!free) throw new Error("no free patient × placement left for the assignment test");
-  target = free;
+  // Earlier runs used spare devices on the extra placements; read their histories to stay clear.
+  const busy = new Set<string>();
+  const extra = new Set(EXTRA_PLACEMENTS.map((p) => p.value));
+  for (const d of devices) {
+    if (d.status !== "in_stock" && !(d.assignment && extra.has(d.assignment.placement))) continue;
+    for (const a of await apiGet<Assignment[]>(`/api/devices/${d.id}/assignments`, token)) {
+      if (a.to === null || Date.parse(a.to) > t0 - 20 * MINUTE) busy.add(`${a.patientId}|${a.placement}`);
+    }
+  }
+  const found = patients
+    .map((p) => ({ p, free: EXTRA_PLACEMENTS.filter((pl) => !busy.has(`${p.id}|${pl.value}`)) }))
+    .find((c) => c.free.length >= 2);
+  if (!found) throw new Error("no patient with two free extra placements left for the assignment test");
+  const ownHistory = await apiGet<Assignment[]>(`/api/devices/${spares[0]!.id}/assignments`, token);
+  const lastEnd = Math.max(0, ...ownHistory.map((a) => Date.parse(a.to ?? new Date(t0).toISOString())));
+  const base = Math.ceil(Math.max(t0 - 10 * MINUTE, lastEnd + MINUTE) / MINUTE) * MINUTE;
+  assignedAt = new Date(base);
+  swappedAt = new Date(base + MINUTE);
+  endedAt = new Date(base + 2 * MINUTE);
+  patient = found.p;
+  placement = found.free[0]!;
+  swapTo = found.free[1]!;
   browser = await launchBrowser();
   t = await openPage(browser);
   await signIn(t.page, "admin");
+});
+afterEach(async (ctx) => {
+  await screenshotIfFailed(t?.page, ctx);
 });
 afterAll(async () => {
   await t?.context.close();
@@ -68,62 +108,75 @@ describe("an admin manages devices and their assignments", () => {
     const spare = spares[0]!;
     await page.getByRole("link", { name: spare.serial }).click();
     await page.waitForURL(`**/admin/devices/${spare.id}`);
-    await page.getByText("Never assigned").or(page.getByRole("img", { name: /Assignment timeline/ })).first().waitFor();
-    await page.getByLabel("Patient").selectOption({ label: target.patient.displayName });
-    await page.getByLabel("Placement").selectOption(target.placement.value);
-    await page.getByRole("button", { name: "Assign device" }).click();
+    const form = page.getByRole("form", { name: `Assign ${spare.serial}` });
+    await form.waitFor();
+    await form.getByLabel("Patient").selectOption({ label: patient.displayName });
+    await form.getByLabel("Placement").selectOption(placement.value);
+    await form.getByLabel("From").fill(localInput(assignedAt));
+    await form.getByRole("button", { name: "Assign device" }).click();
     await page.getByText(/Worn now by/).waitFor();
-    expect(await page.getByText(/Worn now by/).textContent()).toContain(target.patient.displayName);
-    await page.getByRole("img", { name: new RegExp(`Assignment timeline: .*${target.placement.label}`) }).waitFor();
+    expect(await page.getByText(/Worn now by/).textContent()).toContain(patient.displayName);
+    await page.getByRole("img", { name: new RegExp(`Assignment timeline: .*${placement.label}`) }).waitFor();
     await settle(page);
     await saveScreenshot(page, "admin-device-assigned");
 
-    const token = await apiToken("admin");
-    const after = await apiGet<Device[]>("/api/devices", token);
-    const assigned = after.find((d) => d.id === spare.id);
-    expect(assigned?.assignment).toMatchObject({ patientId: target.patient.id, placement: target.placement.value });
+    const after = await apiGet<Device[]>("/api/devices", await apiToken("admin"));
+    expect(after.find((d) => d.id === spare.id)?.assignment).toMatchObject({ patientId: patient.id, placement: placement.value });
   });
 
   it("shows the server's overlap refusal when a second device is put on the same placement", async () => {
     const { page } = t;
     const second = spares[1]!;
     await page.goto(`/admin/devices/${second.id}`);
-    await page.getByRole("button", { name: "Assign device" }).waitFor();
-    await page.getByLabel("Patient").selectOption({ label: target.patient.displayName });
-    await page.getByLabel("Placement").selectOption(target.placement.value);
-    await page.getByRole("button", { name: "Assign device" }).click();
-    const alert = page.getByRole("alert").filter({ hasText: "Refused" });
+    const form = page.getByRole("form", { name: `Assign ${second.serial}` });
+    await form.waitFor();
+    await form.getByLabel("Patient").selectOption({ label: patient.displayName });
+    await form.getByLabel("Placement").selectOption(placement.value);
+    await form.getByRole("button", { name: "Assign device" }).click();
+    const alert = form.getByRole("alert").filter({ hasText: "Refused" });
     await alert.waitFor();
     // The server's own words (assignments.service overlapConflict) name whose placement is taken.
-    expect(await alert.textContent()).toContain(target.patient.displayName);
+    expect(await alert.textContent()).toContain(patient.displayName);
     await saveScreenshot(page, "admin-device-overlap-refused");
+    const still = await apiGet<Device[]>("/api/devices", await apiToken("admin"));
+    expect(still.find((d) => d.id === second.id)?.assignment).toBeNull();
   });
 
-  it("swaps the first device to another placement at the same instant", async () => {
+  it("swaps the first device to another placement of the same patient at one instant", async () => {
     const { page } = t;
     const spare = spares[0]!;
     await page.goto(`/admin/devices/${spare.id}`);
     const swap = page.getByRole("form", { name: "Swap placement" });
     await swap.waitFor();
-    const options = await swap.getByLabel("New placement").locator("option").evaluateAll((els) =>
-      els.map((e) => (e as unknown as { value: string }).value).filter(Boolean),
-    );
-    const token = await apiToken("admin");
-    const devices = await apiGet<Device[]>("/api/devices", token);
-    const taken = new Set(devices.flatMap((d) => (d.assignment?.patientId === target.patient.id ? [d.assignment.placement] : [])));
-    const next = options.find((o) => !taken.has(o));
-    expect(next).toBeDefined();
-    // A swap must be later than the start of the running assignment, which began "now" a moment ago.
-    const later = new Date(Date.now() + 2 * 60_000);
-    const pad = (n: number) => String(n).padStart(2, "0");
-    const local = `${later.getFullYear()}-${pad(later.getMonth() + 1)}-${pad(later.getDate())}T${pad(later.getHours())}:${pad(later.getMinutes())}`;
-    await swap.getByLabel("New placement").selectOption(next!);
-    await swap.getByLabel("Swap at").fill(local);
+    await swap.getByLabel("New placement").selectOption(swapTo.value);
+    await swap.getByLabel("Swap at").fill(localInput(swappedAt));
     await swap.getByRole("button", { name: "Swap placement" }).click();
+    await page.getByText(`Now worn on the ${swapTo.label.toLowerCase()} from`).waitFor();
+    const history = (await apiGet<Assignment[]>(`/api/devices/${spare.id}/assignments`, await apiToken("admin")))
+      .filter((a) => a.patientId === patient.id && Date.parse(a.from) >= assignedAt.getTime())
+      .sort((a, b) => a.from.localeCompare(b.from));
+    expect(history.map((a) => a.placement)).toEqual([placement.value, swapTo.value]);
+    const [ended, running] = history as [Assignment, Assignment];
+    expect(running.to).toBeNull();
+    // No gap and no overlap: the old assignment ends exactly where the new one starts.
+    expect(Date.parse(ended.to ?? "")).toBe(Date.parse(running.from));
+    expect(Date.parse(running.from)).toBe(swappedAt.getTime());
     await page.getByRole("table").locator("tbody tr").nth(1).waitFor();
-    const history = await apiGet<Array<{ placement: string; to: string | null }>>(`/api/devices/${spare.id}/assignments`, token);
-    expect(history).toHaveLength(2);
-    expect(history.filter((a) => a.to === null).map((a) => a.placement)).toEqual([next]);
+    await settle(page);
     await saveScreenshot(page, "admin-device-swapped");
+  });
+
+  it("ends the running assignment", async () => {
+    const { page } = t;
+    const spare = spares[0]!;
+    const end = page.getByRole("form", { name: "End the current assignment" });
+    await end.getByLabel("Ends at").fill(localInput(endedAt));
+    await end.getByRole("button", { name: "End assignment" }).click();
+    await page.getByText(/assignment ended at/).waitFor();
+    const history = await apiGet<Assignment[]>(`/api/devices/${spare.id}/assignments`, await apiToken("admin"));
+    expect(history.every((a) => a.to !== null)).toBe(true);
+    expect(history.some((a) => a.placement === swapTo.value && Date.parse(a.to!) === endedAt.getTime())).toBe(true);
+    await settle(page);
+    await saveScreenshot(page, "admin-device-ended");
   });
 });

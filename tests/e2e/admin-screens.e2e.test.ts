@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
-import { launchBrowser, openPage, saveScreenshot, settle, type TestPage } from "./support/browser";
+import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, settle, type TestPage } from "./support/browser";
 import { signIn } from "./support/sign-in";
 
 let browser: Browser;
@@ -9,6 +9,9 @@ beforeAll(async () => {
   browser = await launchBrowser();
   t = await openPage(browser);
   await signIn(t.page, "admin");
+});
+afterEach(async (ctx) => {
+  await screenshotIfFailed(t?.page, ctx);
 });
 afterAll(async () => {
   await t?.context.close();

@@ -1,10 +1,10 @@
 import { mkdtemp, rm, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
 import { synthesizeSession, type SynthPlacement } from "@pendula/signal";
-import { launchBrowser, openPage, saveScreenshot, settle, type TestPage } from "./support/browser";
+import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, settle, type TestPage } from "./support/browser";
 import { apiGet, apiToken, signIn } from "./support/sign-in";
 
 interface Device {
@@ -51,6 +51,9 @@ beforeAll(async () => {
   browser = await launchBrowser();
   t = await openPage(browser);
   await signIn(t.page, "patient");
+});
+afterEach(async (ctx) => {
+  await screenshotIfFailed(t?.page, ctx);
 });
 afterAll(async () => {
   await t?.context.close();

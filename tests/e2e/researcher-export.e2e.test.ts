@@ -1,7 +1,7 @@
 import { readFile } from "node:fs/promises";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
-import { launchBrowser, openPage, saveScreenshot, type TestPage } from "./support/browser";
+import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, type TestPage } from "./support/browser";
 import { apiGet, apiToken, signIn } from "./support/sign-in";
 
 let browser: Browser;
@@ -10,6 +10,9 @@ beforeAll(async () => {
   browser = await launchBrowser();
   t = await openPage(browser);
   await signIn(t.page, "researcher");
+});
+afterEach(async (ctx) => {
+  await screenshotIfFailed(t?.page, ctx);
 });
 afterAll(async () => {
   await t?.context.close();

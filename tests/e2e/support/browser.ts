@@ -70,3 +70,10 @@ export async function saveScreenshot(page: Page, name: string): Promise<string> 
   await page.screenshot({ path, fullPage: true });
   return path;
 }
+
+/** For an `afterEach`: keeps what the page showed when a test failed, next to the main screens. */
+export async function screenshotIfFailed(page: Page | undefined, ctx: { task: { name: string; result?: { state?: string } } }): Promise<void> {
+  if (!page || ctx.task.result?.state !== "fail") return;
+  const slug = ctx.task.name.toLowerCase().replace(/[^a-z0-9]+/g, "-").slice(0, 60);
+  await saveScreenshot(page, `failed-${slug}`).catch(() => undefined);
+}

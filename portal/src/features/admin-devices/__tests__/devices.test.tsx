@@ -142,11 +142,18 @@ describe("DevicePage", () => {
       { ...open, id: "a0000000-0000-4000-8000-000000000000", placement: "right_wrist", from: "2026-06-01T08:00:00.000Z", to: "2026-09-01T08:00:00.000Z" },
       open,
     ];
+    const swapped = { ...open, id: "a0000000-0000-4000-8000-000000000005", placement: "right_shank", from: "2026-11-30T09:00:00.000Z" };
+    let done = false;
+    // After the swap the refetched lists carry the new assignment, so the forms are replaced;
+    // the confirmation must survive that.
     const { calls } = mockApi({
-      "GET /api/devices": devices,
+      "GET /api/devices": () => (done ? devices.map((d) => (d.id === worn.id ? { ...d, assignment: swapped } : d)) : devices),
       "GET /api/patients": patients,
-      [`GET /api/devices/${worn.id}/assignments`]: history,
-      [`POST /api/devices/${worn.id}/assignments/${open.id}/swap`]: { ...open, id: "a0000000-0000-4000-8000-000000000005", placement: "right_shank" },
+      [`GET /api/devices/${worn.id}/assignments`]: () => (done ? [...history.slice(0, 1), { ...open, to: swapped.from }, swapped] : history),
+      [`POST /api/devices/${worn.id}/assignments/${open.id}/swap`]: () => {
+        done = true;
+        return { ended: { ...open, to: swapped.from }, started: swapped };
+      },
     });
     renderAtRoute(<DevicePage />, { ...route, url: `/admin/devices/${worn.id}` });
     const figure = await screen.findByRole("img", { name: /Assignment timeline/ });
@@ -161,7 +168,9 @@ describe("DevicePage", () => {
     expect(within(swap).queryByRole("option", { name: "Left shank" })).toBeNull();
     await userEvent.selectOptions(within(swap).getByLabelText("New placement"), "right_shank");
     await userEvent.click(within(swap).getByRole("button", { name: "Swap placement" }));
-    expect(await within(swap).findByText("Now worn on the right shank.")).toBeTruthy();
+    expect(await screen.findByText(/Now worn on the right shank from/)).toBeTruthy();
+    await vi.waitFor(() => expect(within(screen.getByRole("table")).getAllByRole("row")).toHaveLength(4));
+    expect(screen.getByText(/Now worn on the right shank from/)).toBeTruthy();
     expect(calls.find((c) => c.path.endsWith("/swap"))?.body).toMatchObject({ placement: "right_shank" });
     expect(screen.getByRole("form", { name: "End the current assignment" })).toBeTruthy();
   });

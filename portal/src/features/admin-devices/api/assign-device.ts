@@ -18,10 +18,15 @@ export function assignDevice(deviceId: string, input: AssignDeviceInput): Promis
   return api.post(`/devices/${encodeURIComponent(deviceId)}/assignments`, input, { schema: assignmentSchema });
 }
 
-export function useAssignDevice(deviceId: string) {
+/**
+ * `onAssigned` runs from the mutation itself, not from `mutate(…, {onSuccess})`: the refetch that
+ * follows can unmount the form that asked, and a per-call callback would then never fire.
+ */
+export function useAssignDevice(deviceId: string, onAssigned?: (assignment: Assignment) => void) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: AssignDeviceInput) => assignDevice(deviceId, input),
+    onSuccess: (assignment) => onAssigned?.(assignment),
     onSettled: () => queryClient.invalidateQueries({ queryKey: deviceKeys.all }),
   });
 }

@@ -17,11 +17,16 @@ export function endAssignment(deviceId: string, assignmentId: string, input: End
   });
 }
 
-export function useEndAssignment(deviceId: string) {
+/**
+ * `onEnded` runs from the mutation itself, not from `mutate(…, {onSuccess})`: the refetch that
+ * follows can unmount the form that asked, and a per-call callback would then never fire.
+ */
+export function useEndAssignment(deviceId: string, onEnded?: (assignment: Assignment) => void) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ assignmentId, input }: { assignmentId: string; input: EndAssignmentInput }) =>
       endAssignment(deviceId, assignmentId, input),
+    onSuccess: (assignment) => onEnded?.(assignment),
     onSettled: () => queryClient.invalidateQueries({ queryKey: deviceKeys.all }),
   });
 }

@@ -18,19 +18,28 @@ export type SwapPlacementInput = z.output<typeof swapPlacementInputSchema>;
  * `at` and starts the new one at the same instant in one transaction, so no recording falls between
  * two placements and a refused swap (409) leaves the old assignment untouched.
  */
-export function swapPlacement(deviceId: string, assignmentId: string, input: SwapPlacementInput): Promise<Assignment> {
-  return api.post(
+const swapResultSchema = z.object({ ended: assignmentSchema, started: assignmentSchema });
+
+/** Resolves to the assignment that starts at `at` (the server also returns the one it ended). */
+export async function swapPlacement(deviceId: string, assignmentId: string, input: SwapPlacementInput): Promise<Assignment> {
+  const result = await api.post(
     `/devices/${encodeURIComponent(deviceId)}/assignments/${encodeURIComponent(assignmentId)}/swap`,
     input,
-    { schema: assignmentSchema },
+    { schema: swapResultSchema },
   );
+  return result.started;
 }
 
-export function useSwapPlacement(deviceId: string) {
+/**
+ * `onSwapped` runs from the mutation itself, not from `mutate(…, {onSuccess})`: the refetch that
+ * follows can unmount the form that asked, and a per-call callback would then never fire.
+ */
+export function useSwapPlacement(deviceId: string, onSwapped?: (assignment: Assignment) => void) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ assignmentId, input }: { assignmentId: string; input: SwapPlacementInput }) =>
       swapPlacement(deviceId, assignmentId, input),
+    onSuccess: (assignment) => onSwapped?.(assignment),
     onSettled: () => queryClient.invalidateQueries({ queryKey: deviceKeys.all }),
   });
 }

@@ -1,8 +1,8 @@
 import { useState, type FormEvent } from "react";
 import type { z } from "zod";
-import { Button, FormMessage, SelectField, TextField } from "@/components/ui";
+import { Button, SelectField, TextField } from "@/components/ui";
 import { assignDeviceInputSchema, useAssignDevice } from "../api/assign-device";
-import { toLocalInputValue } from "../api/date-time";
+import { formatInstant, toLocalInputValue } from "../api/date-time";
 import type { Assignment } from "../api/devices";
 import { endAssignmentInputSchema, useEndAssignment } from "../api/end-assignment";
 import { swapPlacementInputSchema, useSwapPlacement } from "../api/swap-placement";
@@ -20,8 +20,10 @@ function issuesToErrors(error: z.ZodError): Errors {
 
 const nowInput = () => toLocalInputValue(new Date());
 
-export function AssignDeviceForm({ deviceId, serial }: { deviceId: string; serial: string }) {
-  const assign = useAssignDevice(deviceId);
+export function AssignDeviceForm({ deviceId, serial, onDone }: { deviceId: string; serial: string; onDone?: (message: string) => void }) {
+  const assign = useAssignDevice(deviceId, (a) =>
+    onDone?.(`${serial} is now on the ${placementLabel(a.placement).toLowerCase()} from ${formatInstant(a.from)}.`),
+  );
   const [patientId, setPatientId] = useState("");
   const [placement, setPlacement] = useState("");
   const [from, setFrom] = useState(nowInput);
@@ -58,11 +60,6 @@ export function AssignDeviceForm({ deviceId, serial }: { deviceId: string; seria
         />
       </div>
       <AssignmentError error={assign.error} />
-      {assign.isSuccess ? (
-        <FormMessage tone="success">
-          Assigned to {placementLabel(assign.data.placement)} from {new Date(assign.data.from).toLocaleString("en-GB")}.
-        </FormMessage>
-      ) : null}
       <div>
         <Button type="submit" busy={assign.isPending}>
           Assign device
@@ -72,8 +69,10 @@ export function AssignDeviceForm({ deviceId, serial }: { deviceId: string; seria
   );
 }
 
-export function EndAssignmentForm({ deviceId, current }: { deviceId: string; current: Assignment }) {
-  const end = useEndAssignment(deviceId);
+export function EndAssignmentForm({ deviceId, current, onDone }: { deviceId: string; current: Assignment; onDone?: (message: string) => void }) {
+  const end = useEndAssignment(deviceId, (a) =>
+    onDone?.(`The ${placementLabel(a.placement).toLowerCase()} assignment ended${a.to ? ` at ${formatInstant(a.to)}` : ""}.`),
+  );
   const [to, setTo] = useState(nowInput);
   const [errors, setErrors] = useState<Errors>({});
 
@@ -107,8 +106,10 @@ export function EndAssignmentForm({ deviceId, current }: { deviceId: string; cur
   );
 }
 
-export function SwapPlacementForm({ deviceId, current }: { deviceId: string; current: Assignment }) {
-  const swap = useSwapPlacement(deviceId);
+export function SwapPlacementForm({ deviceId, current, onDone }: { deviceId: string; current: Assignment; onDone?: (message: string) => void }) {
+  const swap = useSwapPlacement(deviceId, (a) =>
+    onDone?.(`Now worn on the ${placementLabel(a.placement).toLowerCase()} from ${formatInstant(a.from)}.`),
+  );
   const [placement, setPlacement] = useState("");
   const [at, setAt] = useState(nowInput);
   const [errors, setErrors] = useState<Errors>({});
@@ -146,7 +147,6 @@ export function SwapPlacementForm({ deviceId, current }: { deviceId: string; cur
         <TextField label="Swap at" type="datetime-local" value={at} onChange={(e) => setAt(e.target.value)} error={errors.at} hint="Your local time" />
       </div>
       <AssignmentError error={swap.error} />
-      {swap.isSuccess ? <FormMessage tone="success">Now worn on the {placementLabel(swap.data.placement).toLowerCase()}.</FormMessage> : null}
       <div>
         <Button type="submit" variant="secondary" busy={swap.isPending}>
           Swap placement

@@ -17,6 +17,9 @@ const FILLS: Record<string, string> = {
   right_shank: "var(--color-sky)",
   left_wrist: "var(--color-clay)",
   right_wrist: "var(--color-ochre)",
+  left_foot: "var(--color-moss-deep)",
+  right_foot: "var(--color-sky-deep)",
+  lower_back: "var(--color-clay-deep)",
 };
 
 export interface TimelineLane {

@@ -1,5 +1,6 @@
+import { useState } from "react";
 import { Link, useParams } from "react-router-dom";
-import { EmptyState, ErrorState, LoadingState, PageHeader, Section, Table, Td, Th } from "@/components/ui";
+import { EmptyState, ErrorState, FormMessage, LoadingState, PageHeader, Section, Table, Td, Th } from "@/components/ui";
 import { formatInstant } from "../api/date-time";
 import { useDeviceAssignments } from "../api/device-assignments";
 import { patientText, useDevice } from "../api/devices";
@@ -20,6 +21,9 @@ export function DevicePage() {
   const { deviceId = "" } = useParams();
   const device = useDevice(deviceId);
   const history = useDeviceAssignments(deviceId);
+  // Lives here, not in the forms: a successful change swaps which form is shown, and the
+  // confirmation must outlive the form that made it.
+  const [notice, setNotice] = useState<string | null>(null);
 
   if (device.isPending) return <LoadingState label="Loading device…" />;
   if (device.isError) return <ErrorState title="The device could not be loaded" error={device.error} onRetry={() => void device.refetch()} />;
@@ -80,6 +84,14 @@ export function DevicePage() {
       </Section>
 
       <Section id="change" title="Change the assignment">
+        {notice ? (
+          <div className="mb-4">
+            <FormMessage tone="success">
+              <span aria-hidden="true">✓ </span>
+              {notice}
+            </FormMessage>
+          </div>
+        ) : null}
         {retired ? (
           <EmptyState title="Retired device">A retired device cannot be assigned again.</EmptyState>
         ) : open ? (
@@ -88,11 +100,11 @@ export function DevicePage() {
               Worn now by <strong>{patientText(open)}</strong> on the <strong>{placementLabel(open.placement).toLowerCase()}</strong>{" "}
               since {formatInstant(open.from)}.
             </p>
-            <SwapPlacementForm key={`swap-${open.id}`} deviceId={d.id} current={open} />
-            <EndAssignmentForm key={`end-${open.id}`} deviceId={d.id} current={open} />
+            <SwapPlacementForm key={`swap-${open.id}`} deviceId={d.id} current={open} onDone={setNotice} />
+            <EndAssignmentForm key={`end-${open.id}`} deviceId={d.id} current={open} onDone={setNotice} />
           </div>
         ) : (
-          <AssignDeviceForm deviceId={d.id} serial={d.serial} />
+          <AssignDeviceForm deviceId={d.id} serial={d.serial} onDone={setNotice} />
         )}
       </Section>
     </div>
