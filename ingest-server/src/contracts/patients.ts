@@ -23,6 +23,8 @@ export const patientSummary = patientIdentity.extend({
   lastRecordedAt: isoDateTime.nullable(),
   /** Uploads over the last 4 weeks as a share of the expected number (0–100+, null when none expected). */
   adherencePct: z.number().nullable(),
+  /** Flags open on the latest session (beyond MDC, or a coordination event): prompts to look, not diagnoses. */
+  flags: z.array(z.object({ metricKey: z.string(), flag: z.string() })),
   latest: z.object({
     sessionId: z.uuid().nullable(),
     cadenceStepsPerMin: z.number().nullable(),

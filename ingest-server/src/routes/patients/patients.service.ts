@@ -20,6 +20,18 @@ import {
 } from "./patients.repository";
 
 const SUMMARY_KEYS = ["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct"];
+/** Metrics whose change flags and coordination events the caseload table summarises. */
+const CASELOAD_FLAG_KEYS = [
+  "cadenceStepsPerMin",
+  "strideTimeCvPct",
+  "doubleSupportPct",
+  "phaseCoordinationIndexPct",
+  "gaitAsymmetryPct",
+  "armLegLeftArmRightLegFrequencyRatio",
+  "armLegRightArmLeftLegFrequencyRatio",
+  "armLegLeftArmRightLegCouplingStrength",
+  "armLegRightArmLeftLegCouplingStrength",
+];
 const ADHERENCE_WINDOW_WEEKS = 4;
 
 const isoDate = (d: Date | string) => (d instanceof Date ? d.toISOString().slice(0, 10) : String(d).slice(0, 10));
@@ -47,6 +59,39 @@ export function recentAdherencePct(p: PatientRow, dates: string[], now: Date): n
   return Math.round((100 * ended.filter((w) => w.met).length) / ended.length);
 }
 
+type TrendInput = { key: string; unit: string; points: Array<{ sessionId: string; recordedAt: string; value: number }> };
+
+function groupTrendRows(rows: Awaited<ReturnType<typeof trendRows>>): TrendInput[] {
+  const grouped = new Map<string, TrendInput>();
+  for (const r of rows) {
+    let m = grouped.get(r.metric_key);
+    if (!m) grouped.set(r.metric_key, (m = { key: r.metric_key, unit: r.unit, points: [] }));
+    m.points.push({ sessionId: r.session_id, recordedAt: new Date(r.recorded_at).toISOString(), value: Number(r.value) });
+  }
+  return [...grouped.values()].sort((a, b) => METRIC_KEYS.indexOf(a.key) - METRIC_KEYS.indexOf(b.key));
+}
+
+/**
+ * The flags open on a patient's latest session: metrics beyond MDC (improved or worsened) and
+ * coordination events raised by that session — the same rules as the trend page, so the
+ * caseload never disagrees with it. A prompt to look, not a diagnosis.
+ */
+async function latestSessionFlags(deps: AppDeps, p: PatientRow): Promise<Array<{ metricKey: string; flag: string }>> {
+  const metrics = groupTrendRows(await trendRows(deps.db, p.id, CASELOAD_FLAG_KEYS));
+  if (metrics.length === 0) return [];
+  const annotated = annotateTrends({ metrics, patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: isoDate(p.enrolled_on) } });
+  const latestSessionId = metrics
+    .flatMap((m) => m.points)
+    .reduce((a, b) => (a && a.recordedAt >= b.recordedAt ? a : b)).sessionId;
+  const out: Array<{ metricKey: string; flag: string }> = [];
+  for (const m of annotated.metrics) {
+    const last = m.points.at(-1);
+    if (last && last.sessionId === latestSessionId && (last.flag === "improved" || last.flag === "worsened")) out.push({ metricKey: m.key, flag: last.flag });
+  }
+  for (const e of annotated.events) if (e.sessionId === latestSessionId) out.push({ metricKey: e.metricKey, flag: e.kind });
+  return out;
+}
+
 /** Clinician: own caseload with summary columns. Admin: every patient, identity columns only. */
 export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthContext, q?: string) {
   if (auth.role === "admin") {
@@ -58,6 +103,8 @@ export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthCon
   const rows = await listPatients(deps.db, auth.userId, q);
   const ids = rows.map((r) => r.id);
   const [stats, dates, latest] = await Promise.all([sessionStats(deps.db, ids), sessionDates(deps.db, ids), latestMetrics(deps.db, ids, SUMMARY_KEYS)]);
+  const flags = new Map<string, Array<{ metricKey: string; flag: string }>>();
+  for (const p of rows) flags.set(p.id, await latestSessionFlags(deps, p));
   const now = new Date();
   await audit(deps.db, req, { action: "patient.list", resourceType: "patient", details: { count: rows.length, view: "caseload" } });
   return {
@@ -74,6 +121,7 @@ export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthCon
         lastUploadAt: isoOrNull(s?.last_upload_at),
         lastRecordedAt: isoOrNull(s?.last_recorded_at),
         adherencePct: recentAdherencePct(p, dates.get(p.id) ?? [], now),
+        flags: flags.get(p.id) ?? [],
         latest: {
           sessionId: l?.sessionId ?? null,
           cadenceStepsPerMin: l?.values.cadenceStepsPerMin ?? null,
@@ -126,14 +174,8 @@ export async function getTrends(deps: AppDeps, req: Request, auth: AuthContext, 
   const keys = parseKeys(query.metrics);
   const p = (await findPatient(deps.db, id))!;
   const rows = await trendRows(deps.db, id, keys, query.from, query.to);
-  const grouped = new Map<string, { key: string; unit: string; points: Array<{ sessionId: string; recordedAt: string; value: number }> }>();
-  for (const r of rows) {
-    let m = grouped.get(r.metric_key);
-    if (!m) grouped.set(r.metric_key, (m = { key: r.metric_key, unit: r.unit, points: [] }));
-    m.points.push({ sessionId: r.session_id, recordedAt: new Date(r.recorded_at).toISOString(), value: Number(r.value) });
-  }
   // Catalogue order, so the portal's metric list is stable.
-  const ordered = [...grouped.values()].sort((a, b) => METRIC_KEYS.indexOf(a.key) - METRIC_KEYS.indexOf(b.key));
+  const ordered = groupTrendRows(rows);
   const annotated = annotateTrends({
     metrics: ordered,
     patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: isoDate(p.enrolled_on) },
