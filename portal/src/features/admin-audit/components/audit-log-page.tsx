@@ -11,6 +11,10 @@ import {
   type AuditQuery,
 } from "../api/audit-events";
 
+function formatAt(iso: string): string {
+  return new Date(iso).toLocaleString("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", second: "2-digit" });
+}
+
 function detailsText(details: AuditEventView["details"]): string {
   if (!details) return "";
   return Object.entries(details)
@@ -93,7 +97,7 @@ export function AuditLogPage() {
               {events.data.items.map((e) => (
                 <tr key={e.id}>
                   <Td className="whitespace-nowrap tabular text-xs">
-                    <time dateTime={e.at}>{new Date(e.at).toLocaleString("en-GB")}</time>
+                    <time dateTime={e.at}>{formatAt(e.at)}</time>
                   </Td>
                   <Td className="text-xs">
                     <span className="block font-semibold text-ink">{e.actorEmail ?? "system"}</span>

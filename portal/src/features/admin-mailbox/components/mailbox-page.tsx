@@ -43,7 +43,7 @@ function MessageCard({ message, expanded, onToggle }: { message: CapturedMessage
             To <span className="font-semibold text-ink">{message.to.join(", ")}</span> · from {message.from}
           </p>
           <p className="text-xs text-ink-faint tabular">
-            <time dateTime={message.receivedAt}>{new Date(message.receivedAt).toLocaleString("en-GB")}</time>
+            <time dateTime={message.receivedAt}>{new Date(message.receivedAt).toLocaleString("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", second: "2-digit" })}</time>
           </p>
         </div>
         <div className="flex items-center gap-2">

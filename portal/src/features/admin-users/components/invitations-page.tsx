@@ -62,11 +62,11 @@ export function InvitationsPage() {
               {invitations.data.map((inv) => (
                 <tr key={inv.id}>
                   <Td className="font-semibold">{inv.displayName}</Td>
-                  <Td className="break-all">{inv.email}</Td>
+                  <Td className="whitespace-nowrap">{inv.email}</Td>
                   <Td>{ROLE_LABEL[inv.role] ?? inv.role}</Td>
                   <Td>{stateOf(inv, now)}</Td>
-                  <Td className="tabular text-xs">{formatWhen(inv.createdAt)}</Td>
-                  <Td className="tabular text-xs">{formatWhen(inv.expiresAt)}</Td>
+                  <Td className="whitespace-nowrap tabular text-xs">{formatWhen(inv.createdAt)}</Td>
+                  <Td className="whitespace-nowrap tabular text-xs">{formatWhen(inv.expiresAt)}</Td>
                 </tr>
               ))}
             </tbody>

@@ -28,7 +28,7 @@ export function UserRowEditor({ user, isSelf }: { user: UserSummary; isSelf: boo
   }
 
   return (
-    <form onSubmit={submit} className="flex flex-wrap items-center gap-2" aria-label={`Change ${user.displayName}`}>
+    <form onSubmit={submit} className="flex min-w-max flex-wrap items-center gap-2" aria-label={`Change ${user.displayName}`}>
       {staff ? (
         <label className="flex items-center gap-1 text-xs font-semibold text-ink-soft">
           Role

@@ -105,12 +105,12 @@ export function UsersPage() {
               {users.data.items.map((u) => (
                 <tr key={u.id}>
                   <Td className="font-semibold">{u.displayName}</Td>
-                  <Td className="break-all">{u.email}</Td>
+                  <Td className="whitespace-nowrap">{u.email}</Td>
                   <Td>{ROLE_LABEL[u.role] ?? u.role}</Td>
                   <Td>
                     <Badge tone={STATUS_BADGE[u.status]?.tone ?? "neutral"}>{STATUS_BADGE[u.status]?.label ?? u.status}</Badge>
                   </Td>
-                  <Td className="tabular text-xs">{formatWhen(u.lastLoginAt)}</Td>
+                  <Td className="whitespace-nowrap tabular text-xs">{formatWhen(u.lastLoginAt)}</Td>
                   <Td>
                     <UserRowEditor key={`${u.id}-${u.role}-${u.status}`} user={u} isSelf={me?.id === u.id} />
                   </Td>
