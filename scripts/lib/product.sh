@@ -48,7 +48,7 @@ product_env() {
 start_fakes() {
   local log="$PENDULA_DATA/fakes.log"
   : >"$log"
-  (cd "$ROOT" && exec npx tsx ingest-server/src/dev/fakes.ts --data "$PENDULA_DATA/fakes" \
+  (cd "$ROOT" && exec "$ROOT/node_modules/.bin/tsx" ingest-server/src/dev/fakes.ts --data "$PENDULA_DATA/fakes" \
     --s3-port "$PENDULA_S3_PORT" --smtp-port "$PENDULA_SMTP_PORT") >>"$log" 2>&1 &
   PRODUCT_PIDS+=($!)
   wait_for_line "$log" "fakes ready" 60 || { log "object-storage/e-mail fakes did not start:"; cat "$log" >&2; return 1; }
@@ -56,9 +56,9 @@ start_fakes() {
 
 migrate_and_seed() {
   pg_ensure_database "$PENDULA_DB"
-  (cd "$ROOT" && npx tsx db/src/migrate.ts)
+  (cd "$ROOT" && "$ROOT/node_modules/.bin/tsx" db/src/migrate.ts)
   # PENDULA_SEED_MAX_WEEKS shortens each patient's history (the browser tests use 8 weeks).
-  (cd "$ROOT" && npx tsx ingest-server/src/dev/seed-demo.ts --if-empty ${PENDULA_SEED_MAX_WEEKS:+--max-weeks "$PENDULA_SEED_MAX_WEEKS"})
+  (cd "$ROOT" && "$ROOT/node_modules/.bin/tsx" ingest-server/src/dev/seed-demo.ts --if-empty ${PENDULA_SEED_MAX_WEEKS:+--max-weeks "$PENDULA_SEED_MAX_WEEKS"})
 }
 
 build_portal() {
@@ -69,20 +69,32 @@ build_portal() {
 start_services() {
   local slog="$PENDULA_DATA/server.log" wlog="$PENDULA_DATA/worker.log"
   : >"$slog"; : >"$wlog"
-  (cd "$ROOT" && exec npx tsx ingest-server/src/worker.ts) >>"$wlog" 2>&1 &
+  (cd "$ROOT" && exec "$ROOT/node_modules/.bin/tsx" ingest-server/src/worker.ts) >>"$wlog" 2>&1 &
   PRODUCT_PIDS+=($!)
-  (cd "$ROOT" && exec npx tsx ingest-server/src/server.ts) >>"$slog" 2>&1 &
+  (cd "$ROOT" && exec "$ROOT/node_modules/.bin/tsx" ingest-server/src/server.ts) >>"$slog" 2>&1 &
   PRODUCT_PIDS+=($!)
   wait_for_line "$slog" "^http://127.0.0.1:$PENDULA_PORT\$" 60 || { log "server did not start:"; cat "$slog" >&2; return 1; }
 }
 
+# Every descendant of a pid, deepest first (tsx runs the script in a child node process).
+descendants() {
+  local child
+  for child in $(pgrep -P "$1" 2>/dev/null); do descendants "$child"; echo "$child"; done
+}
+
 stop_product() {
-  local pid
+  local pid all=()
   for pid in "${PRODUCT_PIDS[@]:-}"; do
-    [ -n "$pid" ] && kill -TERM "$pid" 2>/dev/null || true
+    [ -n "$pid" ] || continue
+    all+=($(descendants "$pid") "$pid")
   done
-  for pid in "${PRODUCT_PIDS[@]:-}"; do
-    [ -n "$pid" ] && wait "$pid" 2>/dev/null || true
+  [ ${#all[@]} -gt 0 ] || return 0
+  kill -TERM "${all[@]}" 2>/dev/null || true
+  for _ in $(seq 1 100); do
+    kill -0 "${all[@]}" 2>/dev/null || break
+    sleep 0.1
   done
+  kill -KILL "${all[@]}" 2>/dev/null || true
+  for pid in "${PRODUCT_PIDS[@]:-}"; do [ -n "$pid" ] && wait "$pid" 2>/dev/null || true; done
   PRODUCT_PIDS=()
 }
