@@ -110,11 +110,11 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
     if (axis.angleFromNominalDeg > MISALIGNMENT_INFO_DEG) {
       quality.push({ code: "misalignment", severity: "info", placement, message: `${placement} sagittal axis is ${axis.angleFromNominalDeg.toFixed(0)}° from the nominal +z axis; corrected from the walking data` });
     }
-    let omega = projectOnAxis(s.gyroX, s.gyroY, s.gyroZ, axis.axis);
+    const omega = projectOnAxis(s.gyroX, s.gyroY, s.gyroZ, axis.axis);
     const isFoot = placement.endsWith("_foot");
     const inversion = isFoot ? detectInvertedFoot(omega, mask) : detectInvertedShank(omega, mask);
     if (inversion.inverted) {
-      omega = projectOnAxis(s.gyroX, s.gyroY, s.gyroZ, axis.axis, -1);
+      for (let i = 0; i < omega.length; i++) omega[i] = -omega[i]!;
       quality.push({ code: "inverted-sensor", severity: "warning", placement, message: `${placement} appears to be worn upside down or back to front (swing rotation has the wrong sign); the signal was inverted before analysis` });
     }
     const events = isFoot ? detectFootEvents(omega, mask, fs) : detectShankEvents(omega, mask, fs);

@@ -1,4 +1,4 @@
-import { quantileOfMasked } from "./quantile";
+import { quantilesOfMasked } from "./quantile";
 
 export interface InversionCheck {
   inverted: boolean;
@@ -15,9 +15,9 @@ export interface InversionCheck {
  * down or back to front and the signal must be negated.
  */
 export function detectInvertedShank(omegaDegS: ArrayLike<number>, mask: Uint8Array): InversionCheck {
-  const upper = quantileOfMasked(omegaDegS, mask, 0.99);
-  const lower = quantileOfMasked(omegaDegS, mask, 0.01);
-  if (upper === null || lower === null) return { inverted: false, upperDegS: 0, lowerDegS: 0 };
+  const tails = quantilesOfMasked(omegaDegS, mask, [0.99, 0.01]);
+  if (tails === null) return { inverted: false, upperDegS: 0, lowerDegS: 0 };
+  const [upper, lower] = tails as [number, number];
   return { inverted: -lower > upper, upperDegS: upper, lowerDegS: -lower };
 }
 
@@ -29,9 +29,9 @@ export function detectInvertedShank(omegaDegS: ArrayLike<number>, mask: Uint8Arr
  * T = 20 % of the larger percentile (common practice; checked on open walking data).
  */
 export function detectInvertedFoot(omegaDegS: ArrayLike<number>, mask: Uint8Array): InversionCheck {
-  const upper = quantileOfMasked(omegaDegS, mask, 0.99);
-  const lower = quantileOfMasked(omegaDegS, mask, 0.01);
-  if (upper === null || lower === null) return { inverted: false, upperDegS: 0, lowerDegS: 0 };
+  const tails = quantilesOfMasked(omegaDegS, mask, [0.99, 0.01]);
+  if (tails === null) return { inverted: false, upperDegS: 0, lowerDegS: 0 };
+  const [upper, lower] = tails as [number, number];
   const t = 0.2 * Math.max(upper, -lower);
   let posRuns = 0;
   let posLen = 0;

@@ -1,3 +1,3 @@
 export { sagittalAxis, projectOnAxis, MIN_AXIS_SAMPLES, type SagittalAxis } from "./sagittal-axis";
 export { detectInvertedShank, detectInvertedFoot, type InversionCheck } from "./detect-inverted-segment";
-export { quantileOfMasked } from "./quantile";
+export { quantileOfMasked, quantilesOfMasked } from "./quantile";

@@ -7,6 +7,11 @@ const MAX_QUANTILE_SAMPLES = 65_536;
  * is accurate enough for the thresholds it feeds.
  */
 export function quantileOfMasked(values: ArrayLike<number>, mask: Uint8Array | null, q: number): number | null {
+  return quantilesOfMasked(values, mask, [q])?.[0] ?? null;
+}
+
+/** Several quantiles of the same masked values (one subsample, one sort); null when none. */
+export function quantilesOfMasked(values: ArrayLike<number>, mask: Uint8Array | null, qs: readonly number[]): number[] | null {
   const n = values.length;
   let count = 0;
   for (let i = 0; i < n; i++) if (!mask || mask[i]) count++;
@@ -21,8 +26,10 @@ export function quantileOfMasked(values: ArrayLike<number>, mask: Uint8Array | n
     seen++;
   }
   const sorted = buf.subarray(0, m).sort();
-  const pos = q * (m - 1);
-  const lo = Math.floor(pos);
-  const hi = Math.min(m - 1, lo + 1);
-  return sorted[lo]! + (sorted[hi]! - sorted[lo]!) * (pos - lo);
+  return qs.map((q) => {
+    const pos = q * (m - 1);
+    const lo = Math.floor(pos);
+    const hi = Math.min(m - 1, lo + 1);
+    return sorted[lo]! + (sorted[hi]! - sorted[lo]!) * (pos - lo);
+  });
 }

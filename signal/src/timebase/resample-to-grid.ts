@@ -53,7 +53,8 @@ export function intervalSpreadLimit(t: Float64Array, k: number): number {
 /**
  * Linear resampling of one recording onto the session grid in one forward pass (O(n + m)). Grid
  * samples outside the recording, or between two samples further apart than MAX_INTERPOLATED_GAP_S,
- * are marked invalid and set to 0.
+ * are marked invalid and set to 0. The accelerometer channels are computed on first access (same
+ * values either way), so callers that only need the gyroscope never allocate them.
  */
 export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: number): ResampledSensor {
   const offset = grid.offsetsS[index] ?? 0;
@@ -61,8 +62,6 @@ export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: n
   const n = t.length;
   const m = grid.length;
   const fs = grid.sampleRateHz;
-  const src = [rec.accX, rec.accY, rec.accZ, rec.gyroX, rec.gyroY, rec.gyroZ];
-  const out = src.map(() => new Float32Array(m));
   const valid = new Uint8Array(m);
 
   const period = 1 / rec.nominalSampleRateHz;
@@ -90,9 +89,59 @@ export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: n
   const last = offset + t[n - 1]!;
   const kStart = Math.max(0, Math.ceil((first - 1e-9) * fs));
   const kEnd = Math.min(m - 1, Math.floor((last + 1e-9) * fs));
-  // One pass, the six channels unrolled (no per-sample channel array look-ups, no index buffers).
-  const [ax, ay, az, gx, gy, gz] = src as [Float32Array, Float32Array, Float32Array, Float32Array, Float32Array, Float32Array];
-  const [oax, oay, oaz, ogx, ogy, ogz] = out as [Float32Array, Float32Array, Float32Array, Float32Array, Float32Array, Float32Array];
+  const grid3 = (x: Float32Array, y: Float32Array, z: Float32Array, mark: Uint8Array | null) =>
+    interpolateOnGrid(t, x, y, z, fs, offset, kStart, kEnd, m, mark);
+  const [gyroX, gyroY, gyroZ] = grid3(rec.gyroX, rec.gyroY, rec.gyroZ, valid);
+  // The accelerometer is interpolated on first use: analyze() reads it only for the yaw of the
+  // leg (or lower-back) sensors, so the wrists' 3 × 4 bytes × grid samples are never allocated.
+  let acc: [Float32Array, Float32Array, Float32Array] | null = null;
+  const accAxis = (c: number): Float32Array => (acc ??= grid3(rec.accX, rec.accY, rec.accZ, null))[c]!;
+  return {
+    fileName: rec.fileName,
+    placement: rec.placement,
+    nominalSampleRateHz: rec.nominalSampleRateHz,
+    effectiveSampleRateHz,
+    get accX() {
+      return accAxis(0);
+    },
+    get accY() {
+      return accAxis(1);
+    },
+    get accZ() {
+      return accAxis(2);
+    },
+    gyroX,
+    gyroY,
+    gyroZ,
+    valid,
+    gaps,
+    invalidSpans,
+    coveredFromS: first,
+    coveredToS: last,
+  };
+}
+
+/**
+ * Three channels linearly interpolated onto grid samples kStart…kEnd (k / fs − offset on the
+ * recording's clock); samples inside a gap longer than MAX_INTERPOLATED_GAP_S stay 0. When `mark`
+ * is given, the interpolated samples are set to 1 in it. The three channels are unrolled in one pass.
+ */
+function interpolateOnGrid(
+  t: Float64Array,
+  x: Float32Array,
+  y: Float32Array,
+  z: Float32Array,
+  fs: number,
+  offset: number,
+  kStart: number,
+  kEnd: number,
+  m: number,
+  mark: Uint8Array | null,
+): [Float32Array, Float32Array, Float32Array] {
+  const n = t.length;
+  const ox = new Float32Array(m);
+  const oy = new Float32Array(m);
+  const oz = new Float32Array(m);
   let j = 0;
   for (let k = kStart; k <= kEnd; k++) {
     const tl = k / fs - offset;
@@ -103,36 +152,13 @@ export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: n
     if (span > MAX_INTERPOLATED_GAP_S + 1e-9 && tl > t0 + 1e-9 && tl < t1 - 1e-9) continue;
     const w = span > 0 ? Math.min(1, Math.max(0, (tl - t0) / span)) : 0;
     const r = j + 1 < n ? j + 1 : n - 1;
-    let v = ax[j]!;
-    oax[k] = v + (ax[r]! - v) * w;
-    v = ay[j]!;
-    oay[k] = v + (ay[r]! - v) * w;
-    v = az[j]!;
-    oaz[k] = v + (az[r]! - v) * w;
-    v = gx[j]!;
-    ogx[k] = v + (gx[r]! - v) * w;
-    v = gy[j]!;
-    ogy[k] = v + (gy[r]! - v) * w;
-    v = gz[j]!;
-    ogz[k] = v + (gz[r]! - v) * w;
-    valid[k] = 1;
+    let v = x[j]!;
+    ox[k] = v + (x[r]! - v) * w;
+    v = y[j]!;
+    oy[k] = v + (y[r]! - v) * w;
+    v = z[j]!;
+    oz[k] = v + (z[r]! - v) * w;
+    if (mark) mark[k] = 1;
   }
-
-  return {
-    fileName: rec.fileName,
-    placement: rec.placement,
-    nominalSampleRateHz: rec.nominalSampleRateHz,
-    effectiveSampleRateHz,
-    accX: out[0]!,
-    accY: out[1]!,
-    accZ: out[2]!,
-    gyroX: out[3]!,
-    gyroY: out[4]!,
-    gyroZ: out[5]!,
-    valid,
-    gaps,
-    invalidSpans,
-    coveredFromS: first,
-    coveredToS: last,
-  };
+  return [ox, oy, oz];
 }
