@@ -1,6 +1,7 @@
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
 import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, settle, type TestPage } from "./support/browser";
+import { tabTo } from "./support/keyboard";
 import { apiGet, apiToken, signIn } from "./support/sign-in";
 
 interface Assignment {
@@ -98,7 +99,10 @@ describe("an admin manages devices and their assignments", () => {
     expect(await table.getByText("In stock").count()).toBeGreaterThanOrEqual(2);
     expect(await table.getByText("Assigned").count()).toBeGreaterThan(0);
     await saveScreenshot(page, "admin-device-inventory");
-    await page.getByRole("button", { name: /^\d+ in stock/ }).click();
+    // The status filter buttons work from the keyboard and show where the focus is.
+    const focus = await tabTo(page, /^\d+ in stock/);
+    expect(focus.outlineStyle).not.toBe("none");
+    await page.keyboard.press("Enter");
     await page.getByText(`Showing ${spares.length} of`).waitFor();
     await saveScreenshot(page, "admin-device-spares");
   });

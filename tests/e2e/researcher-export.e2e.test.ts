@@ -2,6 +2,7 @@ import { readFile } from "node:fs/promises";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
 import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, type TestPage } from "./support/browser";
+import { tabTo } from "./support/keyboard";
 import { apiGet, apiToken, signIn } from "./support/sign-in";
 
 let browser: Browser;
@@ -30,7 +31,12 @@ describe("a researcher previews a cohort and downloads the anonymised export", (
     }
     await page.getByRole("button", { name: "Select all bands" }).click();
     await page.getByLabel("To week").fill("200");
-    await page.getByRole("button", { name: "Preview cohort" }).click();
+    // Keyboard only from here: reach the button with Tab, see its focus ring, press Enter.
+    await page.getByRole("button", { name: "Select all bands" }).focus();
+    const focus = await tabTo(page, /^Preview cohort$/);
+    expect(focus.outlineStyle).not.toBe("none");
+    expect(parseFloat(focus.outlineWidth)).toBeGreaterThanOrEqual(2);
+    await page.keyboard.press("Enter");
     const table = page.getByRole("table");
     await table.waitFor();
     // The seed clusters ages so some cells reach k = 5 and leaves a few below it (db/seeds/demo-scenario.ts).
