@@ -64,8 +64,9 @@ export const DEFAULT_RETRY: Required<Omit<SendOptions, "singletonKey">> = { retr
  */
 export class PgBossQueue implements JobQueue {
   private readonly boss: PgBoss;
-  private readonly created = new Set<string>();
+  private readonly created = new Map<string, Promise<void>>();
   private started = false;
+  private starting: Promise<void> | undefined;
 
   private readonly policies: Partial<Record<string, "standard" | "stately">>;
 
@@ -97,22 +98,38 @@ export class PgBossQueue implements JobQueue {
   }
 
   async start(): Promise<void> {
-    if (this.started) return;
-    await this.boss.start();
-    this.started = true;
+    // One shared start: concurrent first sends (a burst of uploads after boot) must all wait for
+    // pg-boss to create its schema; pg-boss itself returns at once to a second caller while starting.
+    this.starting ??= this.boss.start().then(
+      () => {
+        this.started = true;
+      },
+      (err: unknown) => {
+        this.starting = undefined;
+        throw err;
+      },
+    );
+    await this.starting;
   }
 
   async stop(): Promise<void> {
+    if (this.starting) await this.starting.catch(() => undefined);
     if (!this.started) return;
     this.started = false;
+    this.starting = undefined;
     await this.boss.stop({ graceful: true, wait: true, timeout: 10_000 });
   }
 
   /** pg-boss 10 needs a queue to exist before send/work; creating it is idempotent. */
   private async ensureQueue(name: string): Promise<void> {
-    if (this.created.has(name)) return;
-    await this.boss.createQueue(name, { name, policy: this.policies[name] ?? "standard", ...DEFAULT_RETRY });
-    this.created.add(name);
+    // Shared per name, like start(): concurrent senders wait for the one createQueue.
+    let created = this.created.get(name);
+    if (!created) {
+      created = this.boss.createQueue(name, { name, policy: this.policies[name] ?? "standard", ...DEFAULT_RETRY });
+      this.created.set(name, created);
+      created.catch(() => this.created.delete(name));
+    }
+    await created;
   }
 
   async send(name: string, data: object, options: SendOptions = {}): Promise<string | null> {
