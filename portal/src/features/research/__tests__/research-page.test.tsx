@@ -4,10 +4,15 @@ import userEvent from "@testing-library/user-event";
 import { apiError, json, mockApi, renderWithQuery } from "@/testing/feature-test-kit";
 import { ResearchPage } from "../components/research-page";
 import { cohortDefinitionSchema, DEFAULT_COHORT } from "../api/cohort-definition";
+import { cohortPreviewSchema } from "../api/preview-cohort";
 import { exportQuery } from "../api/download-cohort-export";
 
+const totals = { subjects: 12, sessions: 101, suppressedCells: 1 };
 const preview = {
   k: 5,
+  definition: DEFAULT_COHORT,
+  metrics: DEFAULT_COHORT.metrics,
+  totals,
   cells: [
     { condition: "stroke", ageBand: "60-64", suppressed: false, subjects: 7, sessions: 61 },
     { condition: "stroke", ageBand: "90+", suppressed: true, subjects: null, sessions: null },
@@ -24,6 +29,11 @@ describe("cohortDefinitionSchema", () => {
   it("rejects a week range that ends before it starts", () => {
     const result = cohortDefinitionSchema.safeParse({ ...DEFAULT_COHORT, weeksSinceEnrolment: { from: 10, to: 4 } });
     expect(result.success).toBe(false);
+  });
+  it("offers the server's band form, with 90+ as the last band", () => {
+    expect(DEFAULT_COHORT.ageBands[0]).toBe("15-19");
+    expect(DEFAULT_COHORT.ageBands.at(-1)).toBe("90+");
+    expect(DEFAULT_COHORT.ageBands.at(-2)).toBe("85-89");
   });
   it("rejects an age band that is not a 5-year band", () => {
     expect(cohortDefinitionSchema.safeParse({ ...DEFAULT_COHORT, ageBands: ["61-63"] }).success).toBe(false);
@@ -67,7 +77,7 @@ describe("ResearchPage", () => {
   });
 
   it("says so when no subject matches", async () => {
-    mockApi({ "POST /api/research/cohorts": { k: 5, cells: [] } });
+    mockApi({ "POST /api/research/cohorts": { ...preview, cells: [], totals: { subjects: 0, sessions: 0, suppressedCells: 0 } } });
     renderWithQuery(<ResearchPage />);
     await userEvent.click(screen.getByRole("button", { name: "Preview cohort" }));
     expect(await screen.findByText(/No consenting subjects match/)).toBeTruthy();
@@ -105,6 +115,13 @@ describe("ResearchPage", () => {
     await userEvent.click(screen.getByRole("button", { name: "Download FHIR bundle" }));
     expect(await screen.findByText(/The export failed/)).toBeTruthy();
     expect(URL.createObjectURL).not.toHaveBeenCalled();
+  });
+});
+
+describe("cohortPreviewSchema", () => {
+  it("refuses a preview whose cells are missing their counts field", () => {
+    const broken = { ...preview, cells: [{ condition: "stroke", ageBand: "60-64", suppressed: false }] };
+    expect(cohortPreviewSchema.safeParse(broken).success).toBe(false);
   });
 });
 

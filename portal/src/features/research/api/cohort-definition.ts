@@ -11,9 +11,13 @@ export const CONDITION_OPTIONS = [
   { value: "other", label: "Other condition" },
 ] as const;
 
-/** 5-year bands with everyone 90 or older in one group (HIPAA Safe Harbor, 45 CFR 164.514(b)(2)(i)(C)). */
+/**
+ * 5-year bands with everyone 90 or older in one group (HIPAA Safe Harbor, 45 CFR
+ * 164.514(b)(2)(i)(C)), in the server's "60-64" / "90+" form. Enrolment is for adults, so the
+ * list starts at the band holding 18 and 19.
+ */
 export const AGE_BAND_OPTIONS: readonly string[] = [
-  ...Array.from({ length: 14 }, (_, i) => `${20 + i * 5}-${24 + i * 5}`),
+  ...Array.from({ length: 15 }, (_, i) => `${15 + i * 5}-${19 + i * 5}`),
   "90+",
 ];
 

@@ -1,28 +1,18 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import { z } from "zod";
+import type { z } from "zod";
+import { cohortPreview } from "@pendula/ingest-server/contracts";
 import { api } from "@/lib/api-client";
 import { cohortDefinitionSchema, type CohortDefinition } from "./cohort-definition";
 import { researchKeys } from "./research-keys";
 
 export { cohortDefinitionSchema };
 
-// A cell is one condition × age band group. A suppressed cell carries no counts at all: the server
-// withholds them, and the portal must not be able to show a number it was never sent.
-const previewCellSchema = z.object({
-  condition: z.string(),
-  ageBand: z.string(),
-  suppressed: z.boolean(),
-  subjects: z.number().int().nullable().optional(),
-  sessions: z.number().int().nullable().optional(),
-});
+// The server's own contract: a suppressed cell carries null counts, so the portal cannot show a
+// number it was never sent.
+export const cohortPreviewSchema = cohortPreview;
 
-export const cohortPreviewSchema = z.object({
-  k: z.number().int().positive().default(5),
-  cells: z.array(previewCellSchema),
-});
-
-export type CohortPreview = z.infer<typeof cohortPreviewSchema>;
-export type CohortPreviewCell = z.infer<typeof previewCellSchema>;
+export type CohortPreview = z.infer<typeof cohortPreview>;
+export type CohortPreviewCell = CohortPreview["cells"][number];
 
 export function previewCohort(definition: CohortDefinition, signal?: AbortSignal): Promise<CohortPreview> {
   return api.post("/research/cohorts", definition, { schema: cohortPreviewSchema, signal });
