@@ -1,6 +1,7 @@
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
 import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, settle, type TestPage } from "./support/browser";
+import { baseUrl } from "./support/env";
 import { signIn } from "./support/sign-in";
 
 let browser: Browser;
@@ -47,13 +48,35 @@ describe("admin users, invitations, audit log and mailbox", () => {
     const link = message.getByRole("link").filter({ hasText: /accept|invit|token/i }).first();
     await link.waitFor();
     await saveScreenshot(page, "admin-mailbox");
-    await link.click();
-    await page.waitForURL(/accept-invitation/);
-    expect(new URL(page.url()).pathname).toContain("accept-invitation");
-    await settle(page);
-    await saveScreenshot(page, "accept-invitation");
-  });
+    const href = await link.getAttribute("href");
+    expect(href).toMatch(/\/accept-invitation\?token=/);
 
+    // The invitee opens the link in their own browser, not in the admin's signed-in one.
+    const invitee = await openPage(browser);
+    try {
+      const p = invitee.page;
+      await p.goto(href!);
+      await p.getByRole("button", { name: "Set password" }).waitFor();
+      await settle(p);
+      await saveScreenshot(p, "accept-invitation");
+      const password = "e2e-walk-along-2026";
+      await p.getByLabel("New password").fill(password);
+      await p.getByLabel("Type it again").fill(password);
+      await p.getByRole("button", { name: "Set password" }).click();
+      await expect
+        .poll(async () => {
+          const res = await fetch(`${baseUrl()}/api/auth/login`, {
+            method: "POST",
+            headers: { "content-type": "application/json" },
+            body: JSON.stringify({ email, password }),
+          });
+          return res.status;
+        }, { timeout: 20_000 })
+        .toBe(200);
+    } finally {
+      await invitee.context.close();
+    }
+  });
   it("filters the audit log by an action prefix", async () => {
     const { page } = t;
     await page.goto("/admin/audit");
