@@ -1,6 +1,7 @@
 import type { Knex } from "knex";
 import * as coreSchema from "../migrations/20261201090000_core_schema";
 import * as sessionTraces from "../migrations/20261201110000_session_traces";
+import * as revokedAccessTokens from "../migrations/20261201130000_revoked_access_tokens";
 
 /**
  * Migrations are listed here with static imports rather than discovered on disk, so the same
@@ -10,6 +11,7 @@ import * as sessionTraces from "../migrations/20261201110000_session_traces";
 export const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261201090000_core_schema": coreSchema,
   "20261201110000_session_traces": sessionTraces,
+  "20261201130000_revoked_access_tokens": revokedAccessTokens,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -14,7 +14,8 @@ export interface AuthContext {
 
 /**
  * Bearer access JWT → `req.auth`. The signature proves who issued the token; the one-row lookup
- * makes disabling a user or changing their role take effect at once instead of after the token's TTL.
+ * makes disabling a user, changing their role or signing out take effect at once instead of after
+ * the token's TTL.
  */
 export function authenticate(db: Knex, jwtSecret: string): RequestHandler {
   return async (req, _res, next) => {
@@ -22,8 +23,10 @@ export function authenticate(db: Knex, jwtSecret: string): RequestHandler {
     const match = header ? /^Bearer ([A-Za-z0-9._~+/=-]+)$/.exec(header) : null;
     if (!match?.[1]) throw new HttpError(401, "unauthorized", "sign-in required (Authorization: Bearer <token>)");
     const claims = await verifyAccessToken(match[1], jwtSecret);
-    const user = await db("users").where({ id: claims.userId }).first("status", "role");
-    if (!user || user.status !== "active" || user.role !== claims.role) {
+    const user = await db("users")
+      .where({ id: claims.userId })
+      .first("status", "role", db.raw("EXISTS (SELECT 1 FROM revoked_access_tokens r WHERE r.jti = ?) AS revoked", [claims.tokenId]));
+    if (!user || user.status !== "active" || user.role !== claims.role || user.revoked) {
       throw new HttpError(401, "invalid_token", "access token no longer valid; sign in again");
     }
     req.auth = claims;

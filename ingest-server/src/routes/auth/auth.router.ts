@@ -56,6 +56,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
     res.cookie(REFRESH_COOKIE, s.refreshToken, { ...cookieBase, expires: s.refreshExpiresAt });
     return s.body;
   };
+  const bearerToken = (req: Request): string | undefined => /^Bearer (\S+)$/.exec(req.headers.authorization ?? "")?.[1];
   const cookieToken = (req: Request): string | undefined => {
     const v = (req.cookies as Record<string, unknown> | undefined)?.[REFRESH_COOKIE];
     return typeof v === "string" && v.length > 0 ? v : undefined;
@@ -94,7 +95,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       access: "public",
       status: 204,
       handler: async (_input, req, res) => {
-        await service.logout(cookieToken(req), req);
+        await service.logout(cookieToken(req), req, bearerToken(req));
         res.clearCookie(REFRESH_COOKIE, cookieBase);
         res.status(204).end();
       },

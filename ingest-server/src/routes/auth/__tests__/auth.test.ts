@@ -221,6 +221,21 @@ describe("refresh and sign-out", () => {
     // Signing out twice, or without a cookie, is harmless.
     expect((await request(ctx.app).post("/api/auth/logout")).status).toBe(204);
   });
+
+  it("sign-out also ends the access token presented with it, at once rather than at its expiry", async () => {
+    const u = await ctx.seedUser({ role: "clinician" });
+    const login = await request(ctx.app).post("/api/auth/login").send({ email: u.email, password: u.password });
+    const bearer = { Authorization: `Bearer ${login.body.accessToken}` };
+    expect((await request(ctx.app).get("/api/me").set(bearer)).status).toBe(200);
+    const cookie = refreshCookie(login)!.split(";")[0]!;
+    expect((await request(ctx.app).post("/api/auth/logout").set(bearer).set("Cookie", cookie)).status).toBe(204);
+    const after = await request(ctx.app).get("/api/me").set(bearer);
+    expect(after.status).toBe(401);
+    expect(after.body.error.code).toBe("invalid_token");
+    // A second sign-in gets a fresh token that works.
+    const again = await request(ctx.app).post("/api/auth/login").send({ email: u.email, password: u.password });
+    expect((await request(ctx.app).get("/api/me").set({ Authorization: `Bearer ${again.body.accessToken}` })).status).toBe(200);
+  });
 });
 
 describe("password reset", () => {
