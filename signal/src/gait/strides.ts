@@ -81,23 +81,28 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
       ...(excludedReason ? { excludedReason } : {}),
     });
   }
-  // First and last stride of each bout (and strides outside any bout) are bout edges.
+  // Each leg's first and last stride of a bout (and strides outside any bout) are bout edges. A
+  // leg's first stride often also fails the order check only because the other leg has no step
+  // before it yet; that is the bout edge, not an event problem, so it is reported as the edge.
   const boutOf = (s: Stride) => ctx.bouts.findIndex((bt) => s.icS >= bt.startS && s.nextIcS <= bt.endS);
-  const byBout = new Map<number, Stride[]>();
+  const byBoutSide = new Map<string, Stride[]>();
   for (const s of strides) {
     const i = boutOf(s);
     if (i < 0) {
       if (s.steady) markEdge(s);
       continue;
     }
-    const list = byBout.get(i) ?? [];
+    const key = `${i}:${s.side}`;
+    const list = byBoutSide.get(key) ?? [];
     list.push(s);
-    byBout.set(i, list);
+    byBoutSide.set(key, list);
   }
-  for (const list of byBout.values()) {
-    if (list[0]!.steady) markEdge(list[0]!);
+  const edgeable = (s: Stride) => s.steady || s.excludedReason === "event-order";
+  for (const list of byBoutSide.values()) {
+    const first = list[0]!;
     const last = list[list.length - 1]!;
-    if (last.steady) markEdge(last);
+    if (edgeable(first)) markEdge(first);
+    if (edgeable(last)) markEdge(last);
   }
   return strides;
 }
