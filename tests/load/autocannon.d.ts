@@ -8,6 +8,7 @@ declare module "autocannon" {
     connections?: number;
     overallRate?: number;
     duration?: number;
+    amount?: number;
     headers?: Record<string, string>;
     requests?: RequestSpec[];
   }

@@ -103,7 +103,7 @@ export class ApiRouter {
         if (!res.headersSent) res.status(status === 200 ? 204 : status).end();
         return;
       }
-      res.status(status).json(spec.response ? conform(spec.response, result, spec.method, spec.path) : result);
+      res.status(status).json(spec.response ? conformResponse(spec.response, result, spec.method, spec.path) : result);
     });
     this.router[spec.method](spec.path, ...chain);
     this.endpoints.push({
@@ -121,7 +121,7 @@ export class ApiRouter {
 }
 
 // A handler answering outside its own contract is a server bug (500), not the client's 400.
-function conform(schema: z.ZodType, value: unknown, method: string, path: string): unknown {
+export function conformResponse(schema: z.ZodType, value: unknown, method: string, path: string): unknown {
   const parsed = schema.safeParse(value);
   if (!parsed.success) {
     throw new Error(`response of ${method.toUpperCase()} ${path} breaks its contract: ${parsed.error.message}`);

@@ -102,6 +102,14 @@ export async function sessionMetricValues(db: Knex, sessionIds: string[], keys: 
   return out;
 }
 
+/** Changes whenever a session of the patient is processed, reprocessed or re-timed. */
+export async function trendFingerprint(db: Knex, patientId: string): Promise<string> {
+  const row = await db("walk_sessions")
+    .where({ patient_id: patientId, status: "done" })
+    .first(db.raw("count(*)::int AS n"), db.raw("coalesce(max(updated_at), 'epoch')::text AS u"), db.raw("coalesce(max(processed_at), 'epoch')::text AS p"));
+  return `${row?.n ?? 0}|${row?.u ?? ""}|${row?.p ?? ""}`;
+}
+
 /** Trend rows: one per processed session and metric, oldest first (index patient_id, metric_key, recorded_at). */
 export function trendRows(db: Knex, patientId: string, keys: string[] | null, from?: string, to?: string) {
   const q = db("session_metrics as m")

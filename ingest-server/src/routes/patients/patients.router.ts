@@ -2,13 +2,15 @@ import { idParams } from "../../contracts/common";
 import { patientDetail, patientList, patientListQuery, patientSessions, patientSessionsQuery } from "../../contracts/patients";
 import { trendsQuery, trendsResponse } from "../../contracts/trends";
 import type { AppDeps } from "../../deps";
-import { ApiRouter, type RouteModule } from "../../http/api-router";
-import { getPatient, getPatientSessions, getTrends, listPatientsFor } from "./patients.service";
+import { ApiRouter, conformResponse, type RouteModule } from "../../http/api-router";
+import { getPatient, getPatientSessions, getTrendsJson, listPatientsFor } from "./patients.service";
+import { TrendCache } from "./trend-cache";
 
 const CLINICAL_READ = ["sessions:read:own", "sessions:read:caseload"] as const;
 
 export function patientsRouter(deps: AppDeps): ApiRouter {
   const api = new ApiRouter("/api/patients", deps);
+  const trendCache = new TrendCache(deps.config.trendCacheBytes);
   api.endpoint({
     method: "get",
     path: "/",
@@ -43,7 +45,14 @@ export function patientsRouter(deps: AppDeps): ApiRouter {
     access: { scopes: [...CLINICAL_READ] },
     request: { params: idParams, query: trendsQuery },
     response: trendsResponse,
-    handler: ({ auth, params, query }, req) => getTrends(deps, req, auth, params.id, query),
+    handler: async ({ auth, params, query }, req, res) => {
+      const entry = await getTrendsJson(deps, req, auth, params.id, query, trendCache, (payload) =>
+        JSON.stringify(conformResponse(trendsResponse, payload, "get", "/api/patients/:id/trends")),
+      );
+      res.status(200).type("application/json").vary("Accept-Encoding");
+      if (req.acceptsEncodings("gzip", "identity") === "gzip") res.set("Content-Encoding", "gzip").send(entry.gzip);
+      else res.send(entry.body);
+    },
   });
   return api;
 }

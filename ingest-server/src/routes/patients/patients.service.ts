@@ -15,9 +15,11 @@ import {
   sessionDates,
   sessionMetricValues,
   sessionStats,
+  trendFingerprint,
   trendRows,
   type PatientRow,
 } from "./patients.repository";
+import type { CachedTrend, TrendCache } from "./trend-cache";
 
 const SUMMARY_KEYS = ["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct"];
 /** Metrics whose change flags and coordination events the caseload table summarises. */
@@ -169,22 +171,40 @@ function parseKeys(raw: string | undefined): string[] | null {
  * baseline, MDC, reference bands, coordination events, cautions). The flags support the
  * clinician's reading of a trend; they are not a diagnosis and defer to local protocols.
  */
-export async function getTrends(deps: AppDeps, req: Request, auth: AuthContext, id: string, query: { metrics?: string; from?: string; to?: string }) {
-  await assertPatientAccess(deps.db, auth, id, "clinical");
-  const keys = parseKeys(query.metrics);
-  const p = (await findPatient(deps.db, id))!;
-  const rows = await trendRows(deps.db, id, keys, query.from, query.to);
-  // Catalogue order, so the portal's metric list is stable.
-  const ordered = groupTrendRows(rows);
+function trendsPayload(id: string, p: PatientRow, rows: Awaited<ReturnType<typeof trendRows>>, query: { from?: string; to?: string }) {
+  // Catalogue order, so the portal's metric list is stable. The date window only hides points:
+  // baselines, MDC and events always come from the whole series, so zooming never moves them.
   const annotated = annotateTrends({
-    metrics: ordered,
+    metrics: groupTrendRows(rows),
     patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: isoDate(p.enrolled_on) },
+    options: { ...(query.from ? { visibleFrom: query.from } : {}), ...(query.to ? { visibleTo: query.to } : {}) },
   });
-  await audit(deps.db, req, { action: "patient.read_trends", resourceType: "patient", resourceId: id, patientId: id });
   return {
     patientId: id,
     metrics: annotated.metrics.map((m) => ({ ...m, label: metricDefinition(m.key)?.label })),
     events: annotated.events,
     cautions: annotated.cautions,
   };
+}
+
+/**
+ * The trend answer as JSON text, from the per-process cache when the patient's processed sessions
+ * have not changed since it was built (see trend-cache.ts). Every read is access-checked and audited.
+ */
+export async function getTrendsJson(
+  deps: AppDeps,
+  req: Request,
+  auth: AuthContext,
+  id: string,
+  query: { metrics?: string; from?: string; to?: string },
+  cache: TrendCache,
+  serialize: (payload: unknown) => string,
+): Promise<CachedTrend> {
+  await assertPatientAccess(deps.db, auth, id, "clinical");
+  const keys = parseKeys(query.metrics);
+  const [p, fp] = await Promise.all([findPatient(deps.db, id), trendFingerprint(deps.db, id)]);
+  await audit(deps.db, req, { action: "patient.read_trends", resourceType: "patient", resourceId: id, patientId: id });
+  const fingerprint = `${fp}|${p!.birth_year}|${p!.condition}|${isoDate(p!.enrolled_on)}`;
+  const key = `${id}|${keys?.join(",") ?? "*"}|${query.from ?? ""}|${query.to ?? ""}`;
+  return cache.get(key, fingerprint) ?? cache.set(key, fingerprint, serialize(trendsPayload(id, p!, await trendRows(deps.db, id, keys), query)));
 }

@@ -130,6 +130,37 @@ describe("GET /api/patients/:id/trends", () => {
     expect((await get(researcher)).status).toBe(403);
   });
 
+  it("a repeated read is identical, and a newly processed session shows at once (the cache follows the data)", async () => {
+    const p2 = await ctx.seedUser({ role: "patient", caseloadOf: [clinician.id], patient: { condition: "stroke", birthYear: 1961 } });
+    for (let w = 0; w < 4; w++) {
+      await insertDoneSession(ctx, p2.patientId!, new Date(Date.UTC(2026, 8, 8 + 7 * w, 9)).toISOString(), { cadenceStepsPerMin: 90 + w });
+    }
+    const get = () => request(ctx.app).get(`/api/patients/${p2.patientId}/trends`).set(as(clinician));
+    const first = await get();
+    const second = await get();
+    expect(second.status).toBe(200);
+    expect(second.text).toBe(first.text);
+    expect(second.body.metrics[0].points).toHaveLength(4);
+    await insertDoneSession(ctx, p2.patientId!, new Date(Date.UTC(2026, 9, 6, 9)).toISOString(), { cadenceStepsPerMin: 120 });
+    const third = await get();
+    expect(third.body.metrics[0].points.map((x: { value: number }) => x.value)).toEqual([90, 91, 92, 93, 120]);
+    // Every read is audited, cached or not.
+    const n = await ctx.db("audit_events").where({ action: "patient.read_trends", patient_id: p2.patientId }).count<{ n: string }[]>({ n: "*" });
+    expect(Number(n[0]?.n)).toBe(3);
+  });
+
+  it("a date window hides points but keeps the whole-series baseline and flags", async () => {
+    const all = await request(ctx.app).get(`/api/patients/${patient.patientId}/trends?metrics=cadenceStepsPerMin`).set(as(clinician));
+    const from = new Date(Date.UTC(2026, 8, 37, 0)).toISOString(); // the day after the 5th session
+    const late = await request(ctx.app).get(`/api/patients/${patient.patientId}/trends?metrics=cadenceStepsPerMin&from=${from}`).set(as(clinician));
+    expect(late.status).toBe(200);
+    const a = all.body.metrics[0];
+    const l = late.body.metrics[0];
+    expect(l.points.map((x: { value: number }) => x.value)).toEqual([102, 104, 106]);
+    expect(l.baseline).toEqual(a.baseline);
+    expect(l.points.map((x: { flag?: string }) => x.flag)).toEqual(a.points.slice(-3).map((x: { flag?: string }) => x.flag));
+  });
+
   it("audits the read with the patient id", async () => {
     const n = await ctx.db("audit_events").where({ action: "patient.read_trends", patient_id: patient.patientId }).count<{ n: string }[]>({ n: "*" });
     expect(Number(n[0]?.n)).toBeGreaterThan(0);
