@@ -1,22 +1,13 @@
 import type { AddressInfo } from "node:net";
 import { createApp } from "./app";
-import { ConfigError, loadConfig } from "./config/env";
+import { loadConfigOrExit } from "./config/env";
 import { createRuntime } from "./runtime";
 
 /**
  * `npm start -w ingest-server`: the HTTP server on 127.0.0.1 only. Prints its URL on a line of its
  * own (scripts wait for it) and drains connections on SIGINT/SIGTERM.
  */
-let config;
-try {
-  config = loadConfig();
-} catch (err) {
-  if (err instanceof ConfigError) {
-    console.error(err.message);
-    process.exit(2);
-  }
-  throw err;
-}
+const config = loadConfigOrExit();
 
 const runtime = createRuntime(config, { application: "pendula-server" });
 const app = createApp(runtime.deps);

@@ -1,5 +1,5 @@
 import { ensureClinicalSchedules, workClinicalJobs } from "./clinical/notifications";
-import { ConfigError, loadConfig } from "./config/env";
+import { loadConfigOrExit } from "./config/env";
 import { handleProcessSessionJob, requeueStaleSessions } from "./processing/session-job";
 import { QUEUES } from "./queue/queue";
 import type { ProcessSessionJob } from "./routes/sessions/upload.service";
@@ -11,16 +11,7 @@ import { createRuntime } from "./runtime";
  * exactly one of them, a job whose worker died is retried after it expires, and processSession is
  * idempotent, so a retried job leaves one set of results.
  */
-let config;
-try {
-  config = loadConfig();
-} catch (err) {
-  if (err instanceof ConfigError) {
-    console.error(err.message);
-    process.exit(2);
-  }
-  throw err;
-}
+const config = loadConfigOrExit();
 
 const runtime = createRuntime(config, { application: "pendula-worker" });
 const { deps } = runtime;

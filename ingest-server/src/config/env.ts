@@ -136,3 +136,16 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     portalDist: e.PORTAL_DIST,
   };
 }
+
+/** For command-line entry points (server, worker, seed): a bad environment prints every problem and exits 2. */
+export function loadConfigOrExit(source: NodeJS.ProcessEnv = process.env): Config {
+  try {
+    return loadConfig(source);
+  } catch (err) {
+    if (err instanceof ConfigError) {
+      console.error(err.message);
+      process.exit(2);
+    }
+    throw err;
+  }
+}

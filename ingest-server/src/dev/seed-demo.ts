@@ -15,7 +15,7 @@ import {
 } from "../../../db/seeds/demo-scenario";
 import { hashPassword } from "../auth/passwords";
 import { scopesFor } from "../auth/scopes";
-import { ConfigError, loadConfig } from "../config/env";
+import { loadConfigOrExit } from "../config/env";
 import type { AppDeps } from "../deps";
 import type { AuthContext } from "../middleware/authenticate";
 import { processSession } from "../processing/process-session";
@@ -215,16 +215,7 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
 
 async function main(): Promise<void> {
   const { values } = parseArgs({ options: { "if-empty": { type: "boolean", default: false }, "max-weeks": { type: "string" } } });
-  let config;
-  try {
-    config = loadConfig();
-  } catch (err) {
-    if (err instanceof ConfigError) {
-      console.error(err.message);
-      process.exit(2);
-    }
-    throw err;
-  }
+  const config = loadConfigOrExit();
   const runtime = createRuntime(config, { application: "pendula-seed" });
   const deps: AppDeps = { ...runtime.deps, queue: noQueue() };
   try {
