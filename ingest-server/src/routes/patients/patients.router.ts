@@ -49,7 +49,12 @@ export function patientsRouter(deps: AppDeps): ApiRouter {
       const entry = await getTrendsJson(deps, req, auth, params.id, query, trendCache, (payload) =>
         JSON.stringify(conformResponse(trendsResponse, payload, "get", "/api/patients/:id/trends")),
       );
-      res.status(200).type("application/json").vary("Accept-Encoding");
+      res.status(200).type("application/json").vary("Accept-Encoding").set("ETag", entry.etag).set("Cache-Control", "private, no-cache");
+      // Revalidation: an unchanged trend costs the browser a 304 and no body.
+      if (req.fresh) {
+        res.status(304).end();
+        return;
+      }
       if (req.acceptsEncodings("gzip", "identity") === "gzip") res.set("Content-Encoding", "gzip").send(entry.gzip);
       else res.send(entry.body);
     },

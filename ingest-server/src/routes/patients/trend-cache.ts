@@ -6,6 +6,7 @@
  * so several server processes never serve a stale answer: a new, reprocessed or re-timed
  * session changes the count or the latest updated_at.
  */
+import { createHash } from "node:crypto";
 import { gzipSync } from "node:zlib";
 
 export interface CachedTrend {
@@ -13,6 +14,8 @@ export interface CachedTrend {
   body: string;
   /** The same body gzip-compressed once, for clients that accept it (every browser does). */
   gzip: Buffer;
+  /** Strong validator of the body, computed once (Express would otherwise hash it on every send). */
+  etag: string;
 }
 
 export class TrendCache {
@@ -36,7 +39,8 @@ export class TrendCache {
 
   /** Stores (when it fits the budget) and returns the entry for this body. */
   set(key: string, fingerprint: string, body: string): CachedTrend {
-    const entry = { fingerprint, body, gzip: gzipSync(body) };
+    const etag = `"${createHash("sha1").update(body).digest("base64url")}"`;
+    const entry = { fingerprint, body, gzip: gzipSync(body), etag };
     const size = body.length + entry.gzip.length;
     if (size > this.maxBytes) return entry;
     this.delete(key);

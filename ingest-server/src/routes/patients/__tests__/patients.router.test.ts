@@ -140,13 +140,19 @@ describe("GET /api/patients/:id/trends", () => {
     const second = await get();
     expect(second.status).toBe(200);
     expect(second.text).toBe(first.text);
+    // Revalidation with the ETag answers 304 without a body while nothing changed.
+    const etag = first.headers.etag as string;
+    expect(etag).toMatch(/^"[A-Za-z0-9_-]+"$/);
+    expect((await get().set("If-None-Match", etag)).status).toBe(304);
     expect(second.body.metrics[0].points).toHaveLength(4);
     await insertDoneSession(ctx, p2.patientId!, new Date(Date.UTC(2026, 9, 6, 9)).toISOString(), { cadenceStepsPerMin: 120 });
-    const third = await get();
+    const third = await get().set("If-None-Match", etag);
+    expect(third.status).toBe(200);
+    expect(third.headers.etag).not.toBe(etag);
     expect(third.body.metrics[0].points.map((x: { value: number }) => x.value)).toEqual([90, 91, 92, 93, 120]);
-    // Every read is audited, cached or not.
+    // Every read is audited, cached, revalidated or not.
     const n = await ctx.db("audit_events").where({ action: "patient.read_trends", patient_id: p2.patientId }).count<{ n: string }[]>({ n: "*" });
-    expect(Number(n[0]?.n)).toBe(3);
+    expect(Number(n[0]?.n)).toBe(4);
   });
 
   it("a date window hides points but keeps the whole-series baseline and flags", async () => {
