@@ -202,8 +202,12 @@ export async function getTrendsJson(
 ): Promise<CachedTrend> {
   await assertPatientAccess(deps.db, auth, id, "clinical");
   const keys = parseKeys(query.metrics);
-  const [p, fp] = await Promise.all([findPatient(deps.db, id), trendFingerprint(deps.db, id)]);
-  await audit(deps.db, req, { action: "patient.read_trends", resourceType: "patient", resourceId: id, patientId: id });
+  // Access is settled above, so the audit row and the reads can go to the database together.
+  const [p, fp] = await Promise.all([
+    findPatient(deps.db, id),
+    trendFingerprint(deps.db, id),
+    audit(deps.db, req, { action: "patient.read_trends", resourceType: "patient", resourceId: id, patientId: id }),
+  ]);
   const fingerprint = `${fp}|${p!.birth_year}|${p!.condition}|${isoDate(p!.enrolled_on)}`;
   const key = `${id}|${keys?.join(",") ?? "*"}|${query.from ?? ""}|${query.to ?? ""}`;
   return cache.get(key, fingerprint) ?? cache.set(key, fingerprint, serialize(trendsPayload(id, p!, await trendRows(deps.db, id, keys), query)));
