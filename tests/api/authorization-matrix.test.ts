@@ -380,6 +380,11 @@ afterAll(async () => {
   await ctx?.close();
 });
 
+function freshToken(actor: Exclude<(typeof ROLES)[number], "anonymous">): Promise<string> {
+  const user = { patient: f.A.patient, clinician: f.A.clinician, researcher: f.researcher, admin: f.admin }[actor];
+  return ctx.tokenFor(user);
+}
+
 describe("authorization matrix", () => {
   it("has an explicit rule for every endpoint the app enumerates, and no rule for a route that is gone", () => {
     const enumerated = listEndpoints(ctx.app).map((e) => `${e.method.toUpperCase()} ${e.path}`);
@@ -403,7 +408,9 @@ describe("authorization matrix", () => {
         for (const actor of ROLES) {
           cases++;
           const r = await rule.build(variant, actor);
-          const res = await send(r, actor === "anonymous" ? undefined : f.tokens[actor]);
+          // Signing out revokes the token it is sent with, so it gets a token of its own.
+          const token = actor === "anonymous" ? undefined : key === "POST /api/auth/logout" ? await freshToken(actor) : f.tokens[actor];
+          const res = await send(r, token);
           const label = `${key} [${variant}] as ${actor}`;
           if (res.status !== expected[actor]) {
             failures.push(`${label}: expected ${expected[actor]}, got ${res.status} ${res.text.slice(0, 200)}`);
