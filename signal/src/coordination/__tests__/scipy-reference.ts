@@ -22,5 +22,5 @@ export interface ScipyReference {
 }
 
 export const scipyReference: ScipyReference = JSON.parse(
-  readFileSync(fileURLToPath(new URL("../../../fixtures/scipy-reference.json", import.meta.url)), "utf8"),
+  readFileSync(fileURLToPath(new URL("../../../fixtures/scipy-fixtures.json", import.meta.url)), "utf8"),
 ) as ScipyReference;
