@@ -1,8 +1,10 @@
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
-import type { Browser } from "playwright-core";
-import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, settle, type TestPage } from "./support/browser";
+import { beforeAll, describe, expect, it } from "vitest";
+import { saveScreenshot, settle } from "./support/browser";
+import { useSignedInPage } from "./support/signed-in-page";
 import { tabTo } from "./support/keyboard";
-import { apiGet, apiToken, signIn } from "./support/sign-in";
+import { apiGet, apiToken } from "./support/sign-in";
+
+const t = useSignedInPage("admin");
 
 interface Assignment {
   patientId: string;
@@ -35,8 +37,6 @@ function localInput(date: Date): string {
   return date.toISOString().slice(0, 16);
 }
 
-let browser: Browser;
-let t: TestPage;
 let spares: Device[];
 let patient: Patient;
 let placement: { value: string; label: string };
@@ -76,16 +76,6 @@ beforeAll(async () => {
   patient = found.p;
   placement = found.free[0]!;
   swapTo = found.free[1]!;
-  browser = await launchBrowser();
-  t = await openPage(browser);
-  await signIn(t.page, "admin");
-});
-afterEach(async (ctx) => {
-  await screenshotIfFailed(t?.page, ctx);
-});
-afterAll(async () => {
-  await t?.context.close();
-  await browser?.close();
 });
 
 describe("an admin manages devices and their assignments", () => {

@@ -1,23 +1,10 @@
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
-import type { Browser } from "playwright-core";
-import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, settle, type TestPage } from "./support/browser";
+import { describe, expect, it } from "vitest";
+import { openPage, saveScreenshot, settle } from "./support/browser";
+import { useSignedInPage } from "./support/signed-in-page";
 import { baseUrl } from "./support/env";
-import { signIn } from "./support/sign-in";
 
-let browser: Browser;
-let t: TestPage;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  t = await openPage(browser);
-  await signIn(t.page, "admin");
-});
-afterEach(async (ctx) => {
-  await screenshotIfFailed(t?.page, ctx);
-});
-afterAll(async () => {
-  await t?.context.close();
-  await browser?.close();
-});
+const t = useSignedInPage("admin");
+
 
 describe("admin users, invitations, audit log and mailbox", () => {
   it("lists users with roles and statuses", async () => {
@@ -52,7 +39,7 @@ describe("admin users, invitations, audit log and mailbox", () => {
     expect(href).toMatch(/\/accept-invitation\?token=/);
 
     // The invitee opens the link in their own browser, not in the admin's signed-in one.
-    const invitee = await openPage(browser);
+    const invitee = await openPage(t.browser);
     try {
       const p = invitee.page;
       await p.goto(href!);

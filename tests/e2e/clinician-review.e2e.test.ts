@@ -1,27 +1,14 @@
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
-import type { Browser } from "playwright-core";
-import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, settle, type TestPage } from "./support/browser";
-import { signIn } from "./support/sign-in";
+import { describe, expect, it } from "vitest";
+import { saveScreenshot, settle } from "./support/browser";
+import { useSignedInPage } from "./support/signed-in-page";
+
+const t = useSignedInPage("clinician");
 
 // A patient on clinician@'s caseload with weeks of processed sessions (db/seeds/demo-scenario.ts).
 const PATIENT = "Osric Delacourt";
 // On clinician2@'s caseload only: clinician@ must not see them.
 const OTHER_CASELOAD = "Hollis Brackenridge";
 
-let browser: Browser;
-let t: TestPage;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  t = await openPage(browser);
-  await signIn(t.page, "clinician");
-});
-afterEach(async (ctx) => {
-  await screenshotIfFailed(t?.page, ctx);
-});
-afterAll(async () => {
-  await t?.context.close();
-  await browser?.close();
-});
 
 describe("a clinician reviews a patient's trends and a session", () => {
   it("sees their own caseload only", async () => {

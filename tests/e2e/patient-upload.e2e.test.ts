@@ -1,11 +1,13 @@
 import { mkdtemp, rm, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
-import type { Browser } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { synthesizeSession, type SynthPlacement } from "@pendula/signal";
-import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, settle, type TestPage } from "./support/browser";
-import { apiGet, apiToken, signIn } from "./support/sign-in";
+import { saveScreenshot, settle } from "./support/browser";
+import { useSignedInPage } from "./support/signed-in-page";
+import { apiGet, apiToken } from "./support/sign-in";
+
+const t = useSignedInPage("patient");
 
 interface Device {
   serial: string;
@@ -16,8 +18,6 @@ const WEEKLY: SynthPlacement[] = ["left_shank", "right_shank", "left_wrist", "ri
 // The demo patient of patient@demo.pendula.test (db/seeds/demo-scenario.ts).
 const DEMO_PATIENT_NAME = "Wren Halloway";
 
-let browser: Browser;
-let t: TestPage;
 let folder: string;
 let filePaths: string[];
 
@@ -48,16 +48,8 @@ beforeAll(async () => {
     await writeFile(p, f.text, "utf8");
     filePaths.push(p);
   }
-  browser = await launchBrowser();
-  t = await openPage(browser);
-  await signIn(t.page, "patient");
-});
-afterEach(async (ctx) => {
-  await screenshotIfFailed(t?.page, ctx);
 });
 afterAll(async () => {
-  await t?.context.close();
-  await browser?.close();
   if (folder) await rm(folder, { recursive: true, force: true });
 });
 

@@ -1,24 +1,12 @@
 import { readFile } from "node:fs/promises";
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
-import type { Browser } from "playwright-core";
-import { launchBrowser, openPage, saveScreenshot, screenshotIfFailed, type TestPage } from "./support/browser";
+import { describe, expect, it } from "vitest";
+import { saveScreenshot } from "./support/browser";
+import { useSignedInPage } from "./support/signed-in-page";
 import { tabTo } from "./support/keyboard";
-import { apiGet, apiToken, signIn } from "./support/sign-in";
+import { apiGet, apiToken } from "./support/sign-in";
 
-let browser: Browser;
-let t: TestPage;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  t = await openPage(browser);
-  await signIn(t.page, "researcher");
-});
-afterEach(async (ctx) => {
-  await screenshotIfFailed(t?.page, ctx);
-});
-afterAll(async () => {
-  await t?.context.close();
-  await browser?.close();
-});
+const t = useSignedInPage("researcher");
+
 
 describe("a researcher previews a cohort and downloads the anonymised export", () => {
   it("previews group sizes with small groups suppressed in words", async () => {
