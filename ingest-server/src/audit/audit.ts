@@ -16,13 +16,10 @@ export interface AuditEntry {
 
 type Requestish = Pick<Request, "ip" | "headers"> & { auth?: { userId: string; role: string } };
 
-/**
- * Writes one audit event: who (token or explicit actor), what, when (database clock), from where
- * (ip, user agent). Pass a transaction as `db` to make the event commit with the change it records.
- */
-export async function audit(db: Knex | Knex.Transaction, req: Requestish | null, entry: AuditEntry): Promise<void> {
+/** The audit_events row for an entry, for inserts that run inside a larger statement. */
+export function auditRow(req: Requestish | null, entry: AuditEntry) {
   const ua = req?.headers["user-agent"];
-  await db("audit_events").insert({
+  return {
     actor_id: entry.actorId !== undefined ? entry.actorId : (req?.auth?.userId ?? null),
     actor_role: entry.actorRole !== undefined ? entry.actorRole : (req?.auth?.role ?? null),
     action: entry.action,
@@ -32,5 +29,13 @@ export async function audit(db: Knex | Knex.Transaction, req: Requestish | null,
     ip: req?.ip ?? null,
     user_agent: typeof ua === "string" ? ua.slice(0, 512) : null,
     details: entry.details === undefined ? null : JSON.stringify(entry.details),
-  });
+  };
+}
+
+/**
+ * Writes one audit event: who (token or explicit actor), what, when (database clock), from where
+ * (ip, user agent). Pass a transaction as `db` to make the event commit with the change it records.
+ */
+export async function audit(db: Knex | Knex.Transaction, req: Requestish | null, entry: AuditEntry): Promise<void> {
+  await db("audit_events").insert(auditRow(req, entry));
 }

@@ -102,12 +102,43 @@ export async function sessionMetricValues(db: Knex, sessionIds: string[], keys: 
   return out;
 }
 
-/** Changes whenever a session of the patient is processed, reprocessed or re-timed. */
-export async function trendFingerprint(db: Knex, patientId: string): Promise<string> {
-  const row = await db("walk_sessions")
-    .where({ patient_id: patientId, status: "done" })
-    .first(db.raw("count(*)::int AS n"), db.raw("coalesce(max(updated_at), 'epoch')::text AS u"), db.raw("coalesce(max(processed_at), 'epoch')::text AS p"));
-  return `${row?.n ?? 0}|${row?.u ?? ""}|${row?.p ?? ""}`;
+export interface TrendReadContext {
+  patient: Pick<PatientRow, "id" | "birth_year" | "condition" | "enrolled_on">;
+  /** Changes whenever a session of the patient is processed, reprocessed or re-timed. */
+  fingerprint: string;
+}
+
+/**
+ * One statement for the hot path of the trend route: the caller's access (the patient must be in
+ * `scope`), the patient's fields the annotations depend on, the processed-session fingerprint,
+ * and the audit row, inserted only when access holds. A warm trend read is then one round trip
+ * after authentication instead of four; undefined means not found or not allowed (same 404).
+ */
+export async function readTrendContext(
+  db: Knex,
+  patientId: string,
+  scope: Knex.QueryBuilder | string[],
+  audit: { actor_id: string | null; actor_role: string | null; action: string; resource_type: string; ip: string | null; user_agent: string | null },
+): Promise<TrendReadContext | undefined> {
+  const allowed = db("patients").where("id", patientId).whereIn("id", scope).select("id", "birth_year", "condition", "enrolled_on");
+  const logged = db.raw(
+    `INSERT INTO audit_events (actor_id, actor_role, action, resource_type, resource_id, patient_id, ip, user_agent)
+     SELECT ?, ?, ?, ?, a.id::text, a.id, ?, ? FROM allowed a`,
+    [audit.actor_id, audit.actor_role, audit.action, audit.resource_type, audit.ip, audit.user_agent],
+  );
+  const row = await db
+    .with("allowed", allowed)
+    .with("logged", logged)
+    .from("allowed as a")
+    .crossJoin(
+      db.raw(
+        `LATERAL (SELECT count(*)::int AS n, coalesce(max(s.updated_at), 'epoch')::text AS u, coalesce(max(s.processed_at), 'epoch')::text AS p
+                  FROM walk_sessions s WHERE s.patient_id = a.id AND s.status = 'done') f`,
+      ),
+    )
+    .first("a.id", "a.birth_year", "a.condition", "a.enrolled_on", "f.n", "f.u", "f.p");
+  if (!row) return undefined;
+  return { patient: { id: row.id, birth_year: row.birth_year, condition: row.condition, enrolled_on: row.enrolled_on }, fingerprint: `${row.n}|${row.u}|${row.p}` };
 }
 
 /** Trend rows: one per processed session and metric, oldest first (index patient_id, metric_key, recorded_at). */

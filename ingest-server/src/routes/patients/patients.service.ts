@@ -1,6 +1,6 @@
 import type { Request } from "express";
-import { audit } from "../../audit/audit";
-import { assertPatientAccess } from "../../auth/patient-access";
+import { audit, auditRow } from "../../audit/audit";
+import { assertPatientAccess, clinicalPatientScope } from "../../auth/patient-access";
 import { annotateTrends, computeAdherence } from "../../clinical";
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
@@ -9,13 +9,13 @@ import { metricDefinition, METRIC_KEYS } from "../../metrics/metric-catalog";
 import { toSummary } from "../sessions/sessions.service";
 import {
   findPatient,
+  readTrendContext,
   latestMetrics,
   listPatients,
   listSessions,
   sessionDates,
   sessionMetricValues,
   sessionStats,
-  trendFingerprint,
   trendRows,
   type PatientRow,
 } from "./patients.repository";
@@ -171,7 +171,7 @@ function parseKeys(raw: string | undefined): string[] | null {
  * baseline, MDC, reference bands, coordination events, cautions). The flags support the
  * clinician's reading of a trend; they are not a diagnosis and defer to local protocols.
  */
-function trendsPayload(id: string, p: PatientRow, rows: Awaited<ReturnType<typeof trendRows>>, query: { from?: string; to?: string }) {
+function trendsPayload(id: string, p: Pick<PatientRow, "birth_year" | "condition" | "enrolled_on">, rows: Awaited<ReturnType<typeof trendRows>>, query: { from?: string; to?: string }) {
   // Catalogue order, so the portal's metric list is stable. The date window only hides points:
   // baselines, MDC and events always come from the whole series, so zooming never moves them.
   const annotated = annotateTrends({
@@ -200,15 +200,14 @@ export async function getTrendsJson(
   cache: TrendCache,
   serialize: (payload: unknown) => string,
 ): Promise<CachedTrend> {
-  await assertPatientAccess(deps.db, auth, id, "clinical");
   const keys = parseKeys(query.metrics);
-  // Access is settled above, so the audit row and the reads can go to the database together.
-  const [p, fp] = await Promise.all([
-    findPatient(deps.db, id),
-    trendFingerprint(deps.db, id),
-    audit(deps.db, req, { action: "patient.read_trends", resourceType: "patient", resourceId: id, patientId: id }),
-  ]);
-  const fingerprint = `${fp}|${p!.birth_year}|${p!.condition}|${isoDate(p!.enrolled_on)}`;
+  const scope = clinicalPatientScope(deps.db, auth);
+  const context = scope
+    ? await readTrendContext(deps.db, id, scope, auditRow(req, { action: "patient.read_trends", resourceType: "patient" }))
+    : undefined;
+  if (!context) throw new HttpError(404, "not_found", "patient not found");
+  const p = context.patient;
+  const fingerprint = `${context.fingerprint}|${p.birth_year}|${p.condition}|${isoDate(p.enrolled_on)}`;
   const key = `${id}|${keys?.join(",") ?? "*"}|${query.from ?? ""}|${query.to ?? ""}`;
-  return cache.get(key, fingerprint) ?? cache.set(key, fingerprint, serialize(trendsPayload(id, p!, await trendRows(deps.db, id, keys), query)));
+  return cache.get(key, fingerprint) ?? cache.set(key, fingerprint, serialize(trendsPayload(id, p, await trendRows(deps.db, id, keys), query)));
 }

@@ -83,6 +83,10 @@ describe("GET /api/patients/:id and /sessions", () => {
     expect((await get(otherClinician)).status).toBe(404);
     expect((await get(otherPatient)).status).toBe(404);
     expect((await get(researcher)).status).toBe(403);
+    // A refused read is not logged as a read (the audit row is written in the same statement as
+    // the access check, only when access holds).
+    const refused = await ctx.db("audit_events").where({ action: "patient.read_trends" }).whereIn("actor_id", [otherPatient.id, otherClinician.id]);
+    expect(refused).toEqual([]);
   });
 
   it("lists sessions newest first with paging", async () => {
@@ -167,9 +171,12 @@ describe("GET /api/patients/:id/trends", () => {
     expect(l.points.map((x: { flag?: string }) => x.flag)).toEqual(a.points.slice(-3).map((x: { flag?: string }) => x.flag));
   });
 
-  it("audits the read with the patient id", async () => {
-    const n = await ctx.db("audit_events").where({ action: "patient.read_trends", patient_id: patient.patientId }).count<{ n: string }[]>({ n: "*" });
-    expect(Number(n[0]?.n)).toBeGreaterThan(0);
+  it("audits the read with the reader, the patient id and the user agent", async () => {
+    const before = await ctx.db("audit_events").where({ action: "patient.read_trends", patient_id: patient.patientId }).count<{ n: string }[]>({ n: "*" });
+    await request(ctx.app).get(`/api/patients/${patient.patientId}/trends`).set(as(clinician)).set("User-Agent", "ward-tablet/2.1").expect(200);
+    const rows = await ctx.db("audit_events").where({ action: "patient.read_trends", patient_id: patient.patientId }).orderBy("id");
+    expect(rows).toHaveLength(Number(before[0]?.n) + 1);
+    expect(rows.at(-1)).toMatchObject({ actor_id: clinician.id, actor_role: "clinician", resource_type: "patient", resource_id: patient.patientId, user_agent: "ward-tablet/2.1" });
   });
 });
 
