@@ -134,6 +134,9 @@ if (!only || only === "sessions") {
   await run(`GET session, steady ${RATE} req/s`, sessionPaths, { mode: "steady" });
   await run("GET session, saturated", sessionPaths, { mode: "saturate", connections: 20 });
 }
-// The load processes have exited, so close() only waits for answers still being written.
+// The load processes have exited; requests they abandoned mid-flight still finish their queries
+// before the pool closes (knex would otherwise log every aborted acquire).
 await new Promise((r) => server.close(r));
+const pool = (db.client as { pool: { numUsed(): number; numPendingAcquires(): number } }).pool;
+for (let i = 0; i < 100 && pool.numUsed() + pool.numPendingAcquires() > 0; i++) await new Promise((r) => setTimeout(r, 100));
 await ctx.close();
