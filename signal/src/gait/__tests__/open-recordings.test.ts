@@ -1,53 +1,12 @@
-import { existsSync, readFileSync, readdirSync } from "node:fs";
-import { join } from "node:path";
-import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import { analyze } from "../../analyze";
-import { readSensorCsv } from "../../io/read-sensor-csv";
+import { mean, openWalksAvailable, openWalkTrials, OPEN_WALKS_DIR, scoreEvents as score } from "./support/open-walks";
 
-// Real foot-IMU recordings of healthy adults (Voisard et al., IPOL 2023; AGPL-3.0), read from the
-// shared data folder beside the repository and never copied into it. Reference events were produced
-// by published IMU algorithms and checked by hand (see the folder's README), so scoring uses a
-// ±100 ms matching window and the median absolute error, over straight walking only (0.5 s kept
-// clear of the turn and of the walk's ends), as that README suggests.
-const repoRoot = fileURLToPath(new URL("../../../../", import.meta.url));
-const dataDir = join(repoRoot, "..", "shared", "data", "open-walks");
-const available = existsSync(dataDir);
-if (!available) console.warn(`open-walks data not found at ${dataDir}; skipping the real-data event checks`);
+// Real foot-IMU recordings (see support/open-walks.ts for the source, licence and scoring rules).
+if (!openWalksAvailable) console.warn(`open-walks data not found at ${OPEN_WALKS_DIR}; skipping the real-data event checks`);
+const trials = openWalkTrials();
 
-const WINDOW_S = 0.1;
-const MARGIN_S = 0.5;
-
-interface Reference {
-  walk: [number, number];
-  turns: Array<[number, number]>;
-  events: { left: { ic: number[]; fc: number[] }; right: { ic: number[]; fc: number[] } };
-}
-
-/** Greedy one-to-one matching within ±WINDOW_S (nearest first). */
-function score(detected: number[], reference: number[]) {
-  const pairs: Array<[number, number, number]> = [];
-  detected.forEach((d, i) => reference.forEach((r, j) => Math.abs(d - r) <= WINDOW_S && pairs.push([Math.abs(d - r), i, j])));
-  pairs.sort((a, b) => a[0] - b[0]);
-  const usedD = new Set<number>();
-  const usedR = new Set<number>();
-  const errors: number[] = [];
-  for (const [e, i, j] of pairs) {
-    if (usedD.has(i) || usedR.has(j)) continue;
-    usedD.add(i);
-    usedR.add(j);
-    errors.push(e);
-  }
-  const tp = errors.length;
-  const f1 = detected.length + reference.length === 0 ? 1 : (2 * tp) / (detected.length + reference.length);
-  errors.sort((a, b) => a - b);
-  const medianAbsMs = errors.length ? 1000 * (errors.length % 2 ? errors[errors.length >> 1]! : (errors[errors.length / 2 - 1]! + errors[errors.length / 2]!) / 2) : Number.NaN;
-  return { f1, medianAbsMs, tp, nRef: reference.length, nDet: detected.length };
-}
-
-const trials = available ? readdirSync(dataDir).filter((d) => existsSync(join(dataDir, d, "reference.json"))).sort() : [];
-
-describe.skipIf(!available)("open walking recordings (foot IMUs): events vs reference", () => {
+describe.skipIf(!openWalksAvailable)("open walking recordings (foot IMUs): events vs reference", () => {
   const rows: string[] = [];
   const turnHits = new Map<string, boolean>();
   const results: Array<{
@@ -67,13 +26,7 @@ describe.skipIf(!available)("open walking recordings (foot IMUs): events vs refe
     return 60 / (steps.reduce((a, b) => a + b, 0) / steps.length);
   };
 
-  for (const trial of trials) {
-    const ref = JSON.parse(readFileSync(join(dataDir, trial, "reference.json"), "utf8")) as Reference;
-    const keep = (t: number) =>
-      t > ref.walk[0] + MARGIN_S && t < ref.walk[1] - MARGIN_S && ref.turns.every(([a, b]) => t < a - MARGIN_S || t > b + MARGIN_S);
-    const recordings = ["left_foot", "right_foot", "lower_back"]
-      .filter((p) => existsSync(join(dataDir, trial, `${p}.csv`)))
-      .map((p) => readSensorCsv(readFileSync(join(dataDir, trial, `${p}.csv`), "utf8"), `${trial}/${p}.csv`));
+  for (const { trial, reference: ref, recordings, keep } of trials) {
     const analysis = analyze(recordings);
     turnHits.set(trial, ref.turns.every(([a, b]) => analysis.turns.some((t) => t.startS < b && t.endS > a)));
     const refCadence = cadenceOf(ref.events.left.ic, ref.events.right.ic, keep);
@@ -92,14 +45,12 @@ describe.skipIf(!available)("open walking recordings (foot IMUs): events vs refe
         `${r.trial.padEnd(5)} ${r.side.padEnd(5)}| ${r.ic.f1.toFixed(3)}  ${`${r.ic.tp}/${r.ic.nRef}/${r.ic.nDet}`.padEnd(10)}  ${r.ic.medianAbsMs.toFixed(0).padStart(4)}        | ${r.fc.f1.toFixed(3)}  ${`${r.fc.tp}/${r.fc.nRef}/${r.fc.nDet}`.padEnd(10)}  ${r.fc.medianAbsMs.toFixed(0).padStart(4)}        | ${r.cadence?.toFixed(1) ?? "—"} / ${r.detectedCadence.toFixed(1)} / ${r.refCadence.toFixed(1)}`,
       );
     }
-    const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
     rows.push(`mean F1: IC ${mean(results.map((r) => r.ic.f1)).toFixed(3)}, FC ${mean(results.map((r) => r.fc.f1)).toFixed(3)}`);
     console.log("\n" + rows.join("\n"));
     expect(results.length).toBe(2 * trials.length);
   });
 
   it("mean F1 within ±100 ms is at least 0.9 for initial and final contacts", () => {
-    const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
     expect(mean(results.map((r) => r.ic.f1))).toBeGreaterThanOrEqual(0.9);
     expect(mean(results.map((r) => r.fc.f1))).toBeGreaterThanOrEqual(0.9);
   });
@@ -121,6 +72,6 @@ describe.skipIf(!available)("open walking recordings (foot IMUs): events vs refe
   });
 
   it("finds a turn overlapping each reference 180° turn", () => {
-    for (const trial of trials) expect(turnHits.get(trial), trial).toBe(true);
+    for (const { trial } of trials) expect(turnHits.get(trial), trial).toBe(true);
   });
 });
