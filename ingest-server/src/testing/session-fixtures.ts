@@ -4,6 +4,7 @@ import type { Test } from "supertest";
 // The generator is signal's own synthetic gait source (truth = its own events); it is not part of
 // the package's public entry, so tests import it from the workspace.
 import { synthesizeSession, type SynthOptions, type SynthSession } from "../../../signal/src/synth";
+import { readSensorCsv } from "@pendula/signal";
 import { createS3Client } from "../storage/object-storage";
 import type { TestContext } from "./harness";
 
@@ -107,4 +108,35 @@ export async function insertDoneSession(
   }));
   if (rows.length) await ctx.db("session_metrics").insert(rows);
   return row.id as string;
+}
+
+const TRACKED_POINT: Record<string, string> = { left_shank: "LeftShank", right_shank: "RightShank", left_wrist: "LeftWrist", right_wrist: "RightWrist" };
+
+/**
+ * The same synthetic walk as one BIDS Motion set (one tracking system, one tracked point per
+ * sensor, a LATENCY column), laid out per the BIDS motion specification: headerless
+ * `_motion.tsv`, `_channels.tsv`, `_motion.json`. Needs a synth without start offsets or jitter,
+ * so the sensors share one clock as a BIDS tracking system does.
+ */
+export function bidsSetFromSynth(synth: SynthSession, stem = "sub-07_task-homewalk_tracksys-imu"): Array<{ fileName: string; text: string }> {
+  const recordings = synth.files.map((f) => ({ placement: f.placement, rec: readSensorCsv(f.text, f.fileName) }));
+  const n = Math.min(...recordings.map((r) => r.rec.timeS.length));
+  const channels = ["name\tcomponent\ttype\ttracked_point\tunits", "time\tn/a\tLATENCY\tn/a\ts"];
+  for (const { placement } of recordings) {
+    const point = TRACKED_POINT[placement]!;
+    for (const c of ["x", "y", "z"]) channels.push(`${point}_acc_${c}\t${c}\tACCEL\t${point}\tm/s^2`);
+    for (const c of ["x", "y", "z"]) channels.push(`${point}_gyro_${c}\t${c}\tGYRO\t${point}\tdeg/s`);
+  }
+  const rows: string[] = [];
+  for (let i = 0; i < n; i++) {
+    const cells = [recordings[0]!.rec.timeS[i]!.toFixed(5)];
+    for (const { rec } of recordings) for (const a of [rec.accX, rec.accY, rec.accZ, rec.gyroX, rec.gyroY, rec.gyroZ]) cells.push(a[i]!.toFixed(4));
+    rows.push(cells.join("\t"));
+  }
+  const json = { TaskName: "homewalk", SamplingFrequency: recordings[0]!.rec.nominalSampleRateHz, TrackingSystemName: "imu", Manufacturer: "Fernhollow test rig" };
+  return [
+    { fileName: `${stem}_motion.tsv`, text: rows.join("\n") + "\n" },
+    { fileName: `${stem}_channels.tsv`, text: channels.join("\n") + "\n" },
+    { fileName: `${stem}_motion.json`, text: JSON.stringify(json, null, 2) },
+  ];
 }

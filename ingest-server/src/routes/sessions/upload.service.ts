@@ -54,15 +54,36 @@ function resolvePatient(auth: AuthContext, patientId: string | undefined): strin
  * Device serial → placement through the assignment active for this patient at the file's start.
  * Errors name the device and the file, but never another patient: a device worn by someone else at
  * that moment reads as "not assigned to this patient".
+ *
+ * BIDS Motion data names its placement itself (channels.tsv `tracked_point`, a field of the
+ * standard) and has one serial per tracking system, not per sensor. A BIDS recording whose
+ * `<DeviceSerialNumber>:<tracked point>` is registered goes through the registry like any file;
+ * one that is not registered takes the placement of its tracked point, with no device attached.
  */
 async function mapPlacements(deps: AppDeps, patientId: string, upload: ParsedUpload) {
-  const mapped: Array<{ deviceId: string; placement: string }> = [];
+  const mapped: Array<{ deviceId: string | null; placement: string }> = [];
   const byPlacement = new Map<string, string>();
   for (const [i, recording] of upload.recordings.entries()) {
-    const fileName = upload.files[upload.recordingFile[i]!]!.originalName;
+    const file = upload.files[upload.recordingFile[i]!]!;
+    const fileName = file.originalName;
     const serial = recording.deviceSerial;
     if (!serial) throw invalidFile(fileName, `${fileName}: no device serial in the file`);
     const device = await findDeviceAt(deps.db, serial, recording.startUtc);
+    if (!device && file.format === "bids-motion") {
+      if (!recording.placement) {
+        throw invalidFile(fileName, `${recording.fileName}: the tracked point is not one of the placements Pendula reads (see the BIDS table in signal/README.md)`);
+      }
+      const other = byPlacement.get(recording.placement);
+      if (other) {
+        throw new HttpError(422, "duplicate_placement", `${recording.fileName}: ${recording.placement} is already covered by ${other} in this upload`, {
+          file: fileName,
+          placement: recording.placement,
+        });
+      }
+      byPlacement.set(recording.placement, recording.fileName);
+      mapped.push({ deviceId: null, placement: recording.placement });
+      continue;
+    }
     if (!device) {
       throw new HttpError(422, "unknown_device", `${fileName}: device ${serial} is not registered`, { file: fileName, deviceSerial: serial });
     }

@@ -98,43 +98,7 @@ describe("upload after the check", () => {
   it("posts the files as multipart `files` and follows processing until done", async () => {
     const session = synthesizeSession({ seed: 11, durationS: 40 });
     const files = session.files.map((f) => new File([f.text], f.fileName, { type: "text/csv" }));
-    const sent: FormData[] = [];
-    class FakeXhr {
-      status = 0;
-      statusText = "";
-      responseText = "";
-      upload = { onprogress: null as null | ((e: { loaded: number; total: number; lengthComputable: boolean }) => void) };
-      onload: null | (() => void) = null;
-      onerror: null | (() => void) = null;
-      onabort: null | (() => void) = null;
-      withCredentials = false;
-      url = "";
-      open(_m: string, url: string) {
-        this.url = url;
-      }
-      setRequestHeader() {}
-      abort() {}
-      send(body: FormData) {
-        sent.push(body);
-        const total = files.reduce((s, f) => s + f.size, 0);
-        setTimeout(() => {
-          this.upload.onprogress?.({ loaded: total, total, lengthComputable: true });
-          this.status = 202;
-          this.responseText = JSON.stringify({ id: "0b7c2a8e-1d1f-4c61-9a39-3f1f6f1b2a10", status: "queued" });
-          this.onload?.();
-        }, 5);
-      }
-    }
-    vi.stubGlobal("XMLHttpRequest", FakeXhr);
-    let polls = 0;
-    vi.stubGlobal(
-      "fetch",
-      vi.fn(async () => {
-        polls += 1;
-        const status = polls < 2 ? "processing" : "done";
-        return new Response(JSON.stringify({ id: "0b7c2a8e-1d1f-4c61-9a39-3f1f6f1b2a10", status, progressPct: 50 }), { status: 200 });
-      }),
-    );
+    const { sent, polls } = fakeUploadServer(files);
 
     const user = userEvent.setup();
     renderWithProviders(<WeeklyWalk />);
@@ -145,6 +109,83 @@ describe("upload after the check", () => {
     await waitFor(() => expect(sent).toHaveLength(1));
     expect(sent[0]!.getAll("files").map((f) => (f as File).name)).toEqual(files.map((f) => f.name));
     expect(await screen.findByText(/This week's walk has been measured/, {}, { timeout: 10_000 })).toBeTruthy();
-    expect(polls).toBeGreaterThanOrEqual(2);
+    expect(polls()).toBeGreaterThanOrEqual(2);
+    expect(sent[0]!.get("startUtc")).toBeNull();
+  }, 40_000);
+
+  it("asks when a BIDS Motion set was walked and sends it as startUtc", async () => {
+    const session = synthesizeSession({ seed: 12, durationS: 30, placements: ["left_shank"] });
+    const rows = session.files[0]!.text
+      .split("\n")
+      .filter((l) => /^\d/.test(l))
+      .map((l) => l.split(",").join("\t"));
+    const stem = "sub-03_task-walk_tracksys-imu";
+    const channels = [
+      "name\tcomponent\ttype\ttracked_point\tunits",
+      "t\tn/a\tLATENCY\tn/a\ts",
+      ...["x", "y", "z"].map((c) => `acc_${c}\t${c}\tACCEL\tLeftShank\tm/s^2`),
+      ...["x", "y", "z"].map((c) => `gyro_${c}\t${c}\tGYRO\tLeftShank\tdeg/s`),
+    ];
+    const files = [
+      new File([rows.join("\n")], `${stem}_motion.tsv`, { type: "text/tab-separated-values" }),
+      new File([channels.join("\n")], `${stem}_channels.tsv`, { type: "text/tab-separated-values" }),
+      new File([JSON.stringify({ SamplingFrequency: 100, TrackingSystemName: "imu" })], `${stem}_motion.json`, { type: "application/json" }),
+    ];
+    const { sent } = fakeUploadServer(files);
+
+    const user = userEvent.setup();
+    renderWithProviders(<WeeklyWalk />);
+    await passChecklist(user);
+    await user.upload(screen.getByLabelText(/choose files/i), files);
+    const when = await screen.findByLabelText(/when did you do this walk/i, {}, { timeout: 20_000 });
+    await user.clear(when);
+    await user.type(when, "2026-11-20T08:30");
+    await user.click(await screen.findByRole("button", { name: /send to my care team|send anyway/i }));
+
+    await waitFor(() => expect(sent).toHaveLength(1));
+    expect(sent[0]!.get("startUtc")).toBe(new Date("2026-11-20T08:30").toISOString());
+    expect(sent[0]!.getAll("files")).toHaveLength(3);
   }, 40_000);
 });
+
+/** XMLHttpRequest (the upload, for progress events) and fetch (status polling) answered in-process. */
+function fakeUploadServer(files: File[]) {
+  const sent: FormData[] = [];
+  class FakeXhr {
+    status = 0;
+    statusText = "";
+    responseText = "";
+    upload = { onprogress: null as null | ((e: { loaded: number; total: number; lengthComputable: boolean }) => void) };
+    onload: null | (() => void) = null;
+    onerror: null | (() => void) = null;
+    onabort: null | (() => void) = null;
+    withCredentials = false;
+    url = "";
+    open(_m: string, url: string) {
+      this.url = url;
+    }
+    setRequestHeader() {}
+    abort() {}
+    send(body: FormData) {
+      sent.push(body);
+      const total = files.reduce((s, f) => s + f.size, 0);
+      setTimeout(() => {
+        this.upload.onprogress?.({ loaded: total, total, lengthComputable: true });
+        this.status = 202;
+        this.responseText = JSON.stringify({ id: "0b7c2a8e-1d1f-4c61-9a39-3f1f6f1b2a10", status: "queued" });
+        this.onload?.();
+      }, 5);
+    }
+  }
+  vi.stubGlobal("XMLHttpRequest", FakeXhr);
+  let polls = 0;
+  vi.stubGlobal(
+    "fetch",
+    vi.fn(async () => {
+      polls += 1;
+      const status = polls < 2 ? "processing" : "done";
+      return new Response(JSON.stringify({ id: "0b7c2a8e-1d1f-4c61-9a39-3f1f6f1b2a10", status, progressPct: 50 }), { status: 200 });
+    }),
+  );
+  return { sent, polls: () => polls };
+}

@@ -25,11 +25,18 @@ export function perFileProgress(files: { name: string; size: number }[], progres
   });
 }
 
-export function uploadSession(files: File[], onProgress: (p: FileProgress[]) => void, signal?: AbortSignal): Promise<UploadResponse> {
+export interface UploadRequest {
+  files: File[];
+  /** BIDS Motion only: clock time of the first sample, ISO 8601 UTC (BIDS keeps it outside these files). */
+  startUtc?: string;
+}
+
+export function uploadSession({ files, startUtc }: UploadRequest, onProgress: (p: FileProgress[]) => void, signal?: AbortSignal): Promise<UploadResponse> {
   return uploadWithProgress(
     "/sessions",
     () => {
       const form = new FormData();
+      if (startUtc) form.append("startUtc", startUtc);
       for (const f of files) form.append("files", f, f.name);
       return form;
     },
@@ -39,5 +46,5 @@ export function uploadSession(files: File[], onProgress: (p: FileProgress[]) => 
 }
 
 export function useUploadSession(onProgress: (p: FileProgress[]) => void) {
-  return useMutation({ mutationFn: (files: File[]) => uploadSession(files, onProgress) });
+  return useMutation({ mutationFn: (request: UploadRequest) => uploadSession(request, onProgress) });
 }

@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { IconInfo } from "@/components/icons";
-import { Button, ErrorState, FormMessage, LoadingState, PageHeader } from "@/components/ui";
+import { Button, ErrorState, FormMessage, LoadingState, PageHeader, TextField } from "@/components/ui";
 import { describeError, isApiError } from "@/lib/api-error";
 import { useUploadSession, type FileProgress } from "../api/upload-session";
 import { usePrecheck } from "../precheck/use-precheck";
@@ -11,6 +11,13 @@ import { FileProgressList, ProcessingStatus } from "./upload-status";
 
 type Step = "checklist" | "files";
 
+/** Now as the value of a datetime-local input (local time, minutes). */
+function localNow(): string {
+  const d = new Date();
+  d.setSeconds(0, 0);
+  return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 16);
+}
+
 /** Safety checklist → files → in-browser check → upload with progress → processing status. */
 export function WeeklyWalk() {
   const [step, setStep] = useState<Step>("checklist");
@@ -18,6 +25,11 @@ export function WeeklyWalk() {
   const [progress, setProgress] = useState<FileProgress[]>([]);
   const precheck = usePrecheck();
   const upload = useUploadSession(setProgress);
+  // BIDS Motion files carry no clock time (the standard keeps it in a separate scans file), so the
+  // person says when they walked; sensor CSV files carry their own start time.
+  const hasBids = files.some((f) => /_motion\.tsv$/i.test(f.name));
+  const [walkedAt, setWalkedAt] = useState(localNow);
+  const walkedAtValid = !hasBids || (walkedAt !== "" && !Number.isNaN(new Date(walkedAt).getTime()) && new Date(walkedAt).getTime() <= Date.now() + 60_000);
 
   function addFiles(added: File[]) {
     // Adding more files (e.g. a forgotten BIDS sidecar) keeps the earlier ones; same name replaces.
@@ -57,9 +69,29 @@ export function WeeklyWalk() {
           {precheck.isError ? <ErrorState title="The check could not run" error={precheck.error} /> : null}
           {precheck.data && !precheck.isPending ? <PrecheckSummaryView summary={precheck.data} /> : null}
 
+          {hasBids && precheck.data && !upload.isPending && !upload.isSuccess ? (
+            <div className="max-w-xs">
+              <TextField
+                type="datetime-local"
+                label="When did you do this walk?"
+                hint="BIDS files do not record the time of the walk, so Pendula takes it from here."
+                value={walkedAt}
+                max={localNow()}
+                onChange={(e) => setWalkedAt(e.target.value)}
+                error={walkedAtValid ? null : "Enter the date and time of the walk (not in the future)."}
+                required
+              />
+            </div>
+          ) : null}
+
           {precheck.data && !upload.isPending && !upload.isSuccess ? (
             <div className="flex flex-wrap gap-3">
-              <Button size="lg" onClick={() => upload.mutate(files)} variant={precheck.data.verdict === "redo" ? "secondary" : "primary"}>
+              <Button
+                size="lg"
+                disabled={!walkedAtValid}
+                onClick={() => upload.mutate({ files, startUtc: hasBids ? new Date(walkedAt).toISOString() : undefined })}
+                variant={precheck.data.verdict === "redo" ? "secondary" : "primary"}
+              >
                 {precheck.data.verdict === "redo" ? "Send anyway" : "Send to my care team"}
               </Button>
               <Button variant="quiet" onClick={reset}>
