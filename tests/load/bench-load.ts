@@ -124,6 +124,10 @@ console.log(`target (issue): trends p95 < 30 ms at ${RATE} requests/s`);
 const trendPaths = patientIds.map((id) => `/api/patients/${id}/trends`);
 const sessionPaths = sessionIds.map((id) => `/api/sessions/${id}`);
 await run("GET trends, first read per patient", trendPaths, { mode: "amount", amount: trendPaths.length, connections: 4 });
+// The caseload table of a clinician with every load patient (flags, adherence, latest values):
+// the first read computes every patient's flags, later ones reuse them while the data holds.
+await run(`GET caseload (${PATIENTS}), first read`, ["/api/patients"], { mode: "amount", amount: 1, connections: 1 });
+await run(`GET caseload (${PATIENTS}), re-read`, ["/api/patients"], { mode: "amount", amount: 20, connections: 1 });
 // BENCH_ONLY=trends|sessions measures one route (for profiling).
 const only = process.env.BENCH_ONLY;
 if (!only || only === "trends") {

@@ -44,11 +44,13 @@ export async function sessionStats(db: Knex, patientIds: string[]): Promise<Map<
   return new Map(rows.map((r) => [r.patient_id, { ...r, sessions_count: Number(r.sessions_count) }]));
 }
 
-/** recorded_at of every session that was not a failed upload, per patient (adherence input). */
-export async function sessionDates(db: Knex, patientIds: string[]): Promise<Map<string, string[]>> {
+/** recorded_at of every session (since `since`, when given) that was not a failed upload, per patient (adherence input). */
+export async function sessionDates(db: Knex, patientIds: string[], since?: Date): Promise<Map<string, string[]>> {
   const out = new Map<string, string[]>();
   if (patientIds.length === 0) return out;
-  const rows = await db("walk_sessions").whereIn("patient_id", patientIds).whereNot("status", "failed").select("patient_id", "recorded_at");
+  const q = db("walk_sessions").whereIn("patient_id", patientIds).whereNot("status", "failed").select("patient_id", "recorded_at");
+  if (since) q.andWhere("recorded_at", ">=", since);
+  const rows = await q;
   for (const r of rows) {
     const list = out.get(r.patient_id) ?? [];
     list.push(new Date(r.recorded_at).toISOString());
@@ -143,8 +145,10 @@ export async function readTrendContext(
 
 /** Trend rows: one per processed session and metric, oldest first (index patient_id, metric_key, recorded_at). */
 export function trendRows(db: Knex, patientId: string, keys: string[] | null, from?: string, to?: string) {
+  // The patient_id join condition lets the planner read the patient's sessions by index instead of
+  // hashing every processed session; the metric columns come from the covering index.
   const q = db("session_metrics as m")
-    .join("walk_sessions as s", "s.id", "m.session_id")
+    .join("walk_sessions as s", (j) => j.on("s.id", "m.session_id").andOn("s.patient_id", "m.patient_id"))
     .where("m.patient_id", patientId)
     .andWhere("s.status", "done")
     .select("m.metric_key", "m.unit", "m.value", "m.session_id", "m.recorded_at")
@@ -153,4 +157,42 @@ export function trendRows(db: Knex, patientId: string, keys: string[] | null, fr
   if (from) q.andWhere("m.recorded_at", ">=", from);
   if (to) q.andWhere("m.recorded_at", "<=", to);
   return q as Promise<Array<{ metric_key: string; unit: string; value: number; session_id: string; recorded_at: Date }>>;
+}
+
+/**
+ * Per patient, what its trend annotations depend on besides the patient's own fields: the number
+ * of processed sessions and the latest update and processing times. Changes whenever a session is
+ * processed, reprocessed or re-timed (the caseload flag cache's key).
+ */
+export async function trendFingerprints(db: Knex, patientIds: string[]): Promise<Map<string, string>> {
+  const out = new Map(patientIds.map((id) => [id, "0||"]));
+  if (patientIds.length === 0) return out;
+  const rows: Array<{ patient_id: string; n: number; u: string; p: string }> = await db("walk_sessions")
+    .whereIn("patient_id", patientIds)
+    .andWhere("status", "done")
+    .groupBy("patient_id")
+    .select("patient_id", db.raw("count(*)::int AS n"), db.raw("max(updated_at)::text AS u"), db.raw("max(processed_at)::text AS p"));
+  for (const r of rows) out.set(r.patient_id, `${r.n}|${r.u}|${r.p ?? ""}`);
+  return out;
+}
+
+/** trendRows for several patients at once (the caseload's flags), with the patient id on each row. */
+export async function trendRowsByPatient(db: Knex, patientIds: string[], keys: string[]) {
+  const out = new Map<string, Awaited<ReturnType<typeof trendRows>>>();
+  if (patientIds.length === 0) return out;
+  const rows: Array<{ patient_id: string; metric_key: string; unit: string; value: number; session_id: string; recorded_at: Date }> = await db(
+    "session_metrics as m",
+  )
+    .join("walk_sessions as s", (j) => j.on("s.id", "m.session_id").andOn("s.patient_id", "m.patient_id"))
+    .whereIn("m.patient_id", patientIds)
+    .whereIn("m.metric_key", keys)
+    .andWhere("s.status", "done")
+    .select("m.patient_id", "m.metric_key", "m.unit", "m.value", "m.session_id", "m.recorded_at")
+    .orderBy([{ column: "m.patient_id" }, { column: "m.metric_key" }, { column: "m.recorded_at" }]);
+  for (const r of rows) {
+    let list = out.get(r.patient_id);
+    if (!list) out.set(r.patient_id, (list = []));
+    list.push(r);
+  }
+  return out;
 }

@@ -3,7 +3,8 @@ import { patientDetail, patientList, patientListQuery, patientSessions, patientS
 import { trendsQuery, trendsResponse } from "../../contracts/trends";
 import type { AppDeps } from "../../deps";
 import { ApiRouter, conformResponse, type RouteModule } from "../../http/api-router";
-import { getPatient, getPatientSessions, getTrendsJson, listPatientsFor } from "./patients.service";
+import { FingerprintCache } from "./fingerprint-cache";
+import { getPatient, getPatientSessions, getTrendsJson, listPatientsFor, type CaseloadFlags } from "./patients.service";
 import { TrendCache } from "./trend-cache";
 
 const CLINICAL_READ = ["sessions:read:own", "sessions:read:caseload"] as const;
@@ -11,6 +12,8 @@ const CLINICAL_READ = ["sessions:read:own", "sessions:read:caseload"] as const;
 export function patientsRouter(deps: AppDeps): ApiRouter {
   const api = new ApiRouter("/api/patients", deps);
   const trendCache = new TrendCache(deps.config.trendCacheBytes);
+  // A flag list is a few dozen bytes; 20 000 patients' worth stays well under a megabyte.
+  const caseloadFlagCache = new FingerprintCache<CaseloadFlags>(20_000);
   api.endpoint({
     method: "get",
     path: "/",
@@ -18,7 +21,7 @@ export function patientsRouter(deps: AppDeps): ApiRouter {
     access: { scopes: ["patients:read:caseload", "patients:list"] },
     request: { query: patientListQuery },
     response: patientList,
-    handler: ({ auth, query }, req) => listPatientsFor(deps, req, auth, query.q),
+    handler: ({ auth, query }, req) => listPatientsFor(deps, req, auth, query.q, caseloadFlagCache),
   });
   api.endpoint({
     method: "get",

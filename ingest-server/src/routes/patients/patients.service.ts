@@ -17,8 +17,11 @@ import {
   sessionMetricValues,
   sessionStats,
   trendRows,
+  trendFingerprints,
+  trendRowsByPatient,
   type PatientRow,
 } from "./patients.repository";
+import type { FingerprintCache } from "./fingerprint-cache";
 import type { CachedTrend, TrendCache } from "./trend-cache";
 
 const SUMMARY_KEYS = ["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct"];
@@ -78,14 +81,14 @@ function groupTrendRows(rows: Awaited<ReturnType<typeof trendRows>>): TrendInput
  * coordination events raised by that session — the same rules as the trend page, so the
  * caseload never disagrees with it. A prompt to look, not a diagnosis.
  */
-async function latestSessionFlags(deps: AppDeps, p: PatientRow): Promise<Array<{ metricKey: string; flag: string }>> {
-  const metrics = groupTrendRows(await trendRows(deps.db, p.id, CASELOAD_FLAG_KEYS));
+function latestSessionFlags(p: PatientRow, rows: Awaited<ReturnType<typeof trendRows>>): CaseloadFlags {
+  const metrics = groupTrendRows(rows);
   if (metrics.length === 0) return [];
   const annotated = annotateTrends({ metrics, patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: isoDate(p.enrolled_on) } });
   const latestSessionId = metrics
     .flatMap((m) => m.points)
     .reduce((a, b) => (a && a.recordedAt >= b.recordedAt ? a : b)).sessionId;
-  const out: Array<{ metricKey: string; flag: string }> = [];
+  const out: CaseloadFlags = [];
   for (const m of annotated.metrics) {
     const last = m.points.at(-1);
     if (last && last.sessionId === latestSessionId && (last.flag === "improved" || last.flag === "worsened")) out.push({ metricKey: m.key, flag: last.flag });
@@ -94,8 +97,17 @@ async function latestSessionFlags(deps: AppDeps, p: PatientRow): Promise<Array<{
   return out;
 }
 
-/** Clinician: own caseload with summary columns. Admin: every patient, identity columns only. */
-export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthContext, q?: string) {
+export type CaseloadFlags = Array<{ metricKey: string; flag: string }>;
+
+/** Adherence looks at the last four ended weeks; eight weeks of dates cover them and the current one. */
+const ADHERENCE_DATES_WINDOW_MS = 8 * 7 * 86_400_000;
+
+/**
+ * Clinician: own caseload with summary columns. Admin: every patient, identity columns only.
+ * Each patient's flags are kept in `flagCache` while its trend fingerprint holds, so a caseload
+ * page re-read costs one aggregate query for the fingerprints instead of every patient's series.
+ */
+export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthContext, q: string | undefined, flagCache: FingerprintCache<CaseloadFlags>) {
   if (auth.role === "admin") {
     const rows = await listPatients(deps.db, null, q);
     await audit(deps.db, req, { action: "patient.list", resourceType: "patient", details: { count: rows.length, view: "identity" } });
@@ -104,10 +116,22 @@ export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthCon
   if (auth.role !== "clinician") throw new HttpError(403, "forbidden", "only clinicians and admins list patients");
   const rows = await listPatients(deps.db, auth.userId, q);
   const ids = rows.map((r) => r.id);
-  const [stats, dates, latest] = await Promise.all([sessionStats(deps.db, ids), sessionDates(deps.db, ids), latestMetrics(deps.db, ids, SUMMARY_KEYS)]);
-  const flags = new Map<string, Array<{ metricKey: string; flag: string }>>();
-  for (const p of rows) flags.set(p.id, await latestSessionFlags(deps, p));
   const now = new Date();
+  const [stats, dates, latest, fingerprints] = await Promise.all([
+    sessionStats(deps.db, ids),
+    sessionDates(deps.db, ids, new Date(now.getTime() - ADHERENCE_DATES_WINDOW_MS)),
+    latestMetrics(deps.db, ids, SUMMARY_KEYS),
+    trendFingerprints(deps.db, ids),
+  ]);
+  const fingerprintOf = (p: PatientRow) => `${fingerprints.get(p.id)}|${p.birth_year}|${p.condition}|${isoDate(p.enrolled_on)}`;
+  const flags = new Map<string, CaseloadFlags>();
+  for (const p of rows) {
+    const hit = flagCache.get(p.id, fingerprintOf(p));
+    if (hit) flags.set(p.id, hit);
+  }
+  const missing = rows.filter((p) => !flags.has(p.id));
+  const flagRows = await trendRowsByPatient(deps.db, missing.map((p) => p.id), CASELOAD_FLAG_KEYS);
+  for (const p of missing) flags.set(p.id, flagCache.set(p.id, fingerprintOf(p), latestSessionFlags(p, flagRows.get(p.id) ?? [])));
   await audit(deps.db, req, { action: "patient.list", resourceType: "patient", details: { count: rows.length, view: "caseload" } });
   return {
     items: rows.map((p) => {

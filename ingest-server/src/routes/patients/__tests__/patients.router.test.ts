@@ -250,3 +250,24 @@ describe("OpenAPI document", () => {
     }
   });
 });
+
+// Last in the file: it adds a patient to the caseload, which the counts above do not expect.
+describe("GET /api/patients after new sessions", () => {
+  it("a caseload re-read follows newly processed sessions (the flag cache follows the data)", async () => {
+    const p3 = await ctx.seedUser({ role: "patient", caseloadOf: [clinician.id], patient: { condition: "stroke", birthYear: 1958 } });
+    for (let w = 0; w < 4; w++) {
+      await insertDoneSession(ctx, p3.patientId!, new Date(Date.UTC(2026, 8, 8 + 7 * w, 9)).toISOString(), { cadenceStepsPerMin: 100 + (w % 2) });
+    }
+    const flagsOf = async () => {
+      const res = await request(ctx.app).get("/api/patients").set(as(clinician));
+      expect(res.status).toBe(200);
+      return res.body.items.find((r: { id: string }) => r.id === p3.patientId).flags as Array<{ metricKey: string; flag: string }>;
+    };
+    const cadence = (flags: Array<{ metricKey: string; flag: string }>) => flags.filter((f) => f.metricKey === "cadenceStepsPerMin").map((f) => f.flag);
+    expect(cadence(await flagsOf())).toEqual([]);
+    expect(cadence(await flagsOf())).toEqual([]); // served from the cache
+    // A session far below the 100/101/100 baseline (beyond MDC95, Weir 2005) is flagged at once.
+    await insertDoneSession(ctx, p3.patientId!, new Date(Date.UTC(2026, 9, 6, 9)).toISOString(), { cadenceStepsPerMin: 80 });
+    expect(cadence(await flagsOf())).toEqual(["worsened"]);
+  });
+});
