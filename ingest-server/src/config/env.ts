@@ -36,8 +36,9 @@ export const envSchema = z.object({
   LOGIN_RATE_WINDOW_S: int(900, 1, 86_400),
   // Uploads per signed-in user and window (each one parses and stores megabytes).
   UPLOAD_RATE_LIMIT: int(60, 1, 100_000),
-  // Per-process memory for serialized trend answers (see routes/patients/trend-cache.ts); 0 disables it.
+  // Per-process memory for serialized trend and session answers (see http/answer-cache.ts); 0 disables it.
   TREND_CACHE_MB: int(128, 0, 8192),
+  SESSION_CACHE_MB: int(128, 0, 8192),
   UPLOAD_RATE_WINDOW_S: int(900, 1, 86_400),
   RESEARCH_HMAC_KEY: secret("RESEARCH_HMAC_KEY"),
   // Only behind a reverse proxy on this machine: then X-Forwarded-For from loopback names the client.
@@ -79,6 +80,7 @@ export interface Config {
   loginRateLimit: { max: number; windowS: number };
   uploadRateLimit: { max: number; windowS: number };
   trendCacheBytes: number;
+  sessionCacheBytes: number;
   researchHmacKey: string;
   trustProxy: boolean;
   queueSchema: string;
@@ -128,6 +130,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     loginRateLimit: { max: e.LOGIN_RATE_LIMIT, windowS: e.LOGIN_RATE_WINDOW_S },
     uploadRateLimit: { max: e.UPLOAD_RATE_LIMIT, windowS: e.UPLOAD_RATE_WINDOW_S },
     trendCacheBytes: e.TREND_CACHE_MB * 1024 * 1024,
+    sessionCacheBytes: e.SESSION_CACHE_MB * 1024 * 1024,
     researchHmacKey: e.RESEARCH_HMAC_KEY,
     trustProxy: e.TRUST_PROXY === "1" || e.TRUST_PROXY === "true",
     queueSchema: e.QUEUE_SCHEMA,

@@ -5,13 +5,13 @@ import type { AppDeps } from "../../deps";
 import { ApiRouter, conformResponse, type RouteModule } from "../../http/api-router";
 import { FingerprintCache } from "./fingerprint-cache";
 import { getPatient, getPatientSessions, getTrendsJson, listPatientsFor, type CaseloadFlags } from "./patients.service";
-import { TrendCache } from "./trend-cache";
+import { AnswerCache, sendCachedAnswer } from "../../http/answer-cache";
 
 const CLINICAL_READ = ["sessions:read:own", "sessions:read:caseload"] as const;
 
 export function patientsRouter(deps: AppDeps): ApiRouter {
   const api = new ApiRouter("/api/patients", deps);
-  const trendCache = new TrendCache(deps.config.trendCacheBytes);
+  const trendCache = new AnswerCache(deps.config.trendCacheBytes);
   // A flag list is a few dozen bytes; 20 000 patients' worth stays well under a megabyte.
   const caseloadFlagCache = new FingerprintCache<CaseloadFlags>(20_000);
   api.endpoint({
@@ -52,14 +52,7 @@ export function patientsRouter(deps: AppDeps): ApiRouter {
       const entry = await getTrendsJson(deps, req, auth, params.id, query, trendCache, (payload) =>
         JSON.stringify(conformResponse(trendsResponse, payload, "get", "/api/patients/:id/trends")),
       );
-      res.status(200).type("application/json").vary("Accept-Encoding").set("ETag", entry.etag).set("Cache-Control", "private, no-cache");
-      // Revalidation: an unchanged trend costs the browser a 304 and no body.
-      if (req.fresh) {
-        res.status(304).end();
-        return;
-      }
-      if (req.acceptsEncodings("gzip", "identity") === "gzip") res.set("Content-Encoding", "gzip").send(entry.gzip);
-      else res.send(entry.body);
+      sendCachedAnswer(req, res, entry);
     },
   });
   return api;

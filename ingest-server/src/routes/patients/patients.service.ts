@@ -22,7 +22,7 @@ import {
   type PatientRow,
 } from "./patients.repository";
 import type { FingerprintCache } from "./fingerprint-cache";
-import type { CachedTrend, TrendCache } from "./trend-cache";
+import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
 
 const SUMMARY_KEYS = ["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct"];
 /** Metrics whose change flags and coordination events the caseload table summarises. */
@@ -213,7 +213,7 @@ function trendsPayload(id: string, p: Pick<PatientRow, "birth_year" | "condition
 
 /**
  * The trend answer as JSON text, from the per-process cache when the patient's processed sessions
- * have not changed since it was built (see trend-cache.ts). Every read is access-checked and audited.
+ * have not changed since it was built (see http/answer-cache.ts). Every read is access-checked and audited.
  */
 export async function getTrendsJson(
   deps: AppDeps,
@@ -221,9 +221,9 @@ export async function getTrendsJson(
   auth: AuthContext,
   id: string,
   query: { metrics?: string; from?: string; to?: string },
-  cache: TrendCache,
+  cache: AnswerCache,
   serialize: (payload: unknown) => string,
-): Promise<CachedTrend> {
+): Promise<CachedAnswer> {
   const keys = parseKeys(query.metrics);
   const scope = clinicalPatientScope(deps.db, auth);
   const context = scope
@@ -233,5 +233,5 @@ export async function getTrendsJson(
   const p = context.patient;
   const fingerprint = `${context.fingerprint}|${p.birth_year}|${p.condition}|${isoDate(p.enrolled_on)}`;
   const key = `${id}|${keys?.join(",") ?? "*"}|${query.from ?? ""}|${query.to ?? ""}`;
-  return cache.get(key, fingerprint) ?? cache.set(key, fingerprint, serialize(trendsPayload(id, p, await trendRows(deps.db, id, keys), query)));
+  return cache.get(key, fingerprint) ?? (await cache.set(key, fingerprint, serialize(trendsPayload(id, p, await trendRows(deps.db, id, keys), query))));
 }

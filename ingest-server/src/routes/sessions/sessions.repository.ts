@@ -62,6 +62,40 @@ export function findSession(db: Knex, id: string): Promise<SessionRow | undefine
   return db<SessionRow>("walk_sessions").where({ id }).first();
 }
 
+export type SessionHead = Omit<SessionRow, "analysis">;
+
+/**
+ * One statement for the hot path of the session route: the session without its stored analysis,
+ * only when its patient is in `scope`, and the audit row of the read, inserted only then.
+ * Undefined means not found or not allowed (the same 404).
+ */
+export async function readSessionHead(
+  db: Knex,
+  sessionId: string,
+  scope: Knex.QueryBuilder | string[],
+  audit: { actor_id: string | null; actor_role: string | null; action: string; resource_type: string; ip: string | null; user_agent: string | null },
+): Promise<SessionHead | undefined> {
+  const allowed = db("walk_sessions")
+    .where("id", sessionId)
+    .whereIn("patient_id", scope)
+    .select(
+      "id", "patient_id", "recorded_at", "uploaded_by", "status", "progress_pct", "attempts", "algorithm_version",
+      "error", "content_sha256", "duration_s", "created_at", "updated_at", "processed_at",
+    );
+  const logged = db.raw(
+    `INSERT INTO audit_events (actor_id, actor_role, action, resource_type, resource_id, patient_id, ip, user_agent)
+     SELECT ?, ?, ?, ?, a.id::text, a.patient_id, ?, ? FROM allowed a`,
+    [audit.actor_id, audit.actor_role, audit.action, audit.resource_type, audit.ip, audit.user_agent],
+  );
+  return db.with("allowed", allowed).with("logged", logged).from("allowed").first<SessionHead | undefined>("*");
+}
+
+/** The stored analysis of a processed session (null before processing ends). */
+export async function sessionAnalysis(db: Knex, sessionId: string): Promise<unknown> {
+  const row = await db("walk_sessions").where({ id: sessionId }).first("analysis");
+  return row?.analysis ?? null;
+}
+
 export function listRawFiles(db: Knex, sessionId: string): Promise<RawFileRow[]> {
   return db<RawFileRow>("raw_files").where({ session_id: sessionId }).orderBy("storage_key");
 }

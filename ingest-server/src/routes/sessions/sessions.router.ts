@@ -4,8 +4,9 @@ import { rateLimit } from "express-rate-limit";
 import { idParams } from "../../contracts/common";
 import { reprocessResponse, sessionDetail, signalQuery, signalResponse, uploadFields, uploadResponse } from "../../contracts/sessions";
 import type { AppDeps } from "../../deps";
-import { ApiRouter, type RouteModule } from "../../http/api-router";
-import { getSession, getSessionSignal, reprocessSession } from "./sessions.service";
+import { AnswerCache, sendCachedAnswer } from "../../http/answer-cache";
+import { ApiRouter, conformResponse, type RouteModule } from "../../http/api-router";
+import { getSessionJson, getSessionSignal, reprocessSession } from "./sessions.service";
 import { uploadSession } from "./upload.service";
 
 /** Multipart parsing in memory: the files are parsed and hashed before anything is stored. */
@@ -40,6 +41,7 @@ function uploadRateLimit(deps: AppDeps): RequestHandler {
 
 export function sessionsRouter(deps: AppDeps): ApiRouter {
   const api = new ApiRouter("/api/sessions", deps);
+  const sessionCache = new AnswerCache(deps.config.sessionCacheBytes);
   api.endpoint({
     method: "post",
     path: "/",
@@ -66,7 +68,12 @@ export function sessionsRouter(deps: AppDeps): ApiRouter {
     access: { scopes: ["sessions:read:own", "sessions:read:caseload"] },
     request: { params: idParams },
     response: sessionDetail,
-    handler: ({ auth, params }, req) => getSession(deps, req, auth, params.id),
+    handler: async ({ auth, params }, req, res) => {
+      const entry = await getSessionJson(deps, req, auth, params.id, sessionCache, (payload) =>
+        JSON.stringify(conformResponse(sessionDetail, payload, "get", "/api/sessions/:id")),
+      );
+      sendCachedAnswer(req, res, entry);
+    },
   });
   api.endpoint({
     method: "get",

@@ -1,13 +1,14 @@
 import type { Request } from "express";
-import { audit } from "../../audit/audit";
-import { assertPatientAccess } from "../../auth/patient-access";
+import { audit, auditRow } from "../../audit/audit";
+import { assertPatientAccess, clinicalPatientScope } from "../../auth/patient-access";
 import type { SessionDetail, SessionSummary, SignalResponse } from "../../contracts/sessions";
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
 import { minMaxDecimate } from "../../processing/min-max-decimate";
 import { enqueueProcessing } from "./upload.service";
-import { findSession, listRawFiles, listTraces, markQueued, type SessionRow } from "./sessions.repository";
+import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
+import { findSession, listRawFiles, listTraces, markQueued, readSessionHead, sessionAnalysis, type SessionHead, type SessionRow } from "./sessions.repository";
 
 const notFound = () => new HttpError(404, "not_found", "session not found");
 
@@ -26,7 +27,7 @@ export async function loadSessionFor(deps: AppDeps, auth: AuthContext, id: strin
 
 const iso = (d: Date | string) => new Date(d).toISOString();
 
-export function toSummary(s: SessionRow, metrics: Record<string, number> = {}): SessionSummary {
+export function toSummary(s: SessionHead, metrics: Record<string, number> = {}): SessionSummary {
   return {
     id: s.id,
     patientId: s.patient_id,
@@ -43,13 +44,34 @@ export function toSummary(s: SessionRow, metrics: Record<string, number> = {}): 
   };
 }
 
-export async function getSession(deps: AppDeps, req: Request, auth: AuthContext, id: string): Promise<SessionDetail> {
-  const s = await loadSessionFor(deps, auth, id);
-  const files = await listRawFiles(deps.db, id);
-  await audit(deps.db, req, { action: "session.read", resourceType: "session", resourceId: id, patientId: s.patient_id });
-  const metricRows = await deps.db("session_metrics").where({ session_id: id }).select("metric_key", "value");
+/**
+ * The session answer as JSON text, from the per-process cache while the session row is unchanged
+ * (every processing step and status change sets updated_at; files never change after upload).
+ * Access check and audit row are one statement, so a repeated read is one round trip after
+ * authentication. The status poll of a session being processed misses the cache each time its
+ * progress moves, and then the answer is small (no analysis yet).
+ */
+export async function getSessionJson(
+  deps: AppDeps,
+  req: Request,
+  auth: AuthContext,
+  id: string,
+  cache: AnswerCache,
+  serialize: (payload: SessionDetail) => string,
+): Promise<CachedAnswer> {
+  const scope = clinicalPatientScope(deps.db, auth);
+  const s = scope ? await readSessionHead(deps.db, id, scope, auditRow(req, { action: "session.read", resourceType: "session" })) : undefined;
+  if (!s) throw notFound();
+  const fingerprint = [new Date(s.updated_at).toISOString(), s.status, s.progress_pct, s.processed_at ? new Date(s.processed_at).toISOString() : "", s.algorithm_version ?? ""].join("|");
+  const hit = cache.get(id, fingerprint);
+  if (hit) return hit;
+  const [files, metricRows, analysis] = await Promise.all([
+    listRawFiles(deps.db, id),
+    deps.db("session_metrics").where({ session_id: id }).select("metric_key", "value"),
+    s.status === "done" ? sessionAnalysis(deps.db, id) : Promise.resolve(null),
+  ]);
   const metrics = Object.fromEntries(metricRows.map((m) => [m.metric_key as string, Number(m.value)]));
-  return {
+  const detail: SessionDetail = {
     ...toSummary(s, metrics),
     files: files.map((f) => ({
       placement: f.placement as SessionDetail["files"][number]["placement"],
@@ -58,8 +80,9 @@ export async function getSession(deps: AppDeps, req: Request, auth: AuthContext,
       format: f.format,
       originalName: f.original_name,
     })),
-    ...(s.status === "done" && s.analysis ? { analysis: s.analysis as SessionDetail["analysis"] } : {}),
+    ...(analysis ? { analysis: analysis as SessionDetail["analysis"] } : {}),
   };
+  return cache.set(id, fingerprint, serialize(detail));
 }
 
 export async function getSessionSignal(

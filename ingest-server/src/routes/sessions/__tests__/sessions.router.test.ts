@@ -117,6 +117,34 @@ describe("POST /api/sessions → processSession → GET /api/sessions/:id", () =
     const after = await ctx.db("session_metrics").where({ session_id: sessionId }).orderBy("metric_key");
     expect(after.map((m) => [m.metric_key, m.value])).toEqual(before.map((m) => [m.metric_key, m.value]));
   });
+
+  it("a repeated read is the same text with a strong ETag (304 on revalidation), audited every time, and follows reprocessing", async () => {
+    const get = () => request(ctx.app).get(`/api/sessions/${sessionId}`).set("Authorization", `Bearer ${tokens[clinician.id]}`);
+    const audited = async () => Number((await ctx.db("audit_events").where({ action: "session.read", resource_id: sessionId }).count<{ n: string }[]>({ n: "*" }))[0]?.n);
+    const reads0 = await audited();
+    const first = await get();
+    const second = await get();
+    expect(second.status).toBe(200);
+    expect(second.text).toBe(first.text);
+    const etag = first.headers.etag as string;
+    expect(etag).toMatch(/^"[A-Za-z0-9_-]+"$/);
+    expect((await get().set("If-None-Match", etag)).status).toBe(304);
+    expect(await audited()).toBe(reads0 + 3);
+    // A refused read is not logged as a read.
+    const refused = await request(ctx.app).get(`/api/sessions/${sessionId}`).set("Authorization", `Bearer ${tokens[otherClinician.id]}`);
+    expect(refused.status).toBe(404);
+    expect(await audited()).toBe(reads0 + 3);
+
+    await request(ctx.app).post(`/api/sessions/${sessionId}/reprocess`).set("Authorization", `Bearer ${tokens[clinician.id]}`).expect(202);
+    const queued = await get().set("If-None-Match", etag);
+    expect(queued.status).toBe(200);
+    expect(queued.body).toMatchObject({ status: "queued", progressPct: 0 });
+    expect(queued.body.analysis).toBeUndefined();
+    await processSession(ctx.deps, sessionId);
+    const done = await get();
+    expect(done.body).toMatchObject({ status: "done", progressPct: 100 });
+    expect(done.body.analysis.metrics.cadenceStepsPerMin).toBeCloseTo(first.body.analysis.metrics.cadenceStepsPerMin, 9);
+  });
 });
 
 describe("concurrent identical uploads", () => {
