@@ -32,6 +32,21 @@ export function auditRow(req: Requestish | null, entry: AuditEntry) {
   };
 }
 
+export type AuditRowValues = ReturnType<typeof auditRow>;
+
+/**
+ * The INSERT of one audit row per row of the common table expression `cte`, for a data-modifying
+ * WITH clause: a read's access check and its audit row then go to the database as one statement,
+ * and nothing is logged when the check finds no row. `resourceId`/`patientId` name columns of `cte`.
+ */
+export function auditEachRowOf(db: Knex, row: AuditRowValues, cte: string, columns: { resourceId: string; patientId: string }): Knex.Raw {
+  return db.raw(
+    `INSERT INTO audit_events (actor_id, actor_role, action, resource_type, resource_id, patient_id, ip, user_agent, details)
+     SELECT ?, ?, ?, ?, ??::text, ??, ?, ?, ?::jsonb FROM ??`,
+    [row.actor_id, row.actor_role, row.action, row.resource_type, `${cte}.${columns.resourceId}`, `${cte}.${columns.patientId}`, row.ip, row.user_agent, row.details, cte],
+  );
+}
+
 /**
  * Writes one audit event: who (token or explicit actor), what, when (database clock), from where
  * (ip, user agent). Pass a transaction as `db` to make the event commit with the change it records.

@@ -1,4 +1,5 @@
 import type { Knex } from "knex";
+import { auditEachRowOf, type AuditRowValues } from "../../audit/audit";
 import type { SessionRow } from "../sessions/sessions.repository";
 
 export interface PatientRow {
@@ -120,17 +121,12 @@ export async function readTrendContext(
   db: Knex,
   patientId: string,
   scope: Knex.QueryBuilder | string[],
-  audit: { actor_id: string | null; actor_role: string | null; action: string; resource_type: string; ip: string | null; user_agent: string | null },
+  audit: AuditRowValues,
 ): Promise<TrendReadContext | undefined> {
   const allowed = db("patients").where("id", patientId).whereIn("id", scope).select("id", "birth_year", "condition", "enrolled_on");
-  const logged = db.raw(
-    `INSERT INTO audit_events (actor_id, actor_role, action, resource_type, resource_id, patient_id, ip, user_agent)
-     SELECT ?, ?, ?, ?, a.id::text, a.id, ?, ? FROM allowed a`,
-    [audit.actor_id, audit.actor_role, audit.action, audit.resource_type, audit.ip, audit.user_agent],
-  );
   const row = await db
     .with("allowed", allowed)
-    .with("logged", logged)
+    .with("logged", auditEachRowOf(db, audit, "allowed", { resourceId: "id", patientId: "id" }))
     .from("allowed as a")
     .crossJoin(
       db.raw(

@@ -1,4 +1,5 @@
 import type { Knex } from "knex";
+import { auditEachRowOf, type AuditRowValues } from "../../audit/audit";
 
 export interface SessionRow {
   id: string;
@@ -73,7 +74,7 @@ export async function readSessionHead(
   db: Knex,
   sessionId: string,
   scope: Knex.QueryBuilder | string[],
-  audit: { actor_id: string | null; actor_role: string | null; action: string; resource_type: string; ip: string | null; user_agent: string | null },
+  audit: AuditRowValues,
 ): Promise<SessionHead | undefined> {
   const allowed = db("walk_sessions")
     .where("id", sessionId)
@@ -82,12 +83,11 @@ export async function readSessionHead(
       "id", "patient_id", "recorded_at", "uploaded_by", "status", "progress_pct", "attempts", "algorithm_version",
       "error", "content_sha256", "duration_s", "created_at", "updated_at", "processed_at",
     );
-  const logged = db.raw(
-    `INSERT INTO audit_events (actor_id, actor_role, action, resource_type, resource_id, patient_id, ip, user_agent)
-     SELECT ?, ?, ?, ?, a.id::text, a.patient_id, ?, ? FROM allowed a`,
-    [audit.actor_id, audit.actor_role, audit.action, audit.resource_type, audit.ip, audit.user_agent],
-  );
-  return db.with("allowed", allowed).with("logged", logged).from("allowed").first<SessionHead | undefined>("*");
+  return db
+    .with("allowed", allowed)
+    .with("logged", auditEachRowOf(db, audit, "allowed", { resourceId: "id", patientId: "patient_id" }))
+    .from("allowed")
+    .first<SessionHead | undefined>("*");
 }
 
 /** The stored analysis of a processed session (null before processing ends). */
