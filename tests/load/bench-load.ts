@@ -16,6 +16,8 @@ const WEEKS = Number(process.env.BENCH_WEEKS ?? 104);
 const RATE = Number(process.env.BENCH_RATE ?? 200);
 const DURATION_S = Number(process.env.BENCH_DURATION_S ?? 15);
 const WARMUP_S = Number(process.env.BENCH_WARMUP_S ?? 3);
+// The steady passes are repeated: this 2-core machine has noisy neighbours, and one pass can hide a bad one.
+const STEADY_RUNS = Number(process.env.BENCH_STEADY_RUNS ?? 3);
 
 // Room for every patient's trend answer (≈ 0.35 MB each with its gzip copy) in the server's cache.
 const ctx = await createTestContext({ env: { TREND_CACHE_MB: "512" } });
@@ -85,7 +87,8 @@ async function databaseCpuS(): Promise<number> {
 
 type Shape = { mode: "steady" } | { mode: "saturate"; connections: number } | { mode: "amount"; amount: number; connections: number };
 
-async function run(title: string, paths: string[], shape: Shape): Promise<void> {
+/** Runs one pass, prints its line and returns its p95 in ms. */
+async function run(title: string, paths: string[], shape: Shape): Promise<number> {
   const cpu0 = process.cpuUsage();
   const db0 = await databaseCpuS();
   const child = fork(new URL("./load-worker.mjs", import.meta.url), { execArgv: [] });
@@ -101,11 +104,12 @@ async function run(title: string, paths: string[], shape: Shape): Promise<void> 
   const f = (x: number) => x.toFixed(1);
   const perRequest = (ms: number) => (ms / Math.max(1, r.answered)).toFixed(2);
   console.log(
-    `${title.padEnd(34)} n ${times.length}  p50 ${f(percentile(times, 0.5))} ms  p95 ${f(percentile(times, 0.95))} ms  ` +
+    `${title.padEnd(38)} n ${times.length}  p50 ${f(percentile(times, 0.5))} ms  p95 ${f(percentile(times, 0.95))} ms  ` +
       `p99 ${f(percentile(times, 0.99))} ms  max ${f(times.at(-1) ?? Number.NaN)} ms  ${(times.length / r.measuredS).toFixed(0)} req/s  ` +
-      `non-2xx ${r.non2xx}  errors ${r.errors}\n${"".padEnd(34)} CPU per request: server ${perRequest((cpu.user + cpu.system) / 1000)} ms, ` +
+      `non-2xx ${r.non2xx}  errors ${r.errors}\n${"".padEnd(38)} CPU per request: server ${perRequest((cpu.user + cpu.system) / 1000)} ms, ` +
       `PostgreSQL ${perRequest(dbCpuS * 1000)} ms, load generator ${perRequest(r.cpuMs)} ms`,
   );
+  return percentile(times, 0.95);
 }
 
 // The rows are in; measure on a durable cluster, as the product runs (every audit insert waits for
@@ -117,7 +121,7 @@ await db.raw("SELECT pg_reload_conf()");
 await db.raw("CHECKPOINT");
 const settings = (await db.raw("SELECT string_agg(name || '=' || setting, ' ' ORDER BY name) AS s FROM pg_settings WHERE name IN ('fsync', 'synchronous_commit', 'full_page_writes')")).rows[0].s;
 console.log(`database: ${settings}; server: one Node.js process; load generator: its own process`);
-console.log(`steady: loadtest, ${RATE} requests/s open loop, ${DURATION_S} s after ${WARMUP_S} s not counted; saturate: autocannon, 20 connections closed loop, ${DURATION_S} s`);
+console.log(`steady: loadtest, ${RATE} requests/s open loop, ${DURATION_S} s after ${WARMUP_S} s not counted, ${STEADY_RUNS} passes; saturate: autocannon, 20 connections closed loop, ${DURATION_S} s`);
 console.log(`target (issue): trends p95 < 30 ms at ${RATE} requests/s`);
 // Each patient's first read builds the answer (query, flags, contract check, JSON); later reads
 // of unchanged data come from the per-process trend cache after one access + fingerprint statement.
@@ -131,13 +135,16 @@ await run(`GET caseload (${PATIENTS}), re-read`, ["/api/patients"], { mode: "amo
 // BENCH_ONLY=trends|sessions measures one route (for profiling).
 const only = process.env.BENCH_ONLY;
 if (!only || only === "trends") {
-  await run(`GET trends, steady ${RATE} req/s`, trendPaths, { mode: "steady" });
+  const p95s: number[] = [];
+  for (let k = 1; k <= STEADY_RUNS; k++) p95s.push(await run(`GET trends, steady ${RATE} req/s #${k}`, trendPaths, { mode: "steady" }));
+  const met = p95s.filter((p) => p < 30).length;
+  console.log(`trends at a steady ${RATE} req/s, p95 per pass: ${p95s.join(", ")} ms — target p95 < 30 ms met in ${met} of ${p95s.length} passes`);
   await run("GET trends, saturated", trendPaths, { mode: "saturate", connections: 20 });
 }
 if (!only || only === "sessions") {
   // As for trends: the first read of a session builds its answer, later reads revalidate it.
   await run("GET session, first read per session", sessionPaths, { mode: "amount", amount: sessionPaths.length, connections: 4 });
-  await run(`GET session, steady ${RATE} req/s`, sessionPaths, { mode: "steady" });
+  for (let k = 1; k <= STEADY_RUNS; k++) await run(`GET session, steady ${RATE} req/s #${k}`, sessionPaths, { mode: "steady" });
   await run("GET session, saturated", sessionPaths, { mode: "saturate", connections: 20 });
 }
 // The load processes have exited; requests they abandoned mid-flight still finish their queries
