@@ -69,20 +69,27 @@ function percentile(sorted: number[], q: number): number {
   return sorted[idx]!;
 }
 
-/** CPU seconds used so far by every process of the database cluster (backends and background). */
-async function databaseCpuS(): Promise<number> {
+/** CPU seconds used so far by each process of the database cluster (backends and background), by pid. */
+async function databaseCpuS(): Promise<Map<number, number>> {
   const pids: number[] = (await db.raw("SELECT pid FROM pg_stat_activity")).rows.map((r: { pid: number }) => r.pid);
-  let ticks = 0;
+  const out = new Map<number, number>();
   for (const pid of pids) {
     try {
       // /proc/<pid>/stat fields 14 and 15 (utime, stime), after the parenthesised command name.
       const f = readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]!.split(" ");
-      ticks += Number(f[11]) + Number(f[12]);
+      out.set(pid, (Number(f[11]) + Number(f[12])) / 100); // USER_HZ is 100 on Linux
     } catch {
       // The backend ended between the query and the read.
     }
   }
-  return ticks / 100; // USER_HZ is 100 on Linux
+  return out;
+}
+
+/** CPU used between two snapshots by the processes alive at the second (a backend that ended in between is not counted). */
+function cpuBetween(before: Map<number, number>, after: Map<number, number>): number {
+  let s = 0;
+  for (const [pid, t] of after) s += Math.max(0, t - (before.get(pid) ?? 0));
+  return s;
 }
 
 type Shape = { mode: "steady" } | { mode: "saturate"; connections: number } | { mode: "amount"; amount: number; connections: number };
@@ -99,7 +106,7 @@ async function run(title: string, paths: string[], shape: Shape): Promise<number
     child.once("error", reject);
   });
   const cpu = process.cpuUsage(cpu0);
-  const dbCpuS = (await databaseCpuS()) - db0;
+  const dbCpuS = cpuBetween(db0, await databaseCpuS());
   const times = r.times.sort((a, b) => a - b);
   const f = (x: number) => x.toFixed(1);
   const perRequest = (ms: number) => (ms / Math.max(1, r.answered)).toFixed(2);
