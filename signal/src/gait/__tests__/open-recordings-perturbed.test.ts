@@ -3,7 +3,7 @@ import { analyze } from "../../analyze";
 import { createPrng } from "../../synth/prng";
 import { axisAngle, randomRotation, type Matrix3 } from "../../synth/rotation";
 import type { SensorRecording } from "../../types";
-import { mean, openWalksAvailable, openWalkTrials, scoreEvents, type OpenWalkTrial } from "./support/open-walks";
+import { mean, openWalksAvailable, openWalkTrials, scoreEvents, type OpenWalkTrial } from "./support/real-walk-trials";
 
 /**
  * The real recordings again, changed the way home recordings differ from them: the foot sensors

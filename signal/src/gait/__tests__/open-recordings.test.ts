@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { analyze } from "../../analyze";
-import { mean, openWalksAvailable, openWalkTrials, OPEN_WALKS_DIR, scoreEvents as score } from "./support/open-walks";
+import { mean, openWalksAvailable, openWalkTrials, OPEN_WALKS_DIR, scoreEvents as score } from "./support/real-walk-trials";
 
-// Real foot-IMU recordings (see support/open-walks.ts for the source, licence and scoring rules).
+// Real foot-IMU recordings (see support/real-walk-trials.ts for the source, licence and scoring rules).
 if (!openWalksAvailable) console.warn(`open-walks data not found at ${OPEN_WALKS_DIR}; skipping the real-data event checks`);
 const trials = openWalkTrials();
 
