@@ -139,20 +139,35 @@ export async function readTrendContext(
   return { patient: { id: row.id, birth_year: row.birth_year, condition: row.condition, enrolled_on: row.enrolled_on }, fingerprint: `${row.n}|${row.u}|${row.p}` };
 }
 
-/** Trend rows: one per processed session and metric, oldest first (index patient_id, metric_key, recorded_at). */
-export function trendRows(db: Knex, patientId: string, keys: string[] | null, from?: string, to?: string) {
-  // The patient_id join condition lets the planner read the patient's sessions by index instead of
-  // hashing every processed session; the metric columns come from the covering index.
-  const q = db("session_metrics as m")
+export interface TrendRow {
+  metric_key: string;
+  unit: string;
+  value: number;
+  session_id: string;
+  recorded_at: Date;
+}
+
+/**
+ * Metric rows of processed sessions, with the metric columns of a trend. The patient_id join
+ * condition lets the planner read the patient's sessions by index instead of hashing every
+ * processed session; the metric columns come from the covering index.
+ */
+function processedMetricRows(db: Knex) {
+  return db("session_metrics as m")
     .join("walk_sessions as s", (j) => j.on("s.id", "m.session_id").andOn("s.patient_id", "m.patient_id"))
-    .where("m.patient_id", patientId)
-    .andWhere("s.status", "done")
-    .select("m.metric_key", "m.unit", "m.value", "m.session_id", "m.recorded_at")
+    .where("s.status", "done")
+    .select("m.metric_key", "m.unit", "m.value", "m.session_id", "m.recorded_at");
+}
+
+/** Trend rows: one per processed session and metric, oldest first (index patient_id, metric_key, recorded_at). */
+export function trendRows(db: Knex, patientId: string, keys: string[] | null, from?: string, to?: string): Promise<TrendRow[]> {
+  const q = processedMetricRows(db)
+    .andWhere("m.patient_id", patientId)
     .orderBy([{ column: "m.metric_key" }, { column: "m.recorded_at" }]);
   if (keys) q.whereIn("m.metric_key", keys);
   if (from) q.andWhere("m.recorded_at", ">=", from);
   if (to) q.andWhere("m.recorded_at", "<=", to);
-  return q as Promise<Array<{ metric_key: string; unit: string; value: number; session_id: string; recorded_at: Date }>>;
+  return q;
 }
 
 /**
@@ -172,18 +187,14 @@ export async function trendFingerprints(db: Knex, patientIds: string[]): Promise
   return out;
 }
 
-/** trendRows for several patients at once (the caseload's flags), with the patient id on each row. */
-export async function trendRowsByPatient(db: Knex, patientIds: string[], keys: string[]) {
-  const out = new Map<string, Awaited<ReturnType<typeof trendRows>>>();
+/** trendRows for several patients at once (the caseload's flags), grouped by patient. */
+export async function trendRowsByPatient(db: Knex, patientIds: string[], keys: string[]): Promise<Map<string, TrendRow[]>> {
+  const out = new Map<string, TrendRow[]>();
   if (patientIds.length === 0) return out;
-  const rows: Array<{ patient_id: string; metric_key: string; unit: string; value: number; session_id: string; recorded_at: Date }> = await db(
-    "session_metrics as m",
-  )
-    .join("walk_sessions as s", (j) => j.on("s.id", "m.session_id").andOn("s.patient_id", "m.patient_id"))
+  const rows: Array<TrendRow & { patient_id: string }> = await processedMetricRows(db)
+    .select("m.patient_id")
     .whereIn("m.patient_id", patientIds)
     .whereIn("m.metric_key", keys)
-    .andWhere("s.status", "done")
-    .select("m.patient_id", "m.metric_key", "m.unit", "m.value", "m.session_id", "m.recorded_at")
     .orderBy([{ column: "m.patient_id" }, { column: "m.metric_key" }, { column: "m.recorded_at" }]);
   for (const r of rows) {
     let list = out.get(r.patient_id);
