@@ -138,6 +138,8 @@ describe("upload after the check", () => {
     await passChecklist(user);
     await user.upload(screen.getByLabelText(/choose files/i), files);
     const when = await screen.findByLabelText(/when did you do this walk/i, {}, { timeout: 20_000 });
+    // The data file's sensor column names the tracking system (its sensors are the positions).
+    expect(screen.getByText("imu")).toBeTruthy();
     await user.clear(when);
     await user.type(when, "2026-11-20T08:30");
     await user.click(await screen.findByRole("button", { name: /send to my care team|send anyway/i }));

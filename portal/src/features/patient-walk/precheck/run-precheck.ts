@@ -74,7 +74,9 @@ export function runPrecheck(input: PrecheckInputFile[]): PrecheckSummary {
       Object.assign(entry, {
         recognised: true,
         placement: recs.map((r) => r.placement ?? "unknown").join(", ") || null,
-        deviceSerial: recs[0]?.deviceSerial ?? null,
+        // One BIDS file holds several sensors of one tracking system ("<serial>:<tracked point>"
+        // each): show the system's serial, the positions column lists the sensors.
+        deviceSerial: recs[0]?.deviceSerial.replace(/:[^:]*$/, "") ?? null,
         durationS: durations.length ? Math.max(...durations) : null,
       });
       for (const side of [channels.name, json.name]) {
