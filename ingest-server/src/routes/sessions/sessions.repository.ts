@@ -55,15 +55,24 @@ export async function findDeviceAt(
   };
 }
 
-export function findSessionByContent(db: Knex, patientId: string, contentSha256: string): Promise<SessionRow | undefined> {
-  return db<SessionRow>("walk_sessions").where({ patient_id: patientId, content_sha256: contentSha256 }).first();
-}
-
-export function findSession(db: Knex, id: string): Promise<SessionRow | undefined> {
-  return db<SessionRow>("walk_sessions").where({ id }).first();
-}
-
 export type SessionHead = Omit<SessionRow, "analysis">;
+
+/**
+ * Every column but the stored analysis (hundreds of kilobytes of JSONB that only the session
+ * answer sends, read apart by sessionAnalysis).
+ */
+const SESSION_HEAD_COLUMNS = [
+  "id", "patient_id", "recorded_at", "uploaded_by", "status", "progress_pct", "attempts", "algorithm_version",
+  "error", "content_sha256", "duration_s", "created_at", "updated_at", "processed_at",
+] as const satisfies ReadonlyArray<keyof SessionHead>;
+
+export function findSessionByContent(db: Knex, patientId: string, contentSha256: string): Promise<SessionHead | undefined> {
+  return db("walk_sessions").where({ patient_id: patientId, content_sha256: contentSha256 }).first(...SESSION_HEAD_COLUMNS);
+}
+
+export function findSession(db: Knex, id: string): Promise<SessionHead | undefined> {
+  return db("walk_sessions").where({ id }).first(...SESSION_HEAD_COLUMNS);
+}
 
 /**
  * One statement for the hot path of the session route: the session without its stored analysis,
@@ -76,13 +85,7 @@ export async function readSessionHead(
   scope: Knex.QueryBuilder | string[],
   audit: AuditRowValues,
 ): Promise<SessionHead | undefined> {
-  const allowed = db("walk_sessions")
-    .where("id", sessionId)
-    .whereIn("patient_id", scope)
-    .select(
-      "id", "patient_id", "recorded_at", "uploaded_by", "status", "progress_pct", "attempts", "algorithm_version",
-      "error", "content_sha256", "duration_s", "created_at", "updated_at", "processed_at",
-    );
+  const allowed = db("walk_sessions").where("id", sessionId).whereIn("patient_id", scope).select(...SESSION_HEAD_COLUMNS);
   return db
     .with("allowed", allowed)
     .with("logged", auditEachRowOf(db, audit, "allowed", { resourceId: "id", patientId: "patient_id" }))

@@ -8,12 +8,12 @@ import type { AuthContext } from "../../middleware/authenticate";
 import { minMaxDecimate } from "../../processing/min-max-decimate";
 import { enqueueProcessing } from "./upload.service";
 import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
-import { findSession, listRawFiles, listTraces, markQueued, readSessionHead, sessionAnalysis, type SessionHead, type SessionRow } from "./sessions.repository";
+import { findSession, listRawFiles, listTraces, markQueued, readSessionHead, sessionAnalysis, type SessionHead } from "./sessions.repository";
 
 const notFound = () => new HttpError(404, "not_found", "session not found");
 
 /** The session if the caller may read it clinically; the same 404 whether it is missing or out of scope. */
-export async function loadSessionFor(deps: AppDeps, auth: AuthContext, id: string): Promise<SessionRow> {
+export async function loadSessionFor(deps: AppDeps, auth: AuthContext, id: string): Promise<SessionHead> {
   const session = await findSession(deps.db, id);
   if (!session) throw notFound();
   try {
@@ -126,7 +126,7 @@ export async function getSessionSignal(
 
 /** Re-queues a session from its stored raw files (clinician of the caseload, or an admin). */
 export async function reprocessSession(deps: AppDeps, req: Request, auth: AuthContext, id: string) {
-  let session: SessionRow | undefined;
+  let session: SessionHead | undefined;
   if (auth.role === "admin") {
     session = await findSession(deps.db, id);
     if (!session) throw notFound();
