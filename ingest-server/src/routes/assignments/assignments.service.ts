@@ -34,6 +34,22 @@ export function createAssignmentsService({ db }: AppDeps) {
     );
   }
 
+  /**
+   * Starts an assignment inside the caller's transaction: the row, the device's status brought in
+   * line with it, and the audit event that commits with both.
+   */
+  async function startAssignment(
+    trx: typeof db,
+    req: Request,
+    row: Parameters<typeof repo.insert>[1],
+    event: { action: string; details: Record<string, unknown> },
+  ): Promise<string> {
+    const id = await repo.insert(trx, row);
+    await devicesRepository.syncStatus(trx, row.device_id);
+    await audit(trx, req, { action: event.action, resourceType: "device_assignment", resourceId: id, patientId: row.patient_id, details: event.details });
+    return id;
+  }
+
   async function run<T>(work: () => Promise<T>, conflict: () => Promise<HttpError>): Promise<T> {
     try {
       return await work();
@@ -65,23 +81,12 @@ export function createAssignmentsService({ db }: AppDeps) {
             }
             const patient = await trx("patients").where({ id: input.patientId }).first("id");
             if (!patient) throw new HttpError(422, "unknown_patient", "patient not found");
-            const newId = await repo.insert(trx, {
-              device_id: deviceId,
-              patient_id: input.patientId,
-              placement: input.placement,
-              valid_from: from,
-              valid_to: to,
-              created_by: actor.userId,
-            });
-            await devicesRepository.syncStatus(trx, deviceId);
-            await audit(trx, req, {
-              action: "assignment.create",
-              resourceType: "device_assignment",
-              resourceId: newId,
-              patientId: input.patientId,
-              details: { deviceId, placement: input.placement, from: input.from, to: input.to ?? null },
-            });
-            return newId;
+            return startAssignment(
+              trx,
+              req,
+              { device_id: deviceId, patient_id: input.patientId, placement: input.placement, valid_from: from, valid_to: to, created_by: actor.userId },
+              { action: "assignment.create", details: { deviceId, placement: input.placement, from: input.from, to: input.to ?? null } },
+            );
           }),
         () => overlapConflict({ deviceId, patientId: input.patientId, placement: input.placement, from, to }, serial),
       );
@@ -139,23 +144,12 @@ export function createAssignmentsService({ db }: AppDeps) {
               throw new HttpError(422, "invalid_range", "the swap time must fall inside the current assignment");
             }
             await repo.setEnd(trx, assignmentId, at);
-            const id = await repo.insert(trx, {
-              device_id: deviceId,
-              patient_id: row.patient_id,
-              placement: input.placement,
-              valid_from: at,
-              valid_to: row.valid_to,
-              created_by: actor.userId,
-            });
-            await devicesRepository.syncStatus(trx, deviceId);
-            await audit(trx, req, {
-              action: "assignment.swap",
-              resourceType: "device_assignment",
-              resourceId: id,
-              patientId: row.patient_id,
-              details: { deviceId, endedAssignmentId: assignmentId, from: row.placement, to: input.placement, at: input.at },
-            });
-            return id;
+            return startAssignment(
+              trx,
+              req,
+              { device_id: deviceId, patient_id: row.patient_id, placement: input.placement, valid_from: at, valid_to: row.valid_to, created_by: actor.userId },
+              { action: "assignment.swap", details: { deviceId, endedAssignmentId: assignmentId, from: row.placement, to: input.placement, at: input.at } },
+            );
           }),
         () =>
           overlapConflict(
