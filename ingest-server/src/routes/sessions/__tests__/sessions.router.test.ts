@@ -2,6 +2,7 @@ import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { processSession } from "../../../processing/process-session";
 import { handleProcessSessionJob } from "../../../processing/session-job";
+import { expectRevalidatedAnswer } from "../../../testing/cached-answer";
 import { createTestContext, type SeededUser, type TestContext } from "../../../testing/harness";
 import { listObjectKeys, seedDevices, storedCounts, synthFor, upload } from "../../../testing/session-fixtures";
 
@@ -122,13 +123,7 @@ describe("POST /api/sessions → processSession → GET /api/sessions/:id", () =
     const get = () => request(ctx.app).get(`/api/sessions/${sessionId}`).set("Authorization", `Bearer ${tokens[clinician.id]}`);
     const audited = async () => Number((await ctx.db("audit_events").where({ action: "session.read", resource_id: sessionId }).count<{ n: string }[]>({ n: "*" }))[0]?.n);
     const reads0 = await audited();
-    const first = await get();
-    const second = await get();
-    expect(second.status).toBe(200);
-    expect(second.text).toBe(first.text);
-    const etag = first.headers.etag as string;
-    expect(etag).toMatch(/^"[A-Za-z0-9_-]+"$/);
-    expect((await get().set("If-None-Match", etag)).status).toBe(304);
+    const { first, etag } = await expectRevalidatedAnswer(get);
     expect(await audited()).toBe(reads0 + 3);
     // A refused read is not logged as a read.
     const refused = await request(ctx.app).get(`/api/sessions/${sessionId}`).set("Authorization", `Bearer ${tokens[otherClinician.id]}`);
