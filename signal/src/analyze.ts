@@ -32,6 +32,8 @@ export const ALGORITHM_VERSION = "1.0.1";
 export interface AnalyzeOptions {
   /** Reserved for callers that want to skip the arm–leg step (e.g. a quick pre-check). */
   skipArmLeg?: boolean;
+  /** Patient's standing height (cm, 100–230) for spatial methods that scale with body size. */
+  heightCm?: number;
 }
 
 const NO_COUPLING: ArmLegCoupling = { frequencyRatio: null, meanRelativePhaseDeg: null, couplingStrength: null, circularSdDeg: null };
@@ -231,6 +233,14 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
       gaitAsymmetryPct: gaitAsymmetryPct(swL, swR),
       dfaAlpha: dfa.alpha,
       dfaAlphaReason: dfa.reason,
+      walkingSpeedMPerS: null,
+      strideLengthM: null,
+      walkingSpeedReason: "walking speed is not computed yet",
+      swingTimeCvPct: { left: null, right: null },
+      stepTimeAsymmetryPct: null,
+      armSwing: null,
+      armSwingReason: "arm swing is not computed yet",
+      counts: { cadenceStepsPerMin: base.steadyStrideCount, strideTimeCvPct: base.steadyStrideCount },
       armLeg: {
         leftArmRightLeg: coupling("left_wrist", "right"),
         rightArmLeftLeg: coupling("right_wrist", "left"),

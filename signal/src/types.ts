@@ -47,7 +47,21 @@ export type QualityCode =
   | "no-walking"
   | "misalignment"
   | "dfa-unavailable"
-  | "event-order";
+  | "event-order"
+  /** Strides left out of the steady-state set, counted by reason (slow or irregular walks show it). */
+  | "strides-excluded"
+  /** Sensor clock offset between sensors estimated from shared impacts and corrected (> 20 ms). */
+  | "clock-offset"
+  /** The data could not confirm the sensors' relative clock alignment. */
+  | "clock-unverified"
+  /** Walking speed / stride length could not be computed (reason in the message). */
+  | "speed-unavailable"
+  /** A wrist sensor's sagittal sign could not be decided from physical cues. */
+  | "arm-sign-unverified"
+  /** Left and right wrist (or leg) sensors appear to be swapped. */
+  | "placement-swap"
+  /** No measurable arm swing on one or both arms (or a walking aid): coupling not reported. */
+  | "no-arm-swing";
 
 export interface QualityItem {
   code: QualityCode;
@@ -77,7 +91,11 @@ export interface Stride {
   /** Included in the steady-state metrics (not near a turn, not first/last of a bout, no gap). */
   steady: boolean;
   /** Why a stride was left out of the steady-state set, when it was. */
-  excludedReason?: "bout-edge" | "turn" | "invalid-span" | "out-of-range" | "event-order";
+  excludedReason?: "bout-edge" | "turn" | "invalid-span" | "out-of-range" | "event-order" | "gap" | "unsteady";
+  /** Stride length (m) for this stride when a spatial method could compute it. */
+  strideLengthM?: number | null;
+  /** Index of the continuous walking bout (0-based) the stride lies in; -1 when in none. */
+  boutIndex?: number;
 }
 
 export interface ArmLegCoupling {
@@ -87,6 +105,16 @@ export interface ArmLegCoupling {
   /** Mean resultant length R of the n:m relative phase, 0..1. */
   couplingStrength: number | null;
   circularSdDeg: number | null;
+  /** Why meanRelativePhaseDeg / couplingStrength are null, when they are. */
+  reason?: string | null;
+}
+
+/** Sagittal arm swing per arm (range of motion per arm cycle, degrees) and the left–right asymmetry. */
+export interface ArmSwing {
+  left: { amplitudeDeg: number | null };
+  right: { amplitudeDeg: number | null };
+  /** Arm swing asymmetry index (%), definition and source in signal/docs. */
+  asymmetryPct: number | null;
 }
 
 export interface PerSide<T> {
@@ -107,6 +135,23 @@ export interface Metrics {
   gaitAsymmetryPct: number | null;
   dfaAlpha: number | null;
   dfaAlphaReason: string | null;
+  /** Mean walking speed over steady strides (m/s); null with walkingSpeedReason when not computable. */
+  walkingSpeedMPerS: number | null;
+  /** Mean stride length over steady strides (m); null with walkingSpeedReason when not computable. */
+  strideLengthM: number | null;
+  walkingSpeedReason: string | null;
+  /** Swing-time CV per side (%), within bouts, combined across bouts. */
+  swingTimeCvPct: PerSide<number | null>;
+  /** Step-time asymmetry (%), definition and source in signal/README.md. */
+  stepTimeAsymmetryPct: number | null;
+  /** Sagittal arm swing; null with armSwingReason when no wrist sensor or not computable. */
+  armSwing: ArmSwing | null;
+  armSwingReason: string | null;
+  /**
+   * How many strides or steps each metric used, keyed by the metric's name in this object (e.g.
+   * `cadenceStepsPerMin` → steps, `strideTimeCvPct` → strides, `dfaAlpha` → consecutive strides).
+   */
+  counts: Record<string, number>;
   armLeg: {
     leftArmRightLeg: ArmLegCoupling;
     rightArmLeftLeg: ArmLegCoupling;

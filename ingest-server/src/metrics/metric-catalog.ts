@@ -16,7 +16,7 @@ export interface MetricDefinition {
   read(metrics: Metrics): number | null;
 }
 
-type CouplingField = keyof ArmLegCoupling;
+type CouplingField = Exclude<keyof ArmLegCoupling, "reason">;
 const COUPLING_FIELDS: Array<{ field: CouplingField; suffix: string; unit: string; label: string }> = [
   { field: "frequencyRatio", suffix: "FrequencyRatio", unit: "1", label: "frequency ratio (arm cycles per stride)" },
   { field: "meanRelativePhaseDeg", suffix: "MeanRelativePhaseDeg", unit: "deg", label: "mean relative phase" },

@@ -16,6 +16,14 @@ const metrics: Metrics = {
   gaitAsymmetryPct: 10.0083,
   dfaAlpha: null,
   dfaAlphaReason: "fewer than 256 strides",
+  walkingSpeedMPerS: null,
+  strideLengthM: null,
+  walkingSpeedReason: "no height",
+  swingTimeCvPct: { left: null, right: null },
+  stepTimeAsymmetryPct: null,
+  armSwing: null,
+  armSwingReason: "no wrist sensor",
+  counts: {},
   armLeg: { leftArmRightLeg: coupling, rightArmLeftLeg: { ...coupling, frequencyRatio: Number.NaN } },
 };
 
