@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # `npm test`: typecheck, lint, every workspace's tests, the cross-package tests and the browser tests,
 # against a throwaway PostgreSQL cluster that is removed afterwards, on success or failure.
-# Ends with one line `N passed, N failed` over everything it ran.
+# Ends with one line `N passed, N failed` over everything it ran (`N passed, N failed, N skipped` when
+# tests were skipped, e.g. the real-data checks when ../shared/data is absent).
 set -uo pipefail
 . "$(dirname "$0")/lib/common.sh"
 . "$(dirname "$0")/lib/product.sh"
@@ -26,15 +27,15 @@ cleanup() {
 }
 trap cleanup EXIT INT TERM
 
-PASSED=0; FAILED=0
+PASSED=0; FAILED=0; SKIPPED=0
 record() { # name exit_code
   if [ "$2" -eq 0 ]; then PASSED=$((PASSED + 1)); log "$1: ok"; else FAILED=$((FAILED + 1)); log "$1: FAILED"; fi
 }
 count_vitest() { # json report
   [ -f "$1" ] || { FAILED=$((FAILED + 1)); log "no report $1 (runner crashed)"; return; }
-  local counts
-  counts="$(node "$ROOT/scripts/lib/count-vitest.cjs" "$1")"
-  PASSED=$((PASSED + ${counts% *})); FAILED=$((FAILED + ${counts#* }))
+  local p f s
+  read -r p f s < <(node "$ROOT/scripts/lib/count-vitest.cjs" "$1")
+  PASSED=$((PASSED + p)); FAILED=$((FAILED + f)); SKIPPED=$((SKIPPED + s))
 }
 
 cd "$ROOT"
@@ -67,5 +68,5 @@ if [ "${PENDULA_SKIP_E2E:-}" != "1" ] && [ -f tests/e2e/vitest.e2e.config.ts ]; 
   stop_product
 fi
 
-echo "$PASSED passed, $FAILED failed"
+if [ "$SKIPPED" -gt 0 ]; then echo "$PASSED passed, $FAILED failed, $SKIPPED skipped"; else echo "$PASSED passed, $FAILED failed"; fi
 [ "$FAILED" -eq 0 ] && [ "$UNIT_RC" -eq 0 ] && [ "$E2E_RC" -eq 0 ]
