@@ -13,12 +13,37 @@ let accessToken: string | null = null;
 let refreshInFlight: Promise<string | null> | null = null;
 const unauthenticatedListeners = new Set<() => void>();
 
+/*
+ * A hint (not a credential) that this browser signed in before, so a visitor who never did is not
+ * sent to POST /auth/refresh: that answers 401 without a cookie, and browsers log every 401 in the
+ * console. The refresh cookie stays httpOnly; the hint only decides whether asking is worth it.
+ */
+const SESSION_HINT_KEY = "pendula.signed-in";
+
+function setSessionHint(on: boolean): void {
+  try {
+    if (on) window.localStorage.setItem(SESSION_HINT_KEY, "1");
+    else window.localStorage.removeItem(SESSION_HINT_KEY);
+  } catch {
+    // Storage can be disabled (private modes); then every load simply tries the refresh cookie.
+  }
+}
+
+function hasSessionHint(): boolean {
+  try {
+    return window.localStorage.getItem(SESSION_HINT_KEY) !== null;
+  } catch {
+    return true;
+  }
+}
+
 export function getAccessToken(): string | null {
   return accessToken;
 }
 
 export function setAccessToken(token: string | null): void {
   accessToken = token;
+  setSessionHint(token !== null);
 }
 
 /** Called when a refresh fails: the session is over and the app should show sign-in. */
@@ -35,6 +60,7 @@ const NO_REFRESH_PATHS = ["/auth/login", "/auth/refresh", "/auth/logout"];
 
 /** Asks the server for a new access token with the refresh cookie; concurrent 401s share one call. */
 export function refreshAccessToken(): Promise<string | null> {
+  if (!hasSessionHint()) return Promise.resolve(null);
   refreshInFlight ??= (async () => {
     try {
       const res = await fetch(apiUrl("/auth/refresh"), {
@@ -42,10 +68,13 @@ export function refreshAccessToken(): Promise<string | null> {
         credentials: "include",
         headers: { Accept: "application/json" },
       });
-      if (!res.ok) return null;
+      if (!res.ok) {
+        setSessionHint(false);
+        return null;
+      }
       const body = (await res.json()) as { accessToken?: unknown };
       const token = typeof body.accessToken === "string" ? body.accessToken : null;
-      accessToken = token;
+      setAccessToken(token);
       return token;
     } catch {
       return null;

@@ -100,3 +100,37 @@ describe("role guards", () => {
     await waitFor(() => expect(router.state.location.pathname).toBe("/patient"));
   });
 });
+
+describe("session check on page load", () => {
+  it("a visitor who never signed in is not sent to the refresh endpoint (no 401 in the console)", async () => {
+    window.localStorage.clear();
+    const server = signedOutServer("clinician");
+    const { router } = renderApp("/clinician");
+    await waitFor(() => expect(router.state.location.pathname).toBe("/sign-in"));
+    expect(server.calls.some((c) => c.path === "/api/auth/refresh")).toBe(false);
+  });
+
+  it("a browser that signed in before restores the session from the refresh cookie after a reload", async () => {
+    setAccessToken("token-clinician");
+    setAccessToken(null);
+    // Only the in-memory token is gone, as after a reload; the hint stays until sign-out.
+    window.localStorage.setItem("pendula.signed-in", "1");
+    const server = mockApi({
+      "POST /api/auth/refresh": { body: { accessToken: "token-clinician" } },
+      "GET /api/me": ({ headers }) =>
+        headers.get("Authorization") === "Bearer token-clinician"
+          ? { body: { id: "u-clinician", email: "clinician@ferngate-clinic.test", role: "clinician", patientId: null } }
+          : { status: 401, body: { error: { code: "unauthenticated", message: "Sign in" } } },
+    });
+    renderApp("/sign-in");
+    await waitFor(() => expect(server.calls.some((c) => c.path === "/api/auth/refresh")).toBe(true));
+  });
+
+  it("a refused refresh forgets the hint, so the next load asks nothing", async () => {
+    window.localStorage.setItem("pendula.signed-in", "1");
+    signedOutServer("clinician");
+    const { router } = renderApp("/clinician");
+    await waitFor(() => expect(router.state.location.pathname).toBe("/sign-in"));
+    expect(window.localStorage.getItem("pendula.signed-in")).toBeNull();
+  });
+});
