@@ -17,8 +17,11 @@ export const PLACEMENTS = [
 ] as const;
 export const SESSION_STATUSES = ["queued", "processing", "done", "failed"] as const;
 export const FILE_FORMATS = ["pendula-csv-v1", "bids-motion"] as const;
+/** Walking aid used during one home walking test (recorded by the clinician per session). */
+export const WALKING_AIDS = ["none", "cane", "crutches", "rollator", "other"] as const;
 export const TRAINING_KINDS = ["overground", "treadmill", "body_weight_support", "balance", "strength", "other"] as const;
 
 export type Role = (typeof ROLES)[number];
 export type Condition = (typeof CONDITIONS)[number];
 export type SessionStatus = (typeof SESSION_STATUSES)[number];
+export type WalkingAid = (typeof WALKING_AIDS)[number];

@@ -3,6 +3,7 @@ import * as coreSchema from "../migrations/20261201090000_core_schema";
 import * as sessionTraces from "../migrations/20261201110000_session_traces";
 import * as revokedAccessTokens from "../migrations/20261201130000_revoked_access_tokens";
 import * as trendCoveringIndex from "../migrations/20261202090000_trend_covering_index";
+import * as heightWalkingAidCounts from "../migrations/20261202120000_height_walking_aid_counts";
 
 /**
  * Migrations are listed here with static imports rather than discovered on disk, so the same
@@ -14,6 +15,7 @@ export const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261201110000_session_traces": sessionTraces,
   "20261201130000_revoked_access_tokens": revokedAccessTokens,
   "20261202090000_trend_covering_index": trendCoveringIndex,
+  "20261202120000_height_walking_aid_counts": heightWalkingAidCounts,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

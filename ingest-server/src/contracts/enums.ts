@@ -11,5 +11,6 @@ export {
   SESSION_STATUSES,
   FILE_FORMATS,
   TRAINING_KINDS,
+  WALKING_AIDS,
 } from "../../../db/src/enums";
-export type { Role, Condition, SessionStatus } from "../../../db/src/enums";
+export type { Role, Condition, SessionStatus, WalkingAid } from "../../../db/src/enums";

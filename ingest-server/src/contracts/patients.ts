@@ -30,6 +30,7 @@ export const patientSummary = patientIdentity.extend({
     cadenceStepsPerMin: z.number().nullable(),
     strideTimeCvPct: z.number().nullable(),
     phaseCoordinationIndexPct: z.number().nullable(),
+    walkingSpeedMPerS: z.number().nullable(),
   }),
 });
 export type PatientSummary = z.infer<typeof patientSummary>;
@@ -46,7 +47,25 @@ export const patientDetail = patientIdentity.extend({
   condition: z.enum(CONDITIONS).optional(),
   conditionDetail: z.string().nullable().optional(),
   expectedUploadsPerWeek: z.number().int().optional(),
+  /** Standing height (cm), entered by the clinician; null until entered. */
+  heightCm: z.number().nullable().optional(),
 });
+
+/** Plausible adult standing heights (common practice range; the analysis accepts the same 100–230 cm). */
+export const HEIGHT_CM_RANGE = { min: 100, max: 230 } as const;
+const heightMessage = `heightCm must be a number of centimetres from ${HEIGHT_CM_RANGE.min} to ${HEIGHT_CM_RANGE.max}, or null to clear it`;
+
+/** PATCH /api/patients/:id: the clinical fields a caseload clinician edits. A bad value is a 422. */
+export const patientUpdate = z
+  .object({
+    heightCm: z
+      .number({ error: heightMessage })
+      .min(HEIGHT_CM_RANGE.min, { error: heightMessage })
+      .max(HEIGHT_CM_RANGE.max, { error: heightMessage })
+      .nullable(),
+  })
+  .strict();
+export type PatientUpdate = z.infer<typeof patientUpdate>;
 
 export const patientSessionsQuery = paging;
 export const patientSessions = z.object({

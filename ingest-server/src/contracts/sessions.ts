@@ -1,7 +1,7 @@
 import { z } from "zod";
 import type { Analysis } from "@pendula/signal";
 import { isoDateTime } from "./common";
-import { PLACEMENTS, SESSION_STATUSES } from "./enums";
+import { PLACEMENTS, SESSION_STATUSES, WALKING_AIDS } from "./enums";
 
 /** Multipart fields besides `files` (one file per device; BIDS sets as their three files). */
 export const uploadFields = z.object({
@@ -43,12 +43,18 @@ export const sessionSummary = z.object({
   cadenceStepsPerMin: z.number().nullable().optional(),
   strideTimeCvPct: z.number().nullable().optional(),
   phaseCoordinationIndexPct: z.number().nullable().optional(),
+  walkingSpeedMPerS: z.number().nullable().optional(),
+  strideLengthM: z.number().nullable().optional(),
+  /** Walking aid used in this test, as recorded by the clinician; null when not recorded. */
+  walkingAid: z.enum(WALKING_AIDS).nullable().optional(),
 });
 export type SessionSummary = z.infer<typeof sessionSummary>;
 
 export const sessionDetail = sessionSummary.extend({
   files: z.array(sessionFile),
   analysis: analysisSchema.optional(),
+  /** Per stored metric key (session_metrics), the strides/steps its value rests on, when known. */
+  metricCounts: z.record(z.string(), z.number().int()).optional(),
 });
 export type SessionDetail = z.infer<typeof sessionDetail>;
 
@@ -77,5 +83,16 @@ export const signalResponse = z.object({
   ),
 });
 export type SignalResponse = z.infer<typeof signalResponse>;
+
+const walkingAidMessage = `walkingAid must be one of ${WALKING_AIDS.join(", ")}, or null to clear it`;
+
+/** PATCH /api/sessions/:id: what the clinician records about a session. A bad value is a 422. */
+export const sessionUpdate = z
+  .object({
+    walkingAid: z.enum(WALKING_AIDS, { error: walkingAidMessage }).nullable(),
+  })
+  .strict();
+export type SessionUpdate = z.infer<typeof sessionUpdate>;
+export const sessionUpdateResponse = z.object({ id: z.uuid(), walkingAid: z.enum(WALKING_AIDS).nullable() });
 
 export const reprocessResponse = z.object({ id: z.uuid(), status: z.enum(SESSION_STATUSES) });

@@ -14,6 +14,10 @@ export const trendPoint = z
     recordedAt: isoDateTime,
     value: z.number(),
     flag: z.string().optional(),
+    /** Strides/steps behind the value; null when the analysis gave no count. */
+    n: z.number().int().nullable().optional(),
+    /** Walking aid recorded for the session the point comes from. */
+    walkingAid: z.string().nullable().optional(),
   })
   .catchall(z.unknown());
 
@@ -22,6 +26,8 @@ export const trendMetric = z
     key: z.string(),
     unit: z.string(),
     label: z.string().optional(),
+    /** What `points[].n` counts: "strides", "steps" or "arm cycles". */
+    countNoun: z.string().optional(),
     points: z.array(trendPoint),
   })
   // Clinical-change annotations (bands, mdc, events…) are added freely by the clinical module.

@@ -1,4 +1,15 @@
-import { ALGORITHM_VERSION, analyze, readBidsMotion, readSensorCsv, bidsSidecarNames, type Analysis, type Placement, type SensorRecording } from "@pendula/signal";
+import {
+  ALGORITHM_VERSION,
+  analyze,
+  readBidsMotion,
+  readSensorCsv,
+  bidsSidecarNames,
+  type Analysis,
+  type AnalyzeOptions,
+  type Placement,
+  type SensorRecording,
+} from "@pendula/signal";
+import type { WalkingAid } from "../contracts/enums";
 import type { Knex } from "knex";
 import type { AppDeps } from "../deps";
 import { metricRows } from "../metrics/metric-catalog";
@@ -31,12 +42,30 @@ export async function processSession(deps: ProcessDeps, sessionId: string): Prom
   const recordings = await loadRecordings(deps, files);
   await setProgress(deps.db, sessionId, 30);
 
-  const analysis = analyze(recordings);
+  const analysis = analyze(recordings, await analysisOptions(deps.db, session.patient_id, session.walking_aid));
   await setProgress(deps.db, sessionId, 70);
   const traces = sagittalTraces(recordings, analysis);
 
   await writeResults(deps.db, sessionId, session.patient_id, session.recorded_at, analysis, traces);
   return "done";
+}
+
+/**
+ * What the analysis is told about the person and the test: the patient's standing height (spatial
+ * estimates scale with it) and the walking aid the clinician recorded for this session. The aid is
+ * passed under `walkingAid`; an analysis version that does not read it ignores it.
+ */
+export async function analysisOptions(
+  db: Knex,
+  patientId: string,
+  walkingAid: WalkingAid | null,
+): Promise<AnalyzeOptions & { walkingAid?: WalkingAid }> {
+  const patient = await db("patients").where({ id: patientId }).first("height_cm");
+  const heightCm = patient?.height_cm === null || patient?.height_cm === undefined ? undefined : Number(patient.height_cm);
+  return {
+    ...(heightCm !== undefined && Number.isFinite(heightCm) ? { heightCm } : {}),
+    ...(walkingAid ? { walkingAid } : {}),
+  };
 }
 
 async function setProgress(db: Knex, sessionId: string, pct: number): Promise<void> {
@@ -97,7 +126,7 @@ async function writeResults(
     const metrics = metricRows(analysis.metrics);
     if (metrics.length > 0) {
       await trx("session_metrics").insert(
-        metrics.map((m) => ({ session_id: sessionId, patient_id: patientId, recorded_at: recordedAt, metric_key: m.key, value: m.value, unit: m.unit })),
+        metrics.map((m) => ({ session_id: sessionId, patient_id: patientId, recorded_at: recordedAt, metric_key: m.key, value: m.value, unit: m.unit, n: m.n })),
       );
     }
     const strides = analysis.strides.map((s, ordinal) => ({

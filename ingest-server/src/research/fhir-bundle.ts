@@ -36,6 +36,8 @@ const UNIT_DISPLAY: Record<string, string> = {
   "%": "%",
   "1": "1",
   deg: "deg",
+  m: "m",
+  "m/s": "m/s",
   "{strides}": "strides",
 };
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { Metrics } from "@pendula/signal";
-import { METRIC_KEYS, metricRows } from "../metric-catalog";
+import { METRIC_KEYS, metricDefinition, metricRows } from "../metric-catalog";
 
 const coupling = { frequencyRatio: 1, meanRelativePhaseDeg: -20, couplingStrength: 0.8, circularSdDeg: 30 };
 const metrics: Metrics = {
@@ -31,14 +31,66 @@ describe("metricRows(metrics)", () => {
   // Values from DOMAIN.md "Check values" (stride 1.10 s / stance 0.66 s / step 0.55 s example; CV and GA examples).
   it("flattens per-side and arm–leg values with UCUM units and drops null / non-finite values", () => {
     const rows = Object.fromEntries(metricRows(metrics).map((r) => [r.key, r]));
-    expect(rows.cadenceStepsPerMin).toEqual({ key: "cadenceStepsPerMin", value: 109.0909, unit: "/min" });
-    expect(rows.stancePctLeft).toEqual({ key: "stancePctLeft", value: 60, unit: "%" });
+    expect(rows.cadenceStepsPerMin).toEqual({ key: "cadenceStepsPerMin", value: 109.0909, unit: "/min", n: null });
+    expect(rows.stancePctLeft).toEqual({ key: "stancePctLeft", value: 60, unit: "%", n: null });
     expect(rows.stepTimeMeanSRight?.unit).toBe("s");
-    expect(rows.armLegLeftArmRightLegMeanRelativePhaseDeg).toEqual({ key: "armLegLeftArmRightLegMeanRelativePhaseDeg", value: -20, unit: "deg" });
+    expect(rows.armLegLeftArmRightLegMeanRelativePhaseDeg).toEqual({ key: "armLegLeftArmRightLegMeanRelativePhaseDeg", value: -20, unit: "deg", n: null });
     expect(rows.armLegRightArmLeftLegCouplingStrength?.unit).toBe("1");
     expect(rows.phaseCoordinationIndexPct).toBeUndefined();
     expect(rows.dfaAlpha).toBeUndefined();
     expect(rows.armLegRightArmLeftLegFrequencyRatio).toBeUndefined();
+  });
+
+  it("carries the count behind each value as n, and null where the analysis gave none", () => {
+    const rows = Object.fromEntries(metricRows({ ...metrics, counts: { cadenceStepsPerMin: 40, strideTimeCvPct: 38 } }).map((r) => [r.key, r]));
+    expect(rows.cadenceStepsPerMin?.n).toBe(40);
+    expect(rows.strideTimeCvPct?.n).toBe(38);
+    expect(rows.doubleSupportPct?.n).toBeNull();
+  });
+
+  it("finds a per-side count under the flattened key, the dotted side, or the whole field", () => {
+    const withSwing: Metrics = { ...metrics, swingTimeCvPct: { left: 3.1, right: 4.2 } };
+    const flat = Object.fromEntries(metricRows({ ...withSwing, counts: { swingTimeCvPctLeft: 20, "swingTimeCvPct.right": 19 } }).map((r) => [r.key, r.n]));
+    expect(flat).toMatchObject({ swingTimeCvPctLeft: 20, swingTimeCvPctRight: 19 });
+    const whole = Object.fromEntries(metricRows({ ...withSwing, counts: { swingTimeCvPct: 39 } }).map((r) => [r.key, r.n]));
+    expect(whole).toMatchObject({ swingTimeCvPctLeft: 39, swingTimeCvPctRight: 39 });
+  });
+
+  it("ignores a count that is not a whole number ≥ 0 rather than storing it", () => {
+    const rows = Object.fromEntries(metricRows({ ...metrics, counts: { cadenceStepsPerMin: 12.5, strideTimeCvPct: -1 } }).map((r) => [r.key, r.n]));
+    expect(rows).toMatchObject({ cadenceStepsPerMin: null, strideTimeCvPct: null });
+  });
+
+  it("stores walking speed (m/s), stride length (m), swing-time CV, step-time asymmetry and arm swing under the shared keys", () => {
+    const full: Metrics = {
+      ...metrics,
+      // Speed = stride length / stride time: 1.21 m / 1.1 s = 1.10 m/s (kinematic identity, the check value's stride time).
+      walkingSpeedMPerS: 1.21 / 1.1,
+      strideLengthM: 1.21,
+      walkingSpeedReason: null,
+      swingTimeCvPct: { left: 3.4, right: 5.1 },
+      stepTimeAsymmetryPct: 7.5,
+      armSwing: { left: { amplitudeDeg: 28 }, right: { amplitudeDeg: 14 }, asymmetryPct: 66.7 },
+      armSwingReason: null,
+      counts: { walkingSpeedMPerS: 36, strideLengthM: 36, stepTimeAsymmetryPct: 72, armSwing: 30 },
+    };
+    const rows = Object.fromEntries(metricRows(full).map((r) => [r.key, r]));
+    expect(rows.walkingSpeedMPerS).toMatchObject({ key: "walkingSpeedMPerS", unit: "m/s", n: 36 });
+    expect(rows.walkingSpeedMPerS?.value).toBeCloseTo(1.1, 12);
+    expect(rows.strideLengthM).toEqual({ key: "strideLengthM", value: 1.21, unit: "m", n: 36 });
+    expect(rows.swingTimeCvPctLeft).toMatchObject({ value: 3.4, unit: "%" });
+    expect(rows.swingTimeCvPctRight).toMatchObject({ value: 5.1, unit: "%" });
+    expect(rows.stepTimeAsymmetryPct).toEqual({ key: "stepTimeAsymmetryPct", value: 7.5, unit: "%", n: 72 });
+    expect(rows.armSwingAmplitudeDegLeft).toEqual({ key: "armSwingAmplitudeDegLeft", value: 28, unit: "deg", n: 30 });
+    expect(rows.armSwingAmplitudeDegRight).toMatchObject({ value: 14, unit: "deg", n: 30 });
+    expect(rows.armSwingAsymmetryPct).toMatchObject({ value: 66.7, unit: "%" });
+    expect(metricDefinition("stepTimeAsymmetryPct")?.countNoun).toBe("steps");
+  });
+
+  it("writes no arm swing row when the analysis has no arm swing (no wrist sensor)", () => {
+    const keys = metricRows(metrics).map((r) => r.key);
+    expect(keys.filter((k) => k.startsWith("armSwing"))).toEqual([]);
+    expect(keys).not.toContain("walkingSpeedMPerS");
   });
 
   it("has unique keys", () => {

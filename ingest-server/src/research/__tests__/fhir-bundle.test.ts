@@ -44,3 +44,28 @@ describe("observationBundle(rows)", () => {
     expect(obs.extension.find((e) => e.url.endsWith("weeks-since-enrolment"))?.valueInteger).toBe(6);
   });
 });
+
+// UCUM (https://ucum.org/ucum): metre is "m", speed "m/s", plane angle degree "deg" — case-sensitive codes.
+describe("observationBundle with the spatial and arm swing metrics", () => {
+  const spatial = {
+    ...row,
+    metrics: { walkingSpeedMPerS: 0.84, strideLengthM: 1.02, armSwingAmplitudeDegLeft: 21.5, armSwingAsymmetryPct: 34 },
+  };
+  const keys = ["walkingSpeedMPerS", "strideLengthM", "armSwingAmplitudeDegLeft", "armSwingAsymmetryPct"];
+  const obs = observationBundle([spatial], keys).entry[1]?.resource as ReturnType<typeof import("../fhir-bundle").sessionObservation>;
+
+  it("gives walking speed in m/s and stride length in m, coded from the local code system", () => {
+    const byCode = Object.fromEntries(obs.component.map((c) => [c.code.coding[0]!.code, c]));
+    expect(byCode.walkingSpeedMPerS?.valueQuantity).toEqual({ value: 0.84, unit: "m/s", system: "http://unitsofmeasure.org", code: "m/s" });
+    expect(byCode.strideLengthM?.valueQuantity).toEqual({ value: 1.02, unit: "m", system: "http://unitsofmeasure.org", code: "m" });
+    expect(byCode.walkingSpeedMPerS?.code.coding[0]).toMatchObject({ system: METRIC_CODE_SYSTEM, display: "Walking speed" });
+    expect(byCode.armSwingAmplitudeDegLeft?.valueQuantity.code).toBe("deg");
+    expect(byCode.armSwingAsymmetryPct?.valueQuantity.code).toBe("%");
+  });
+
+  it("lists the new codes in the bundle's code system", () => {
+    const cs = observationBundle([spatial], keys).entry[0]?.resource as { concept: Array<{ code: string; display: string }> };
+    expect(cs.concept.map((c) => c.code)).toEqual(expect.arrayContaining(keys));
+    expect(cs.concept.find((c) => c.code === "strideLengthM")?.display).toBe("Stride length");
+  });
+});

@@ -13,6 +13,7 @@ export interface PatientRow {
   enrolled_on: Date | string;
   research_consent: boolean;
   expected_uploads_per_week: number;
+  height_cm: number | null;
 }
 
 export function findPatient(db: Knex, id: string): Promise<PatientRow | undefined> {
@@ -25,6 +26,12 @@ export function listPatients(db: Knex, clinicianId: string | null, q?: string): 
   if (clinicianId) query.join("caseload as c", "c.patient_id", "p.id").where("c.clinician_id", clinicianId);
   if (q) query.whereILike("p.display_name", `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`);
   return query;
+}
+
+/** Sets the clinician-edited fields; false when the patient does not exist. */
+export async function updatePatientFields(db: Knex, id: string, fields: { height_cm?: number | null }): Promise<boolean> {
+  const n = await db("patients").where({ id }).update(fields);
+  return n > 0;
 }
 
 export interface SessionStats {
@@ -145,6 +152,9 @@ export interface TrendRow {
   value: number;
   session_id: string;
   recorded_at: Date;
+  /** Strides/steps behind the value (null when the analysis gave no count). */
+  n: number | null;
+  walking_aid: string | null;
 }
 
 /**
@@ -156,7 +166,7 @@ function processedMetricRows(db: Knex) {
   return db("session_metrics as m")
     .join("walk_sessions as s", (j) => j.on("s.id", "m.session_id").andOn("s.patient_id", "m.patient_id"))
     .where("s.status", "done")
-    .select("m.metric_key", "m.unit", "m.value", "m.session_id", "m.recorded_at");
+    .select("m.metric_key", "m.unit", "m.value", "m.session_id", "m.recorded_at", "m.n", "s.walking_aid");
 }
 
 /** Trend rows: one per processed session and metric, oldest first (index patient_id, metric_key, recorded_at). */

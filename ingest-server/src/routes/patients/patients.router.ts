@@ -1,10 +1,11 @@
 import { idParams } from "../../contracts/common";
-import { patientDetail, patientList, patientListQuery, patientSessions, patientSessionsQuery } from "../../contracts/patients";
+import { patientDetail, patientList, patientListQuery, patientSessions, patientSessionsQuery, patientUpdate } from "../../contracts/patients";
 import { trendsQuery, trendsResponse } from "../../contracts/trends";
 import type { AppDeps } from "../../deps";
 import { ApiRouter, conformResponse, type RouteModule } from "../../http/api-router";
 import { FingerprintCache } from "./fingerprint-cache";
-import { getPatient, getPatientSessions, getTrendsJson, listPatientsFor, type CaseloadFlags } from "./patients.service";
+import { getPatient, getPatientSessions, getTrendsJson, listPatientsFor, updatePatient, type CaseloadFlags } from "./patients.service";
+import { unprocessableUnless } from "../unprocessable-body";
 import { AnswerCache, sendCachedAnswer } from "../../http/answer-cache";
 
 const CLINICAL_READ = ["sessions:read:own", "sessions:read:caseload"] as const;
@@ -31,6 +32,16 @@ export function patientsRouter(deps: AppDeps): ApiRouter {
     request: { params: idParams },
     response: patientDetail,
     handler: ({ auth, params }, req) => getPatient(deps, req, auth, params.id),
+  });
+  api.endpoint({
+    method: "patch",
+    path: "/:id",
+    summary: "Clinician of the caseload: edit the patient's clinical fields (standing height in cm, 100–230; 422 otherwise)",
+    access: { scopes: ["sessions:write:caseload"] },
+    before: [unprocessableUnless(patientUpdate, "invalid_patient_field")],
+    request: { params: idParams, body: patientUpdate },
+    response: patientDetail,
+    handler: ({ auth, params, body }, req) => updatePatient(deps, req, auth, params.id, body),
   });
   api.endpoint({
     method: "get",

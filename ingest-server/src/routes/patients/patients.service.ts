@@ -5,6 +5,7 @@ import { annotateTrends, computeAdherence } from "../../clinical";
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
+import type { PatientUpdate } from "../../contracts/patients";
 import { metricDefinition, METRIC_KEYS } from "../../metrics/metric-catalog";
 import { toSummary } from "../sessions/sessions.service";
 import {
@@ -19,12 +20,13 @@ import {
   trendRows,
   trendFingerprints,
   trendRowsByPatient,
+  updatePatientFields,
   type PatientRow,
 } from "./patients.repository";
 import type { FingerprintCache } from "./fingerprint-cache";
 import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
 
-const SUMMARY_KEYS = ["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct"];
+const SUMMARY_KEYS = ["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct", "walkingSpeedMPerS", "strideLengthM"];
 /** Metrics whose change flags and coordination events the caseload table summarises. */
 const CASELOAD_FLAG_KEYS = [
   "cadenceStepsPerMin",
@@ -64,14 +66,24 @@ export function recentAdherencePct(p: PatientRow, dates: string[], now: Date): n
   return Math.round((100 * ended.filter((w) => w.met).length) / ended.length);
 }
 
-type TrendInput = { key: string; unit: string; points: Array<{ sessionId: string; recordedAt: string; value: number }> };
+type TrendInput = {
+  key: string;
+  unit: string;
+  points: Array<{ sessionId: string; recordedAt: string; value: number; n: number | null; walkingAid: string | null }>;
+};
 
 function groupTrendRows(rows: Awaited<ReturnType<typeof trendRows>>): TrendInput[] {
   const grouped = new Map<string, TrendInput>();
   for (const r of rows) {
     let m = grouped.get(r.metric_key);
     if (!m) grouped.set(r.metric_key, (m = { key: r.metric_key, unit: r.unit, points: [] }));
-    m.points.push({ sessionId: r.session_id, recordedAt: new Date(r.recorded_at).toISOString(), value: Number(r.value) });
+    m.points.push({
+      sessionId: r.session_id,
+      recordedAt: new Date(r.recorded_at).toISOString(),
+      value: Number(r.value),
+      n: r.n === null || r.n === undefined ? null : Number(r.n),
+      walkingAid: r.walking_aid ?? null,
+    });
   }
   return [...grouped.values()].sort((a, b) => METRIC_KEYS.indexOf(a.key) - METRIC_KEYS.indexOf(b.key));
 }
@@ -153,6 +165,7 @@ export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthCon
           cadenceStepsPerMin: l?.values.cadenceStepsPerMin ?? null,
           strideTimeCvPct: l?.values.strideTimeCvPct ?? null,
           phaseCoordinationIndexPct: l?.values.phaseCoordinationIndexPct ?? null,
+          walkingSpeedMPerS: l?.values.walkingSpeedMPerS ?? null,
         },
       };
     }),
@@ -171,7 +184,23 @@ export async function getPatient(deps: AppDeps, req: Request, auth: AuthContext,
     condition: p.condition,
     conditionDetail: p.condition_detail,
     expectedUploadsPerWeek: p.expected_uploads_per_week,
+    heightCm: p.height_cm === null ? null : Number(p.height_cm),
   };
+}
+
+/**
+ * A caseload clinician edits the patient's clinical fields (height). The change and its audit
+ * event commit together; the value itself is not copied into the audit details. Sessions already
+ * processed keep their results until reprocessed (the worker reads the height at processing time).
+ */
+export async function updatePatient(deps: AppDeps, req: Request, auth: AuthContext, id: string, body: PatientUpdate) {
+  if (auth.role !== "clinician") throw new HttpError(404, "not_found", "patient not found");
+  await assertPatientAccess(deps.db, auth, id, "clinical");
+  await deps.db.transaction(async (trx) => {
+    if (!(await updatePatientFields(trx, id, { height_cm: body.heightCm }))) throw new HttpError(404, "not_found", "patient not found");
+    await audit(trx, req, { action: "patient.update", resourceType: "patient", resourceId: id, patientId: id, details: { fields: Object.keys(body) } });
+  });
+  return getPatient(deps, req, auth, id);
 }
 
 export async function getPatientSessions(deps: AppDeps, req: Request, auth: AuthContext, id: string, limit: number, offset: number) {
@@ -198,14 +227,25 @@ function parseKeys(raw: string | undefined): string[] | null {
 function trendsPayload(id: string, p: Pick<PatientRow, "birth_year" | "condition" | "enrolled_on">, rows: Awaited<ReturnType<typeof trendRows>>, query: { from?: string; to?: string }) {
   // Catalogue order, so the portal's metric list is stable. The date window only hides points:
   // baselines, MDC and events always come from the whole series, so zooming never moves them.
+  const grouped = groupTrendRows(rows);
   const annotated = annotateTrends({
-    metrics: groupTrendRows(rows),
+    metrics: grouped,
     patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: isoDate(p.enrolled_on) },
     options: { ...(query.from ? { visibleFrom: query.from } : {}), ...(query.to ? { visibleTo: query.to } : {}) },
   });
+  // The annotations rebuild each point; the count behind it and the session's walking aid are put back.
+  const extra = new Map(grouped.flatMap((m) => m.points.map((pt) => [`${m.key}|${pt.sessionId}`, pt] as const)));
   return {
     patientId: id,
-    metrics: annotated.metrics.map((m) => ({ ...m, label: metricDefinition(m.key)?.label })),
+    metrics: annotated.metrics.map((m) => ({
+      ...m,
+      label: metricDefinition(m.key)?.label,
+      countNoun: metricDefinition(m.key)?.countNoun,
+      points: m.points.map((pt) => {
+        const e = extra.get(`${m.key}|${pt.sessionId}`);
+        return { ...pt, n: e?.n ?? null, walkingAid: e?.walkingAid ?? null };
+      }),
+    })),
     events: annotated.events,
     cautions: annotated.cautions,
   };

@@ -1,5 +1,6 @@
 import type { Knex } from "knex";
 import { auditEachRowOf, type AuditRowValues } from "../../audit/audit";
+import type { WalkingAid } from "../../contracts/enums";
 
 export interface SessionRow {
   id: string;
@@ -17,6 +18,7 @@ export interface SessionRow {
   created_at: Date;
   updated_at: Date;
   processed_at: Date | null;
+  walking_aid: WalkingAid | null;
 }
 
 export interface RawFileRow {
@@ -63,7 +65,7 @@ export type SessionHead = Omit<SessionRow, "analysis">;
  */
 const SESSION_HEAD_COLUMNS = [
   "id", "patient_id", "recorded_at", "uploaded_by", "status", "progress_pct", "attempts", "algorithm_version",
-  "error", "content_sha256", "duration_s", "created_at", "updated_at", "processed_at",
+  "error", "content_sha256", "duration_s", "created_at", "updated_at", "processed_at", "walking_aid",
 ] as const satisfies ReadonlyArray<keyof SessionHead>;
 
 export function findSessionByContent(db: Knex, patientId: string, contentSha256: string): Promise<SessionHead | undefined> {
@@ -133,6 +135,11 @@ export async function insertSessionWithFiles(
 export function isDuplicateContentError(err: unknown): boolean {
   const e = err as { code?: string; constraint?: string };
   return e?.code === "23505" && typeof e.constraint === "string" && e.constraint.includes("content_sha256");
+}
+
+/** Records the walking aid of a session; touching updated_at renews the session and trend answers. */
+export async function setWalkingAid(db: Knex, id: string, walkingAid: WalkingAid | null): Promise<void> {
+  await db("walk_sessions").where({ id }).update({ walking_aid: walkingAid, updated_at: db.fn.now() });
 }
 
 export async function markQueued(db: Knex, id: string): Promise<void> {

@@ -2,11 +2,21 @@ import multer from "multer";
 import type { RequestHandler } from "express";
 import { rateLimit } from "express-rate-limit";
 import { idParams } from "../../contracts/common";
-import { reprocessResponse, sessionDetail, signalQuery, signalResponse, uploadFields, uploadResponse } from "../../contracts/sessions";
+import {
+  reprocessResponse,
+  sessionDetail,
+  sessionUpdate,
+  sessionUpdateResponse,
+  signalQuery,
+  signalResponse,
+  uploadFields,
+  uploadResponse,
+} from "../../contracts/sessions";
 import type { AppDeps } from "../../deps";
 import { AnswerCache, sendCachedAnswer } from "../../http/answer-cache";
 import { ApiRouter, conformResponse, type RouteModule } from "../../http/api-router";
-import { getSessionJson, getSessionSignal, reprocessSession } from "./sessions.service";
+import { getSessionJson, getSessionSignal, reprocessSession, updateSession } from "./sessions.service";
+import { unprocessableUnless } from "../unprocessable-body";
 import { uploadSession } from "./upload.service";
 
 /** Multipart parsing in memory: the files are parsed and hashed before anything is stored. */
@@ -74,6 +84,16 @@ export function sessionsRouter(deps: AppDeps): ApiRouter {
       );
       sendCachedAnswer(req, res, entry);
     },
+  });
+  api.endpoint({
+    method: "patch",
+    path: "/:id",
+    summary: "Clinician of the caseload: record the walking aid used in this session (none, cane, crutches, rollator, other, or null; 422 otherwise)",
+    access: { scopes: ["sessions:write:caseload"] },
+    before: [unprocessableUnless(sessionUpdate, "invalid_session_field")],
+    request: { params: idParams, body: sessionUpdate },
+    response: sessionUpdateResponse,
+    handler: ({ auth, params, body }, req) => updateSession(deps, req, auth, params.id, body),
   });
   api.endpoint({
     method: "get",

@@ -1,14 +1,23 @@
 import type { Request } from "express";
 import { audit, auditRow } from "../../audit/audit";
 import { assertPatientAccess, clinicalPatientScope } from "../../auth/patient-access";
-import type { SessionDetail, SessionSummary, SignalResponse } from "../../contracts/sessions";
+import type { SessionDetail, SessionSummary, SessionUpdate, SignalResponse } from "../../contracts/sessions";
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
 import { minMaxDecimate } from "../../processing/min-max-decimate";
 import { enqueueProcessing } from "./upload.service";
 import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
-import { findSession, listRawFiles, listTraces, markQueued, readSessionHead, sessionAnalysis, type SessionHead } from "./sessions.repository";
+import {
+  findSession,
+  listRawFiles,
+  listTraces,
+  markQueued,
+  readSessionHead,
+  sessionAnalysis,
+  setWalkingAid,
+  type SessionHead,
+} from "./sessions.repository";
 
 const notFound = () => new HttpError(404, "not_found", "session not found");
 
@@ -41,6 +50,9 @@ export function toSummary(s: SessionHead, metrics: Record<string, number> = {}):
     cadenceStepsPerMin: metrics.cadenceStepsPerMin ?? null,
     strideTimeCvPct: metrics.strideTimeCvPct ?? null,
     phaseCoordinationIndexPct: metrics.phaseCoordinationIndexPct ?? null,
+    walkingSpeedMPerS: metrics.walkingSpeedMPerS ?? null,
+    strideLengthM: metrics.strideLengthM ?? null,
+    walkingAid: s.walking_aid ?? null,
   };
 }
 
@@ -62,15 +74,23 @@ export async function getSessionJson(
   const scope = clinicalPatientScope(deps.db, auth);
   const s = scope ? await readSessionHead(deps.db, id, scope, auditRow(req, { action: "session.read", resourceType: "session" })) : undefined;
   if (!s) throw notFound();
-  const fingerprint = [new Date(s.updated_at).toISOString(), s.status, s.progress_pct, s.processed_at ? new Date(s.processed_at).toISOString() : "", s.algorithm_version ?? ""].join("|");
+  const fingerprint = [
+    new Date(s.updated_at).toISOString(),
+    s.status,
+    s.progress_pct,
+    s.processed_at ? new Date(s.processed_at).toISOString() : "",
+    s.algorithm_version ?? "",
+    s.walking_aid ?? "",
+  ].join("|");
   const hit = cache.get(id, fingerprint);
   if (hit) return hit;
   const [files, metricRows, analysis] = await Promise.all([
     listRawFiles(deps.db, id),
-    deps.db("session_metrics").where({ session_id: id }).select("metric_key", "value"),
+    deps.db("session_metrics").where({ session_id: id }).select("metric_key", "value", "n"),
     s.status === "done" ? sessionAnalysis(deps.db, id) : Promise.resolve(null),
   ]);
   const metrics = Object.fromEntries(metricRows.map((m) => [m.metric_key as string, Number(m.value)]));
+  const metricCounts = Object.fromEntries(metricRows.filter((m) => m.n !== null && m.n !== undefined).map((m) => [m.metric_key as string, Number(m.n)]));
   const detail: SessionDetail = {
     ...toSummary(s, metrics),
     files: files.map((f) => ({
@@ -81,6 +101,7 @@ export async function getSessionJson(
       originalName: f.original_name,
     })),
     ...(analysis ? { analysis: analysis as SessionDetail["analysis"] } : {}),
+    metricCounts,
   };
   return cache.set(id, fingerprint, serialize(detail));
 }
@@ -122,6 +143,27 @@ export async function getSessionSignal(
       };
     }),
   };
+}
+
+/**
+ * The caseload clinician records the walking aid used in a session. The change and its audit event
+ * commit together; updated_at moves, so cached session and trend answers are rebuilt. The stored
+ * analysis is not re-run here (reprocess does that when the aid should inform the analysis).
+ */
+export async function updateSession(deps: AppDeps, req: Request, auth: AuthContext, id: string, body: SessionUpdate) {
+  if (auth.role !== "clinician") throw notFound();
+  const s = await loadSessionFor(deps, auth, id);
+  await deps.db.transaction(async (trx) => {
+    await setWalkingAid(trx, id, body.walkingAid);
+    await audit(trx, req, {
+      action: "session.update",
+      resourceType: "session",
+      resourceId: id,
+      patientId: s.patient_id,
+      details: { walkingAid: { from: s.walking_aid ?? null, to: body.walkingAid } },
+    });
+  });
+  return { id, walkingAid: body.walkingAid };
 }
 
 /** Re-queues a session from its stored raw files (clinician of the caseload, or an admin). */
