@@ -3,18 +3,21 @@ import { detectTurns, yawRateAboutGravity } from "./activity/turns";
 import { armLegCoupling } from "./coordination";
 import { detectFootEvents } from "./gait/detect-foot-events";
 import { detectShankEvents } from "./gait/detect-shank-events";
+import { longestConsecutiveRun } from "./gait/consecutive-strides";
 import { dfaAlphaOrReason } from "./gait/dfa";
-import { gaitAsymmetryPct } from "./gait/gait-asymmetry";
 import type { LegEvents } from "./gait/gait-events";
 import { phaseCoordinationIndex } from "./gait/phase-coordination-index";
 import { strideMetrics } from "./gait/stride-metrics";
-import { buildStrides } from "./gait/strides";
+import { buildSessionStrides } from "./gait/strides";
+import { describeExcludedStrides } from "./gait/excluded-strides";
 import { detectInvertedFoot, detectInvertedShank } from "./orientation/detect-inverted-segment";
 import { projectOnAxis, sagittalAxis } from "./orientation/sagittal-axis";
 import { SATURATION_FLOOR_ACC_M_S2, SATURATION_FLOOR_GYRO_DEG_S, countSaturatedSamples } from "./quality/saturation";
 import { MIN_STEADY_STRIDES_FOR_VARIABILITY, MISALIGNMENT_INFO_DEG, RATE_MISMATCH_FRACTION } from "./quality/thresholds";
 import { type ResampledSensor, resampleToGrid } from "./timebase/resample-to-grid";
 import { sessionGrid } from "./timebase/session-grid";
+import { sessionStrideLengths } from "./spatial/session-stride-lengths";
+import { walkingSpeedFromStrides } from "./spatial/walking-speed";
 import {
   type Analysis,
   type ArmLegCoupling,
@@ -53,6 +56,8 @@ interface LegSignal {
  */
 export function analyze(recordings: readonly SensorRecording[], options: AnalyzeOptions = {}): Analysis {
   if (!Array.isArray(recordings) || recordings.length === 0) throw new SignalInputError("no recordings to analyse");
+  const h = options.heightCm;
+  if (h !== undefined && !(Number.isFinite(h) && h >= 100 && h <= 230)) throw new SignalInputError(`height ${h} cm is outside 100–230 cm`);
   const quality: QualityItem[] = [];
   const placed: SensorRecording[] = [];
   const seen = new Map<Placement, string>();
@@ -97,8 +102,10 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   const bouts = maskToBouts(walking, fs);
   const boutMask = boutsToMask(bouts, fs, n);
 
-  // Invalid spans: long gaps in the leg sensors.
+  // Invalid spans: long gaps in the leg sensors. Short interpolated gaps keep their events, but
+  // strides across them are left out of the steady-state metrics (excludedReason "gap").
   const invalidSpans: Bout[] = mergeSpans(legSensors.flatMap((s) => s.invalidSpans));
+  const gapSpans: Bout[] = mergeSpans(legSensors.flatMap((s) => s.gaps.filter((g) => g.interpolated).map((g) => ({ startS: g.startS, endS: g.endS }))));
 
   // Events per leg.
   const legs: Partial<Record<Side, LegSignal>> = {};
@@ -142,15 +149,10 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
     turns = detectTurns(yaw, traces[0]!.sampleRateHz).map((t) => ({ startS: t.startS, endS: t.endS }));
   }
 
-  // Strides.
-  const ctx = { bouts, turns, invalidSpans };
-  const strides = (["left", "right"] as const).flatMap((side) => {
-    const own = legs[side];
-    if (!own) return [];
-    const contra = legs[side === "left" ? "right" : "left"];
-    return buildStrides(side, own.events, contra?.events ?? null, ctx);
-  });
-  strides.sort((a, b) => a.icS - b.icS);
+  // Strides: per-leg checks, then the session-relative steady-state gate (gait/strides.ts).
+  const strides = buildSessionStrides(legs.left?.events ?? null, legs.right?.events ?? null, { bouts, turns, invalidSpans, gapSpans });
+  const excludedItem = describeExcludedStrides(strides);
+  if (excludedItem) quality.push({ code: "strides-excluded", severity: "info", message: excludedItem });
   const order = strides.filter((s) => s.excludedReason === "event-order").length;
   if (order > 0) {
     quality.push({ code: "event-order", severity: "info", message: `${order} stride(s) left out because their events were not in the order IC < FC(other) < IC(other) < FC < next IC` });
@@ -159,20 +161,42 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   const base = strideMetrics(strides);
   const steady = strides.filter((s) => s.steady);
 
+  // Stride length and walking speed (spatial/): per side the foot sensor when worn, else the shank.
+  const spatial = sessionStrideLengths(
+    {
+      left: { shank: sensors.get("left_shank"), foot: sensors.get("left_foot") },
+      right: { shank: sensors.get("right_shank"), foot: sensors.get("right_foot") },
+    },
+    strides,
+    { left: legs.left?.events.finalContactsS ?? [], right: legs.right?.events.finalContactsS ?? [] },
+    boutMask,
+    { sampleRateHz: fs, heightCm: options.heightCm },
+  );
+  spatial.lengthsM.forEach((len, i) => {
+    strides[i]!.strideLengthM = len;
+  });
+  const speed = walkingSpeedFromStrides(strides);
+  if (speed.walkingSpeedMPerS === null && strides.length > 0) {
+    quality.push({ code: "speed-unavailable", severity: "info", message: `walking speed and stride length not computed: ${speed.reason}` });
+  }
+
   // PCI: reference leg = longer mean swing time (Plotnik 2007).
   let pci: number | null = null;
+  let pciPhases = 0;
   const swL = base.swingTimeMeanS.left;
   const swR = base.swingTimeMeanS.right;
   if (swL !== null && swR !== null && legs.left && legs.right) {
     const ref: Side = swL >= swR ? "left" : "right";
     const other = legs[ref === "left" ? "right" : "left"]!;
-    pci = phaseCoordinationIndex(steady.filter((s) => s.side === ref), other.events.initialContactsS)?.pciPct ?? null;
+    const r = phaseCoordinationIndex(steady.filter((s) => s.side === ref), other.events.initialContactsS);
+    pci = r?.pciPct ?? null;
+    pciPhases = r?.phiDeg.length ?? 0;
   }
 
-  // DFA on the side with more steady strides, in time order.
-  const perSide = (["left", "right"] as const).map((sd) => steady.filter((s) => s.side === sd).map((s) => s.strideTimeS));
-  const longest = perSide[0]!.length >= perSide[1]!.length ? perSide[0]! : perSide[1]!;
-  const dfa = dfaAlphaOrReason(longest);
+  // DFA over the longest run of consecutive steady strides of one leg in one bout (never joined
+  // across pauses, turns or excluded strides).
+  const run = longestConsecutiveRun(strides);
+  const dfa = dfaAlphaOrReason(run?.strideTimesS ?? []);
   if (dfa.alpha === null && base.steadyStrideCount > 0) {
     quality.push({ code: "dfa-unavailable", severity: "info", message: `DFA α not computed: ${dfa.reason}` });
   }
@@ -230,17 +254,18 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
       swingPct: base.swingPct,
       doubleSupportPct: base.doubleSupportPct,
       phaseCoordinationIndexPct: pci,
-      gaitAsymmetryPct: gaitAsymmetryPct(swL, swR),
+      gaitAsymmetryPct: base.gaitAsymmetryPct,
       dfaAlpha: dfa.alpha,
       dfaAlphaReason: dfa.reason,
-      walkingSpeedMPerS: null,
-      strideLengthM: null,
-      walkingSpeedReason: "walking speed is not computed yet",
-      swingTimeCvPct: { left: null, right: null },
-      stepTimeAsymmetryPct: null,
+      dfaAlphaUncertainty: dfa.uncertainty,
+      walkingSpeedMPerS: speed.walkingSpeedMPerS,
+      strideLengthM: speed.strideLengthM,
+      walkingSpeedReason: speed.reason,
+      swingTimeCvPct: base.swingTimeCvPct,
+      stepTimeAsymmetryPct: base.stepTimeAsymmetryPct,
       armSwing: null,
       armSwingReason: "arm swing is not computed yet",
-      counts: { cadenceStepsPerMin: base.steadyStrideCount, strideTimeCvPct: base.steadyStrideCount },
+      counts: { ...base.counts, phaseCoordinationIndexPct: pciPhases, dfaAlpha: dfa.strideCount, walkingSpeedMPerS: speed.strideCount, strideLengthM: speed.strideCount },
       armLeg: {
         leftArmRightLeg: coupling("left_wrist", "right"),
         rightArmLeftLeg: coupling("right_wrist", "left"),

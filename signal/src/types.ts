@@ -135,6 +135,8 @@ export interface Metrics {
   gaitAsymmetryPct: number | null;
   dfaAlpha: number | null;
   dfaAlphaReason: string | null;
+  /** Standard error of α's log–log slope (a floor on its uncertainty); null when α is null. */
+  dfaAlphaUncertainty?: number | null;
   /** Mean walking speed over steady strides (m/s); null with walkingSpeedReason when not computable. */
   walkingSpeedMPerS: number | null;
   /** Mean stride length over steady strides (m); null with walkingSpeedReason when not computable. */

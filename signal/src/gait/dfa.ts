@@ -4,6 +4,11 @@ export const DFA_MIN_BOX = 4;
 
 export interface DfaResult {
   alpha: number;
+  /**
+   * Standard error of the log–log slope from the least-squares fit. The box sizes share data, so
+   * this understates the spread between sessions; it is a floor on α's uncertainty, not a CI.
+   */
+  alphaStandardError: number;
   boxSizes: number[];
   fluctuations: number[];
 }
@@ -65,17 +70,51 @@ export function detrendedFluctuation(series: ArrayLike<number>): DfaResult | nul
     num += (lx[i]! - mx) * (ly[i]! - my);
     den2 += (lx[i]! - mx) ** 2;
   }
-  return { alpha: num / den2, boxSizes: sizes, fluctuations: fluct };
+  const alpha = num / den2;
+  let rss = 0;
+  for (let i = 0; i < lx.length; i++) rss += (ly[i]! - my - alpha * (lx[i]! - mx)) ** 2;
+  const alphaStandardError = lx.length > 2 ? Math.sqrt(rss / (lx.length - 2) / den2) : Number.NaN;
+  return { alpha, alphaStandardError, boxSizes: sizes, fluctuations: fluct };
 }
 
-/** α for a stride-time series when it has ≥ DFA_MIN_STRIDES strides, else null with the reason. */
-export function dfaAlphaOrReason(strideTimesS: readonly number[]): { alpha: number | null; reason: string | null } {
-  if (strideTimesS.length < DFA_MIN_STRIDES) {
+/** α recommended from about this many strides for a stable estimate (Hausdorff et al. 1997; PMC5360325). */
+export const DFA_RECOMMENDED_STRIDES = 600;
+
+export interface DfaAlphaOutcome {
+  alpha: number | null;
+  /** Standard error of the log–log slope (see DfaResult); null when α is null. */
+  uncertainty: number | null;
+  /** Why α is null, or the caution that applies to it; null when neither. */
+  reason: string | null;
+  /** Strides in the series. */
+  strideCount: number;
+}
+
+/**
+ * α for ONE run of consecutive strides (one leg, one bout, nothing left out in between: DFA's
+ * integration assumes an unbroken series, so joining across pauses, turns or excluded strides
+ * would add artificial jumps). Null with the reason below DFA_MIN_STRIDES; from there up to
+ * DFA_RECOMMENDED_STRIDES the reason carries the caution that α is not yet stable.
+ */
+export function dfaAlphaOrReason(strideTimesS: readonly number[]): DfaAlphaOutcome {
+  const n = strideTimesS.length;
+  if (n < DFA_MIN_STRIDES) {
     return {
       alpha: null,
-      reason: `${strideTimesS.length} steady strides on one side; DFA needs at least ${DFA_MIN_STRIDES} (about 600 recommended)`,
+      uncertainty: null,
+      strideCount: n,
+      reason: `the longest run of consecutive steady strides of one leg in one bout has ${n} strides; DFA needs at least ${DFA_MIN_STRIDES} (about ${DFA_RECOMMENDED_STRIDES} recommended)`,
     };
   }
   const r = detrendedFluctuation(strideTimesS);
-  return r ? { alpha: r.alpha, reason: null } : { alpha: null, reason: "series too short for DFA" };
+  if (!r) return { alpha: null, uncertainty: null, strideCount: n, reason: "series too short for DFA" };
+  return {
+    alpha: r.alpha,
+    uncertainty: r.alphaStandardError,
+    strideCount: n,
+    reason:
+      n < DFA_RECOMMENDED_STRIDES
+        ? `from ${n} consecutive strides, fewer than the ${DFA_RECOMMENDED_STRIDES} recommended for a stable α: interpret with caution`
+        : null,
+  };
 }

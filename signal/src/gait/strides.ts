@@ -1,9 +1,16 @@
 import type { Bout, Side, Stride } from "../types";
 import type { LegEvents } from "./gait-events";
+import { labelSteadyState, pooledRobustSdS, steadyBand } from "./steady-state";
 
-/** Stride-time gate between same-side ICs (s), as in a public MATLAB implementation (DOMAIN.md §7). */
+/**
+ * Wide physiological limits on the time between same-side ICs (s). 0.25 s is the lower gate of a
+ * public MATLAB implementation (DOMAIN.md §7). The upper limit is common practice: 6 s is 20
+ * steps/min, slower than the 35–40 steps/min of the slowest household walkers, so any real stride
+ * stays in and only pauses (standing between two bouts' steps) fall out. Inside these limits the
+ * session's own distribution decides (steady-state.ts).
+ */
 export const MIN_STRIDE_TIME_S = 0.25;
-export const MAX_STRIDE_TIME_S = 2.25;
+export const MAX_STRIDE_TIME_S = 6;
 /** Strides this close to a turn are left out (s); strides next to turns differ (Kroneberg 2019), common-practice margin. */
 export const TURN_MARGIN_S = 1;
 /**
@@ -18,16 +25,20 @@ export interface StrideContext {
   bouts: readonly Bout[];
   turns: readonly Bout[];
   invalidSpans: readonly Bout[];
+  /** Short gaps that were interpolated (≤ 150 ms): strides across them are reported, not measured. */
+  gapSpans?: readonly Bout[];
 }
 
 const overlaps = (a0: number, a1: number, b: Bout, margin = 0) => a0 < b.endS + margin && a1 > b.startS - margin;
 
 /**
  * Strides of one side from its events (IC to next IC), with stance/swing, double support against the
- * contralateral events, and the steady-state decision. Exclusion, in order: stride time outside
- * 0.25–2.25 s; any overlap with an invalid span; within TURN_MARGIN_S of a turn; event order not
+ * contralateral events, and the first part of the steady-state decision. Exclusion, in order:
+ * stride time outside the physiological limits (0.25–6 s); any overlap with an invalid span; any
+ * overlap with an interpolated gap; within TURN_MARGIN_S of a turn; event order not
  * IC < FC_contra < IC_contra < FC < next IC (or no FC), or an implausible opening step (outside
- * 15–85 % of the stride); first or last stride of its walking bout.
+ * 15–85 % of the stride); first or last stride of its walking bout. The session-relative gate
+ * (acceleration, deceleration, outliers) needs both legs: `gateSteadyStateInPlace`.
  */
 export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | null, ctx: StrideContext): Stride[] {
   const ic = own.initialContactsS;
@@ -63,6 +74,7 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
     let excludedReason: Stride["excludedReason"];
     if (strideTimeS < MIN_STRIDE_TIME_S || strideTimeS > MAX_STRIDE_TIME_S) excludedReason = "out-of-range";
     else if (ctx.invalidSpans.some((s) => overlaps(a, b, s))) excludedReason = "invalid-span";
+    else if ((ctx.gapSpans ?? []).some((g) => overlaps(a, b, g))) excludedReason = "gap";
     else if (ctx.turns.some((t) => overlaps(a, b, t, TURN_MARGIN_S))) excludedReason = "turn";
     else if (!orderOk) excludedReason = "event-order";
     strides.push({
@@ -88,6 +100,7 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
   const byBoutSide = new Map<string, Stride[]>();
   for (const s of strides) {
     const i = boutOf(s);
+    s.boutIndex = i;
     if (i < 0) {
       if (s.steady) markEdge(s);
       continue;
@@ -105,6 +118,51 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
     if (edgeable(last)) markEdge(last);
   }
   return strides;
+}
+
+/**
+ * Both legs' strides of a session, in time order, with the full steady-state decision: buildStrides
+ * per side, then `gateSteadyStateInPlace`.
+ */
+export function buildSessionStrides(left: LegEvents | null, right: LegEvents | null, ctx: StrideContext): Stride[] {
+  const strides = [
+    ...(left ? buildStrides("left", left, right, ctx) : []),
+    ...(right ? buildStrides("right", right, left, ctx) : []),
+  ];
+  strides.sort((a, b) => a.icS - b.icS || (a.side === "left" ? -1 : 1));
+  gateSteadyStateInPlace(strides);
+  return strides;
+}
+
+/**
+ * Session-relative gate, in place: among the strides still steady, per walking bout (both legs, in
+ * time order), the band of steady-state.ts (bout median ± max(3 robust SDs pooled within bouts,
+ * 5.8 % of the median)); the leading and trailing runs outside it become "unsteady" (acceleration
+ * and deceleration), other strides outside it "out-of-range". Strides must carry `boutIndex`.
+ */
+export function gateSteadyStateInPlace(strides: Stride[]): void {
+  const byBout = new Map<number, Stride[]>();
+  for (const s of strides) {
+    if (!s.steady || s.boutIndex === undefined || s.boutIndex < 0) continue;
+    const list = byBout.get(s.boutIndex) ?? [];
+    list.push(s);
+    byBout.set(s.boutIndex, list);
+  }
+  const groups = [...byBout.values()].map((list) => list.sort((a, b) => a.icS - b.icS));
+  const robustSdS = pooledRobustSdS(groups.map((g) => g.map((s) => s.strideTimeS)));
+  if (robustSdS === null) return;
+  for (const g of groups) {
+    const times = g.map((s) => s.strideTimeS);
+    const band = steadyBand(times, robustSdS);
+    if (!band) continue;
+    const labels = labelSteadyState(times, band);
+    g.forEach((s, i) => {
+      const label = labels[i]!;
+      if (label === "steady") return;
+      s.steady = false;
+      s.excludedReason = label;
+    });
+  }
 }
 
 function markEdge(s: Stride): void {

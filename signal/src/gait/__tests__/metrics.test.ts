@@ -103,13 +103,18 @@ describe("buildStrides + strideMetrics — temporal worked example (DOMAIN.md)",
     expect(strides.filter((s) => s.steady).length).toBe(2 * k - 4);
   });
 
-  it("excludes strides near turns, across invalid spans, outside 0.25–2.25 s and with bad event order", () => {
+  it("excludes strides near turns, across invalid spans or short gaps, outside 0.25–6 s and with bad event order", () => {
     const withTurn = buildStrides("left", left, right, { ...ctx, turns: [{ startS: 4.5, endS: 4.6 }] });
     expect(withTurn.filter((s) => s.excludedReason === "turn").map((s) => s.icS.toFixed(1))).toEqual(["3.3", "4.4", "5.5"]);
     const withGap = buildStrides("left", left, right, { ...ctx, invalidSpans: [{ startS: 2.3, endS: 2.4 }] });
     expect(withGap.find((s) => s.excludedReason === "invalid-span")!.icS).toBeCloseTo(2.2, 9);
-    const slow = buildStrides("left", { ...left, initialContactsS: [0, 2.5, 3.6] }, null, ctx);
-    expect(slow[0]!.excludedReason).toBe("out-of-range");
+    const withShortGap = buildStrides("left", left, right, { ...ctx, gapSpans: [{ startS: 3.35, endS: 3.45 }] });
+    expect(withShortGap.filter((s) => s.excludedReason === "gap").map((s) => s.icS.toFixed(1))).toEqual(["3.3"]);
+    // The fixed physiological limits only catch what no walk produces (a 6.5 s "stride" is a pause).
+    const pause = buildStrides("left", { ...left, initialContactsS: [0, 6.5, 7.6] }, null, ctx);
+    expect(pause[0]!.excludedReason).toBe("out-of-range");
+    const tooShort = buildStrides("left", { ...left, initialContactsS: [0, 0.2, 1.3] }, null, ctx);
+    expect(tooShort[0]!.excludedReason).toBe("out-of-range");
     const stray = buildStrides("left", left, { ...right, initialContactsS: [...right.initialContactsS, 3.25].sort((a, b) => a - b) }, ctx);
     expect(stray.find((s) => Math.abs(s.icS - 3.3) < 1e-9)!.excludedReason).toBe("event-order");
     const noFc = buildStrides("left", { ...left, finalContactsS: [] }, right, ctx);
@@ -149,10 +154,19 @@ describe("detrendedFluctuation(series) — Hausdorff 1995 method", () => {
   it("returns null with a reason below 256 strides, and α from 256 on", () => {
     const short = dfaAlphaOrReason(Array.from(gaussian(7, DFA_MIN_STRIDES - 1)));
     expect(short.alpha).toBeNull();
-    expect(short.reason).toMatch(/255 steady strides.*256/);
+    expect(short.reason).toMatch(/has 255 strides.*at least 256/);
+    expect(short.strideCount).toBe(255);
+    expect(short.uncertainty).toBeNull();
     const enough = dfaAlphaOrReason(Array.from(gaussian(7, DFA_MIN_STRIDES), (v) => 1.1 + 0.02 * v));
     expect(enough.alpha).not.toBeNull();
-    expect(enough.reason).toBeNull();
+    expect(enough.strideCount).toBe(256);
+    // Below the ≈ 600 strides advised for a stable α (Hausdorff 1997) the value comes with a caution
+    // and the fit's standard error (white noise: α ≈ 0.5, SE a few hundredths over 16 box sizes).
+    expect(enough.reason).toMatch(/256 consecutive strides.*600/);
+    expect(enough.uncertainty!).toBeGreaterThan(0);
+    expect(enough.uncertainty!).toBeLessThan(0.1);
+    const long = dfaAlphaOrReason(Array.from(gaussian(9, 600), (v) => 1.1 + 0.02 * v));
+    expect(long.reason).toBeNull();
     expect(detrendedFluctuation([1, 2, 3])).toBeNull();
   });
 });
