@@ -1,11 +1,11 @@
 import { assertPositiveFinite, assertSameLength } from "../check";
 import type { ArmLegCoupling } from "../types";
+import { type ArmRhythm, armRhythm } from "./arm-rhythm";
 import { BAND_HIGH_FACTOR, bandPassAroundFundamental } from "./band-pass";
 import { circularStats } from "./circular-stats";
-import { dominantFrequency } from "./dominant-frequency";
-import { frequencyRatio } from "./frequency-ratio";
 import { hilbertPhase } from "./hilbert";
 import { relativePhase } from "./relative-phase";
+import { ANGLE_HIGH_PASS_STRIDE_FRACTION, segmentAngleDeg } from "./segment-angle";
 
 /** Coupling that could not be computed (no arm rhythm, too little steady walking, bad input). */
 export const UNAVAILABLE_COUPLING: Readonly<ArmLegCoupling> = Object.freeze({
@@ -13,38 +13,115 @@ export const UNAVAILABLE_COUPLING: Readonly<ArmLegCoupling> = Object.freeze({
   meanRelativePhaseDeg: null,
   couplingStrength: null,
   circularSdDeg: null,
+  reason: null,
 });
 
-// Project choices (no published source; documented here and in the report):
-/** Fewer steady strides than this and R is not reported (10 cycles keep R's bias under ~0.1). */
+/** Fewer steady strides than this and nothing is reported (common practice: R's bias < ~0.1 by 10 cycles). */
 export const MIN_STEADY_STRIDES = 10;
-/** Arm peak PSD must stand this far above the median of the search band to count as a rhythm. */
-export const MIN_PEAK_TO_MEDIAN = 5;
-/** Band-passed arm RMS below this (deg/s) is treated as no arm swing. */
-export const MIN_ARM_RMS_DEG_S = 1;
-/** The arm's fundamental is searched between these multiples of the stride frequency. */
-export const ARM_SEARCH_LOW = 0.4;
-export const ARM_SEARCH_HIGH = 2.6;
+/**
+ * The mean relative phase is reported only when R reaches this (common practice: circular SD
+ * √(−2 ln 0.5) = 68°; below it the "mean" describes a spread, not a pattern) …
+ */
+export const MIN_COUPLING_STRENGTH = 0.5;
+/**
+ * … and when the Rayleigh test rejects a uniform phase at this level, with one phase per stride:
+ * 2nR² is asymptotically χ²(2), so p ≈ exp(−nR²) (Rayleigh test; Mardia & Jupp 2000,
+ * Directional Statistics, §6.3). With 10 strides this asks R ≥ 0.55, with 30 strides R ≥ 0.32.
+ */
+export const RAYLEIGH_ALPHA = 0.05;
+/** Band-passed arm angle RMS below this (degrees) is no measurable rhythm (common practice). */
+export const MIN_ARM_ANGLE_RMS_DEG = 0.5;
+
+export interface ArmLegCouplingDetail extends ArmLegCoupling {
+  /** Strides' worth of steady samples the statistics used. */
+  strideCount: number;
+  rhythm: ArmRhythm | null;
+}
 
 /**
- * Arm–leg coordination for one arm and the leg it is paired with (issue 3, §6): the arm's
- * fundamental from its Welch peak gives the frequency ratio (arm cycles per stride, snapped to 1 or
- * 2 within 15 %); each segment's sagittal angular velocity is band-passed zero-phase (Butterworth
- * order 4, 0.7–1.3 × its own fundamental: ratio × stride frequency for the arm, stride frequency
- * for the leg), its Hilbert phase taken, and ψ = φ_arm − n·φ_leg (n = the ratio rounded, ≥ 1) is
- * summarised over steady-state samples: circular mean (degrees, (−180, 180]), mean resultant
- * length R (`couplingStrength`) and circular SD √(−2 ln R) in degrees.
+ * Arm–leg coordination for one arm and the leg it is paired with, on sagittal segment ANGLES.
  *
- * Both signals are first reduced to ≈ 12.5 Hz (or 13.5 × the stride frequency if higher, i.e.
- * ≥ 4 × the highest band edge the arm search allows) by averaging blocks of D samples: the block
- * mean has its zeros exactly at multiples of the new rate, so little folds into the gait band, it
- * shifts arm and leg alike (ψ unchanged) and it keeps the FFT work of the Hilbert step small
- * for 30-minute recordings. A block counts as steady
- * only when all its samples do. Non-finite samples are set to 0 and left out of the steady set.
+ * 1. Both ω signals are reduced to ≈ 12.5 Hz (or 13.5 × the stride frequency) by block means (zeros
+ *    of the block mean sit at multiples of the new rate, and arm and leg shift alike).
+ * 2. Each is integrated to a segment angle and high-passed zero-phase at 0.25 × f_stride
+ *    (`segmentAngleDeg`), so phases compare with the angle-based literature at 1:1 and 2:1 alike.
+ * 3. The frequency ratio comes from the arm angle's spectrum with a harmonic check (`armRhythm`).
+ * 4. Each angle is band-passed zero-phase around its own fundamental (0.7–1.3 × ratio × f_stride for
+ *    the arm, × f_stride for the leg), its Hilbert phase taken (Lamb & Stöckl 2014: centre, Hilbert,
+ *    phase), and ψ = φ_arm − n·φ_leg with n = the ratio rounded (n:1 locking).
+ * 5. Over steady samples: R (`couplingStrength`), circular SD √(−2 ln R) and the circular mean,
+ *    which is reported only when R ≥ 0.5 and the Rayleigh test gives p < 0.05 with one phase per
+ *    stride; otherwise it is null and `reason` says why. A mixed 1:1/2:1 rhythm never gets a mean.
  *
- * Returns `UNAVAILABLE_COUPLING` when the stride frequency is unusable, there are fewer than
- * `MIN_STEADY_STRIDES` strides' worth of steady samples, or the arm shows no rhythm.
+ * Convention: ψ in (−180°, 180°]; positive = the arm reaches its most forward angle before the leg
+ * (arm leads). Both ω must be signed forward-positive (leg: swing forward; arm: shoulder flexion).
  */
+export function armLegCouplingDetail(
+  armOmegaDegS: Float64Array,
+  legOmegaDegS: Float64Array,
+  sampleRateHz: number,
+  strideFrequencyHz: number,
+  steadyMask: Uint8Array,
+): ArmLegCouplingDetail {
+  assertSameLength(armOmegaDegS, legOmegaDegS, "armOmegaDegS and legOmegaDegS");
+  assertSameLength(armOmegaDegS, steadyMask, "armOmegaDegS and steadyMask");
+  assertPositiveFinite(sampleRateHz, "sampleRateHz");
+  const none = (reason: string, strideCount = 0, rhythm: ArmRhythm | null = null): ArmLegCouplingDetail => ({
+    ...UNAVAILABLE_COUPLING,
+    reason,
+    strideCount,
+    rhythm,
+  });
+  if (!Number.isFinite(strideFrequencyHz) || strideFrequencyHz <= 0) return none("no stride frequency (no steady strides)");
+
+  const targetHz = Math.max(12.5, 13.5 * strideFrequencyHz);
+  const factor = Math.max(1, Math.floor(sampleRateHz / targetHz));
+  const rateHz = sampleRateHz / factor;
+  const { arm, leg, mask, steadyCount } = decimate(armOmegaDegS, legOmegaDegS, steadyMask, factor);
+  const strideCount = Math.floor((steadyCount * strideFrequencyHz) / rateHz);
+  if (strideCount < MIN_STEADY_STRIDES) {
+    return none(`only ${strideCount} steady strides with arm data; at least ${MIN_STEADY_STRIDES} are needed`, strideCount);
+  }
+  const highPassHz = ANGLE_HIGH_PASS_STRIDE_FRACTION * strideFrequencyHz;
+  const armAngle = segmentAngleDeg(arm, rateHz, highPassHz);
+  const legAngle = segmentAngleDeg(leg, rateHz, highPassHz);
+
+  const rhythm = armRhythm(armAngle, rateHz, strideFrequencyHz, mask);
+  if (!rhythm) return none("no arm rhythm stands out in the walking spectrum", strideCount);
+  const n = Math.max(1, Math.round(rhythm.frequencyRatio));
+  const armFundamentalHz = n * strideFrequencyHz;
+  if (BAND_HIGH_FACTOR * armFundamentalHz >= 0.45 * rateHz) return none("arm rhythm too fast for the sampling rate", strideCount, rhythm);
+
+  const armBand = bandPassAroundFundamental(armAngle, rateHz, armFundamentalHz);
+  const legBand = bandPassAroundFundamental(legAngle, rateHz, strideFrequencyHz);
+  let sumSq = 0;
+  for (let i = 0; i < armBand.length; i++) if (mask[i] === 1) sumSq += armBand[i]! * armBand[i]!;
+  if (Math.sqrt(sumSq / steadyCount) < MIN_ARM_ANGLE_RMS_DEG) {
+    return { ...none("arm rhythm below the measurable amplitude", strideCount, rhythm), frequencyRatio: rhythm.frequencyRatio };
+  }
+
+  const psi = relativePhase(hilbertPhase(armBand), hilbertPhase(legBand), n);
+  const stats = circularStats(psi, mask);
+  if (!stats) return none("no steady samples", strideCount, rhythm);
+  const deg = 180 / Math.PI;
+  const r = stats.resultantLength;
+  const rayleighP = Math.exp(-strideCount * r * r);
+  let reason: string | null = null;
+  if (rhythm.mode === "mixed") reason = "the arm swings partly at stride and partly at step frequency; no single relative phase";
+  else if (r < MIN_COUPLING_STRENGTH) reason = `coupling too weak for a mean phase (R ${r.toFixed(2)} < ${MIN_COUPLING_STRENGTH})`;
+  else if (!(rayleighP < RAYLEIGH_ALPHA)) reason = `phase not distinguishable from uniform over ${strideCount} strides (Rayleigh p ${rayleighP.toFixed(2)})`;
+  return {
+    frequencyRatio: rhythm.frequencyRatio,
+    meanRelativePhaseDeg: reason === null && Number.isFinite(stats.meanRad) ? stats.meanRad * deg : null,
+    couplingStrength: r,
+    circularSdDeg: stats.sdRad * deg,
+    reason,
+    strideCount,
+    rhythm,
+  };
+}
+
+/** `armLegCouplingDetail` without the diagnostics: the shape stored in the analysis. */
 export function armLegCoupling(
   armOmegaDegS: Float64Array,
   legOmegaDegS: Float64Array,
@@ -52,41 +129,8 @@ export function armLegCoupling(
   strideFrequencyHz: number,
   steadyMask: Uint8Array,
 ): ArmLegCoupling {
-  assertSameLength(armOmegaDegS, legOmegaDegS, "armOmegaDegS and legOmegaDegS");
-  assertSameLength(armOmegaDegS, steadyMask, "armOmegaDegS and steadyMask");
-  assertPositiveFinite(sampleRateHz, "sampleRateHz");
-  if (!Number.isFinite(strideFrequencyHz) || strideFrequencyHz <= 0) return { ...UNAVAILABLE_COUPLING };
-
-  const targetHz = Math.max(12.5, 13.5 * strideFrequencyHz);
-  const factor = Math.max(1, Math.floor(sampleRateHz / targetHz));
-  const rateHz = sampleRateHz / factor;
-  const { arm, leg, mask, steadyCount } = decimate(armOmegaDegS, legOmegaDegS, steadyMask, factor);
-  if (steadyCount < (MIN_STEADY_STRIDES * rateHz) / strideFrequencyHz) return { ...UNAVAILABLE_COUPLING };
-
-  const peak = findArmPeak(arm, rateHz, strideFrequencyHz, mask);
-  if (!peak || peak.peakToMedian < MIN_PEAK_TO_MEDIAN) return { ...UNAVAILABLE_COUPLING };
-
-  const ratio = frequencyRatio(peak.frequencyHz, strideFrequencyHz);
-  const armFundamentalHz = ratio * strideFrequencyHz;
-  if (BAND_HIGH_FACTOR * armFundamentalHz >= 0.45 * rateHz) return { ...UNAVAILABLE_COUPLING };
-
-  const armBand = bandPassAroundFundamental(arm, rateHz, armFundamentalHz);
-  const legBand = bandPassAroundFundamental(leg, rateHz, strideFrequencyHz);
-  let sumSq = 0;
-  for (let i = 0; i < armBand.length; i++) if (mask[i] === 1) sumSq += armBand[i]! * armBand[i]!;
-  if (Math.sqrt(sumSq / steadyCount) < MIN_ARM_RMS_DEG_S) return { ...UNAVAILABLE_COUPLING };
-
-  const n = Math.max(1, Math.round(ratio));
-  const psi = relativePhase(hilbertPhase(armBand), hilbertPhase(legBand), n);
-  const stats = circularStats(psi, mask);
-  if (!stats || Number.isNaN(stats.meanRad)) return { ...UNAVAILABLE_COUPLING, frequencyRatio: ratio };
-  const deg = 180 / Math.PI;
-  return {
-    frequencyRatio: ratio,
-    meanRelativePhaseDeg: stats.meanRad * deg,
-    couplingStrength: stats.resultantLength,
-    circularSdDeg: stats.sdRad * deg,
-  };
+  const { strideCount: _count, rhythm: _rhythm, ...coupling } = armLegCouplingDetail(armOmegaDegS, legOmegaDegS, sampleRateHz, strideFrequencyHz, steadyMask);
+  return coupling;
 }
 
 function decimate(
@@ -119,21 +163,4 @@ function decimate(
     steadyCount += ok;
   }
   return { arm, leg, mask, steadyCount };
-}
-
-/** Welch peak of the arm over steady samples: 16-stride segments, relaxed to 8 strides / half steady. */
-function findArmPeak(arm: Float64Array, rateHz: number, strideHz: number, mask: Uint8Array) {
-  for (const strides of [16, 8]) {
-    for (const minMaskFraction of [1, 0.5]) {
-      const peak = dominantFrequency(arm, rateHz, {
-        minHz: ARM_SEARCH_LOW * strideHz,
-        maxHz: ARM_SEARCH_HIGH * strideHz,
-        segmentS: strides / strideHz,
-        mask,
-        minMaskFraction,
-      });
-      if (peak) return peak;
-    }
-  }
-  return null;
 }

@@ -1,4 +1,6 @@
-export { armLegCoupling, UNAVAILABLE_COUPLING } from "./arm-leg-coupling";
+export { armLegCoupling, armLegCouplingDetail, UNAVAILABLE_COUPLING, MIN_STEADY_STRIDES, MIN_COUPLING_STRENGTH, RAYLEIGH_ALPHA, type ArmLegCouplingDetail } from "./arm-leg-coupling";
+export { armRhythm, MAX_ONE_X_AMPLITUDE_FOR_TWO_TO_ONE, type ArmRhythm } from "./arm-rhythm";
+export { armSwingAmplitude, armSwingAsymmetryPct, NO_ARM_SWING_DEG, MIN_ARM_SWING_CYCLES, type ArmSwingAmplitude } from "./arm-swing";
 export { bandPassAroundFundamental, zeroPhaseBandPass, BAND_LOW_FACTOR, BAND_HIGH_FACTOR, BAND_PASS_ORDER } from "./band-pass";
 export { butterworthBandPassSections, bandPassMagnitude, type BandPassSection } from "./butterworth-band-pass-sections";
 export { circularStats, type CircularSummary } from "./circular-stats";
@@ -7,4 +9,5 @@ export { dominantFrequency, type DominantFrequency, type DominantFrequencyOption
 export { frequencyRatio, RATIO_SNAP_TOLERANCE } from "./frequency-ratio";
 export { hilbert, hilbertPhase } from "./hilbert";
 export { relativePhase, wrapPi } from "./relative-phase";
+export { segmentAngleDeg, ANGLE_HIGH_PASS_STRIDE_FRACTION } from "./segment-angle";
 export { welchPsd, type WelchOptions, type WelchResult } from "./welch-psd";
