@@ -236,6 +236,10 @@ const RULES: Record<string, Rule> = {
     expect: { own: S(200, 200, 403, 403, 401), other: S(404, 404, 403, 403, 401) },
     build: async (v) => ({ method: "get", url: `/api/sessions/${side(v).sessionId}` }),
   },
+  "PATCH /api/sessions/:id": {
+    expect: { own: S(403, 200, 403, 403, 401), other: S(403, 404, 403, 403, 401) },
+    build: async (v) => ({ method: "patch", url: `/api/sessions/${side(v).sessionId}`, body: { walkingAid: "cane" } }),
+  },
   "GET /api/sessions/:id/signal": {
     expect: { own: S(200, 200, 403, 403, 401), other: S(404, 404, 403, 403, 401) },
     build: async (v) => ({ method: "get", url: `/api/sessions/${side(v).sessionId}/signal` }),
@@ -246,6 +250,10 @@ const RULES: Record<string, Rule> = {
   },
 
   "GET /api/patients": { expect: { own: S(403, 200, 403, 200, 401) }, build: async () => ({ method: "get", url: "/api/patients" }) },
+  "PATCH /api/patients/:id": {
+    expect: { own: S(403, 200, 403, 403, 401), other: S(403, 404, 403, 403, 401) },
+    build: async (v) => ({ method: "patch", url: `/api/patients/${side(v).patientId}`, body: { heightCm: 171 } }),
+  },
   "GET /api/patients/:id": {
     expect: { own: S(200, 200, 403, 200, 401), other: S(404, 404, 403, 200, 401) },
     build: async (v) => ({ method: "get", url: `/api/patients/${side(v).patientId}` }),
