@@ -13,6 +13,7 @@ import { describeExcludedStrides } from "./gait/excluded-strides";
 import { detectInvertedFoot, detectInvertedShank } from "./orientation/detect-inverted-segment";
 import { projectOnAxis, sagittalAxis } from "./orientation/sagittal-axis";
 import { SATURATION_FLOOR_ACC_M_S2, SATURATION_FLOOR_GYRO_DEG_S, countSaturatedSamples } from "./quality/saturation";
+import { shankSwingAxisCheck } from "./quality/shank-swing-axis";
 import { MIN_STEADY_STRIDES_FOR_VARIABILITY, MISALIGNMENT_INFO_DEG, RATE_MISMATCH_FRACTION } from "./quality/thresholds";
 import { type ResampledSensor, resampleToGrid } from "./timebase/resample-to-grid";
 import { sessionGrid } from "./timebase/session-grid";
@@ -30,7 +31,7 @@ import {
 } from "./types";
 
 /** Bumped whenever a change can alter any number in the output. */
-export const ALGORITHM_VERSION = "1.0.1";
+export const ALGORITHM_VERSION = "1.1.0";
 
 export interface AnalyzeOptions {
   /** Reserved for callers that want to skip the arm–leg step (e.g. a quick pre-check). */
@@ -119,8 +120,17 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
     if (axis.angleFromNominalDeg > MISALIGNMENT_INFO_DEG) {
       quality.push({ code: "misalignment", severity: "info", placement, message: `${placement} sagittal axis is ${axis.angleFromNominalDeg.toFixed(0)}° from the nominal +z axis; corrected from the walking data` });
     }
-    const omega = projectOnAxis(s.gyroX, s.gyroY, s.gyroZ, axis.axis);
     const isFoot = placement.endsWith("_foot");
+    const swingAxis = isFoot ? null : shankSwingAxisCheck(s.accX, s.accY, s.accZ, axis.axis, mask);
+    if (swingAxis && !swingAxis.plausible) {
+      quality.push({
+        code: "misalignment",
+        severity: "warning",
+        placement,
+        message: `${placement}: the main rotation is ${swingAxis.angleToLongAxisDeg!.toFixed(0)}° from the lower leg's long axis instead of about 90° (loose or rotated strap?); ${placement.replace("_shank", "")} events and left–right metrics from this sensor are unreliable — check the strap before the next walk`,
+      });
+    }
+    const omega = projectOnAxis(s.gyroX, s.gyroY, s.gyroZ, axis.axis);
     const inversion = isFoot ? detectInvertedFoot(omega, mask) : detectInvertedShank(omega, mask);
     if (inversion.inverted) {
       for (let i = 0; i < omega.length; i++) omega[i] = -omega[i]!;
