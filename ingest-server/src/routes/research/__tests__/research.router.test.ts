@@ -157,3 +157,32 @@ describe("GET /api/research/cohort-metrics", () => {
     expect((await request(ctx.app).get("/api/research/cohort-metrics?format=xlsx").set(as(researcher))).status).toBe(400);
   });
 });
+
+describe("walking speed and stride length in the research export", () => {
+  it("are CSV columns and FHIR components in UCUM m/s and m", async () => {
+    const sessions = await ctx.db("walk_sessions").where({ status: "done" }).select("id", "patient_id", "recorded_at");
+    await ctx.db("session_metrics").insert(
+      sessions.flatMap((s, i) => [
+        { session_id: s.id, patient_id: s.patient_id, recorded_at: s.recorded_at, metric_key: "walkingSpeedMPerS", value: 0.7 + i / 100, unit: "m/s", n: 20 },
+        { session_id: s.id, patient_id: s.patient_id, recorded_at: s.recorded_at, metric_key: "strideLengthM", value: 0.9, unit: "m", n: 20 },
+      ]),
+    );
+    const csv = await request(ctx.app).get("/api/research/cohort-metrics?format=csv&metrics=walkingSpeedMPerS,strideLengthM").set(as(researcher));
+    expect(csv.status).toBe(200);
+    const lines = csv.text.trim().split("\r\n");
+    expect(lines[0]!.endsWith(",walkingSpeedMPerS,strideLengthM")).toBe(true);
+    expect(lines).toHaveLength(13);
+    for (const l of lines.slice(1)) expect(l).toMatch(/,0\.\d+,0\.9$/);
+
+    const fhir = await request(ctx.app).get("/api/research/cohort-metrics?format=fhir&metrics=walkingSpeedMPerS,strideLengthM").set(as(researcher));
+    expect(fhir.status).toBe(200);
+    const bundle = JSON.parse(fhir.text);
+    const obs = bundle.entry.find((e: { resource: { resourceType: string } }) => e.resource.resourceType === "Observation").resource;
+    const codes = obs.component.map((c: { code: { coding: Array<{ code: string }> }; valueQuantity: { code: string } }) => [c.code.coding[0]!.code, c.valueQuantity.code]);
+    expect(codes).toEqual([
+      ["walkingSpeedMPerS", "m/s"],
+      ["strideLengthM", "m"],
+    ]);
+    assertNoIdentifiers(csv.text);
+  });
+});
