@@ -2,7 +2,8 @@
 import { flagMetricChanges, type ChangeOptions, type FlaggedPoint, type SlopeFlag } from "./change-flags";
 import { detectCoordinationEvents, type CoordinationEvent } from "./coordination-events";
 import { CLINICAL_CAUTIONS } from "./cautions";
-import { bandsFor } from "./reference-bands";
+import { bandNote, bandsFor, type BandPopulation } from "./reference-bands";
+import { gatePhaseSeries } from "./phase-gate";
 import type { Baseline, Mdc } from "./reliability";
 import type { MetricDirection } from "./metric-catalog";
 
@@ -27,12 +28,21 @@ export interface AnnotateTrendsInput {
   };
 }
 
+/** A band as the API shows it: the values, who it describes and where it comes from. */
 export interface BandOut {
+  id: string;
   low: number;
   high: number;
   label: string;
+  /** Authors, journal and the table/figure/abstract location, in one line. */
   citation: string;
-  confirmed: boolean;
+  population: BandPopulation;
+  walkingCondition: string;
+  measurementSystem: string;
+  publishedValue: string;
+  derivation: string;
+  location: string;
+  note?: string;
 }
 
 export interface AnnotatedMetric {
@@ -44,6 +54,8 @@ export interface AnnotatedMetric {
   slopeFlag: SlopeFlag | null;
   direction: MetricDirection;
   bands: BandOut[];
+  /** Why no band is shown ("No published band for this patient…"); null when bands are shown. */
+  bandNote: string | null;
 }
 
 export interface AnnotatedTrends {
@@ -74,23 +86,23 @@ export function annotateTrends(input: AnnotateTrendsInput): AnnotatedTrends {
   const { patient, options = {} } = input;
   const visible = visibility(options.visibleFrom, options.visibleTo);
   const age = ageAt(patient.birthYear, input.metrics);
-  const metrics = input.metrics.map((m): AnnotatedMetric => {
+  // A mean relative phase is compared only where its session's coupling strength shows a real phase relation.
+  const gated = gatePhaseSeries(input.metrics);
+  const metrics = gated.map((m): AnnotatedMetric => {
     const change = flagMetricChanges(m.key, m.points, patient.condition, options);
     return {
       key: m.key,
       unit: m.unit,
       ...change,
       points: change.points.filter((p) => visible(p.recordedAt)),
-      bands: bandsFor(m.key, { age, condition: patient.condition }).map(({ low, high, label, citation, confirmed }) => ({
-        low,
-        high,
-        label,
-        citation,
-        confirmed,
+      bands: bandsFor(m.key, { age, condition: patient.condition }).map(({ metric: _metric, ...band }) => ({
+        ...band,
+        citation: `${band.citation}, ${band.location}`,
       })),
+      bandNote: bandNote(m.key, { age, condition: patient.condition }),
     };
   });
-  const events = detectCoordinationEvents(input.metrics, {
+  const events = detectCoordinationEvents(gated, {
     baselineSessions: options.baselineSessions,
     confirmSessions: options.confirmSessions,
     condition: patient.condition,

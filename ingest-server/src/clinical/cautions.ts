@@ -8,7 +8,7 @@ export const CAUTION_PROMPT_NOT_DIAGNOSIS =
 export const CAUTION_LOCAL_PROTOCOL =
   "Follow your local protocols and clinical judgement; Pendula supports decisions and does not make them.";
 export const CAUTION_BANDS =
-  "Reference bands describe the cohorts of the cited studies; bands marked unconfirmed come from memory and must be verified before use. Walking speed changes variability and PCI, so read them with speed in mind.";
+  "Reference bands describe only the cohorts of the cited studies (age, condition, walking condition and measurement system are given with each band); they are shown only to patients those cohorts describe. Published values come from walkways, timed walk tests or other sensors, not from this home test. Walking speed changes stride variability and PCI, so read them beside speed.";
 
 export const CLINICAL_CAUTIONS: readonly string[] = [
   CAUTION_MDC,

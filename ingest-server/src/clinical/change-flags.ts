@@ -11,17 +11,27 @@
  * fit an OLS line value ~ weeks; change over the window = slope × span actually covered (first to
  * last session in the window). |change| ≤ MDC95 → `within-error`, beyond it direction as above.
  * Needs ≥ 3 sessions covering at least half of the window, so one outlier pair cannot make a trend.
+ *
+ * Angles (metrics marked `circular`, e.g. mean relative phase): the baseline mean is the circular
+ * mean, the spread the SD of the wrapped deviations from it, and each session's change the
+ * circular difference wrapped to ±180°, so 175° and −178° are 7° apart, not 353°. With no
+ * better/worse direction, a change beyond MDC95 is flagged `changed`. No slope is fitted to angles.
+ *
+ * Points carrying `excludedReason` (e.g. a phase whose coupling strength did not show a real phase
+ * relation) are kept for display but take no part in the baseline, the MDC or the flags.
  */
 import { resolveMetricKey, type MetricDirection } from "./metric-catalog";
 import { resolveMdc, type Baseline, type Mdc } from "./reliability";
-import { mean, olsFit, sampleSd } from "./statistics";
+import { circularDeviationSd, circularDifferenceDeg, circularSummary, mean, olsFit, sampleSd } from "./statistics";
 
-export type ChangeFlag = "improved" | "worsened" | "within-error";
+export type ChangeFlag = "improved" | "worsened" | "within-error" | "changed";
 
 export interface SeriesPoint {
   sessionId: string;
   recordedAt: string;
   value: number;
+  /** Why this point is shown but not compared (e.g. "weak-coupling"). */
+  excludedReason?: string;
 }
 
 export interface FlaggedPoint extends SeriesPoint {
@@ -51,7 +61,8 @@ export const DEFAULT_SLOPE_WEEKS = 6;
 export const MIN_SLOPE_SESSIONS = 3;
 const MS_PER_WEEK = 7 * 24 * 3600 * 1000;
 
-export function classifyChange(delta: number, mdc: number, direction: MetricDirection): ChangeFlag | undefined {
+export function classifyChange(delta: number, mdc: number, direction: MetricDirection, circular = false): ChangeFlag | undefined {
+  if (circular) return Math.abs(delta) <= mdc ? "within-error" : "changed";
   if (direction === null) return undefined;
   if (Math.abs(delta) <= mdc) return "within-error";
   const rose = delta > 0;
@@ -77,10 +88,22 @@ function checkCount(name: string, v: number, min: number): void {
   if (!Number.isInteger(v) || v < min) throw new RangeError(`${name} must be an integer ≥ ${min}`);
 }
 
-export function computeBaseline(ordered: readonly SeriesPoint[], baselineSessions = DEFAULT_BASELINE_SESSIONS): Baseline | null {
+/** Baseline of the first N compared points (points with `excludedReason` are skipped). */
+export function computeBaseline(
+  ordered: readonly SeriesPoint[],
+  baselineSessions = DEFAULT_BASELINE_SESSIONS,
+  circular = false,
+): Baseline | null {
   checkCount("baselineSessions", baselineSessions, 2);
-  if (ordered.length < baselineSessions) return null;
-  const values = ordered.slice(0, baselineSessions).map((p) => p.value);
+  const usable = ordered.filter((p) => !p.excludedReason);
+  if (usable.length < baselineSessions) return null;
+  const values = usable.slice(0, baselineSessions).map((p) => p.value);
+  if (circular) {
+    const { meanDeg } = circularSummary(values);
+    // Phases spread evenly round the circle have no mean direction: no baseline.
+    if (Number.isNaN(meanDeg)) return null;
+    return { mean: meanDeg, sd: circularDeviationSd(values), n: values.length };
+  }
   return { mean: mean(values), sd: sampleSd(values), n: values.length };
 }
 
@@ -129,15 +152,21 @@ export function flagMetricChanges(
 ): MetricChange {
   const n = options.baselineSessions ?? DEFAULT_BASELINE_SESSIONS;
   const ordered = orderSeries(points);
-  const baseline = computeBaseline(ordered, n);
+  const info = resolveMetricKey(metricKey)?.info;
+  const circular = info?.circular === true;
+  const baseline = computeBaseline(ordered, n, circular);
   const mdc = resolveMdc(metricKey, condition, baseline);
-  const direction = resolveMetricKey(metricKey)?.info.direction ?? null;
-  const flagged: FlaggedPoint[] = ordered.map((p, i) => {
-    if (baseline && i < n) return { ...p, baseline: true };
+  const direction = info?.direction ?? null;
+  const baselinePoints = new Set(ordered.filter((p) => !p.excludedReason).slice(0, n).map((p) => p));
+  const flagged: FlaggedPoint[] = ordered.map((p) => {
+    if (p.excludedReason) return { ...p };
+    if (baseline && baselinePoints.has(p)) return { ...p, baseline: true };
     if (!baseline || !mdc) return { ...p };
-    const flag = classifyChange(p.value - baseline.mean, mdc.value, direction);
+    const delta = circular ? circularDifferenceDeg(p.value, baseline.mean) : p.value - baseline.mean;
+    const flag = classifyChange(delta, mdc.value, direction, circular);
     return flag ? { ...p, flag } : { ...p };
   });
-  const slope = mdc ? slopeFlag(ordered, mdc.value, direction, options.slopeWeeks ?? DEFAULT_SLOPE_WEEKS) : null;
+  const compared = ordered.filter((p) => !p.excludedReason);
+  const slope = mdc && !circular ? slopeFlag(compared, mdc.value, direction, options.slopeWeeks ?? DEFAULT_SLOPE_WEEKS) : null;
   return { points: flagged, baseline, mdc, slopeFlag: slope, direction };
 }

@@ -5,6 +5,7 @@ export * from "./change-flags";
 export * from "./coordination-events";
 export * from "./iso-week";
 export * from "./metric-catalog";
+export * from "./phase-gate";
 export * from "./reference-bands";
 export * from "./reliability";
 export * from "./statistics";

@@ -1,14 +1,16 @@
 /**
  * Measurement error and the smallest real change.
  *
- * SEM = SD·√(1 − ICC) and MDC95 = 1.96·√2·SEM (Weir 2005, J Strength Cond Res 19:231 — formula as
- * collected in DOMAIN.md §7, marked there as from memory). The √2 is there because a change is the
- * difference of two measurements, each carrying error.
+ * SEM = SD·√(1 − ICC) and MDC95 = 1.96·√2·SEM (Weir 2005, J Strength Cond Res 19:231). The √2
+ * is there because a change is the difference of two measurements, each carrying error. The
+ * published MDC95 values used below were computed by their authors with this formula.
  *
- * Where a published test–retest value exists for the patient's condition and metric it is used;
- * otherwise the patient's own baseline sessions give the error: repeated sessions of one person
- * while stable are a test–retest sample of size one, whose within-person SD estimates the SEM
- * (SEM = √MSE, Weir 2005 — from memory).
+ * Two error estimates can exist for one patient and metric: a published test–retest MDC for the
+ * patient's condition, and the patient's own baseline sessions (repeated sessions of one person
+ * while stable are a within-person test–retest sample, whose SD estimates the SEM). The published
+ * values come from timed or walkway tests repeated within a day; weekly home tests with body-worn
+ * sensors may vary more. So when both exist the LARGER is used (common practice: the conservative
+ * choice, fewer false "real change" flags).
  */
 import type { BaseMetric } from "./metric-catalog";
 import { resolveMetricKey } from "./metric-catalog";
@@ -27,7 +29,7 @@ export function minimalDetectableChange95(sem: number): number {
   return MDC95_FACTOR * sem;
 }
 
-/** ICC bands of Koo & Li 2016 (J Chiropr Med 15:155), as collected in DOMAIN.md §7 (from memory). */
+/** ICC bands of Koo & Li 2016 (J Chiropr Med 15:155): < 0.5 poor, 0.5–0.75 moderate, 0.75–0.9 good, > 0.9 excellent (DOMAIN.md, re-checked values). */
 export function iccBand(icc: number): "poor" | "moderate" | "good" | "excellent" {
   if (!Number.isFinite(icc) || icc < -1 || icc > 1) throw new RangeError("iccBand: icc must be in [-1, 1]");
   if (icc < 0.5) return "poor";
@@ -37,43 +39,130 @@ export function iccBand(icc: number): "poor" | "moderate" | "good" | "excellent"
 }
 
 export interface PublishedMdc {
+  id: string;
   metric: BaseMetric;
   condition: string;
-  /** MDC95 as a percentage of the group mean (MDC%), applied to the patient's baseline mean. */
-  mdcPctOfMean: number;
+  /** `pct-of-mean`: MDC% applied to the patient's baseline mean; `absolute`: the MDC95 in the metric's unit. */
+  kind: "pct-of-mean" | "absolute";
+  value: number;
+  /**
+   * For speed-stratified values: the baseline means this value applies to, as [min, max] with
+   * inclusive/exclusive ends as published. Absent = any baseline.
+   */
+  baselineRange?: { min: number; minInclusive: boolean; max: number; maxInclusive: boolean };
+  population: string;
+  walkingCondition: string;
+  measurementSystem: string;
+  publishedValue: string;
   citation: string;
-  confirmed: boolean;
+  location: string;
 }
 
+const HOSOI = "Hosoi et al. 2023, Front Neurol 14:1219505";
+const HOSOI_POP = "adults after stroke (n = 84), grouped by comfortable gait speed";
+const HOSOI_WALK = "10-meter walk test at comfortable speed, measured twice";
+const HOSOI_SYSTEM = "timed 10-meter straight track (gait speed from gait time)";
+
 /**
- * Only the values actually seen in a source. Nair, Hornby & Behrman 2012 report MDC% from 21 %
- * (cadence) to 80 % (double support) in incomplete SCI; the metrics between those two ends are not
- * in our notes, so they are not listed — those metrics fall back to the patient's baseline.
+ * Only values read in the source's own text. Nair, Hornby & Behrman 2012 report MDC% from 21 %
+ * (cadence) to 80 % (double limb support TIME per limb): the 80 % is not for double support as a
+ * percentage of the stride, so it is not used for `doubleSupportPct`.
  * Published ICCs without the sample SD (e.g. PCI ICC 0.566, Richmond 2025) cannot give an SEM for
  * one patient and are not used.
  */
 export const PUBLISHED_MDC: readonly PublishedMdc[] = [
   {
+    id: "cadence-isci-nair-2012",
     metric: "cadenceStepsPerMin",
     condition: "incomplete_sci",
-    mdcPctOfMean: 21,
-    citation: "Nair, Hornby & Behrman 2012, incomplete SCI test–retest: MDC% 21 % (cadence)",
-    confirmed: true,
+    kind: "pct-of-mean",
+    value: 21,
+    population: "adults with incomplete spinal cord injury (n = 16)",
+    walkingCondition: "self-selected speed, at least 2 trials within one session",
+    measurementSystem: "instrumented walkway",
+    publishedValue: "MDC% 21 % (cadence)",
+    citation: "Nair, Hornby & Behrman 2012, Top Spinal Cord Inj Rehabil 18:273",
+    location: "abstract (results)",
   },
   {
-    metric: "doubleSupportPct",
-    condition: "incomplete_sci",
-    mdcPctOfMean: 80,
-    citation: "Nair, Hornby & Behrman 2012, incomplete SCI test–retest: MDC% 80 % (double support)",
-    confirmed: true,
+    id: "speed-stroke-low-hosoi-2023",
+    metric: "walkingSpeedMPerS",
+    condition: "stroke",
+    kind: "absolute",
+    value: 0.05,
+    baselineRange: { min: 0, minInclusive: true, max: 0.4, maxInclusive: false },
+    population: `${HOSOI_POP}: low-speed group < 0.4 m/s (n = 19)`,
+    walkingCondition: HOSOI_WALK,
+    measurementSystem: HOSOI_SYSTEM,
+    publishedValue: "MDC 0.05 m/s (comfortable speed, low-speed group)",
+    citation: HOSOI,
+    location: "abstract (results)",
+  },
+  {
+    id: "speed-stroke-moderate-hosoi-2023",
+    metric: "walkingSpeedMPerS",
+    condition: "stroke",
+    kind: "absolute",
+    value: 0.11,
+    baselineRange: { min: 0.4, minInclusive: true, max: 0.8, maxInclusive: true },
+    population: `${HOSOI_POP}: moderate-speed group 0.4–0.8 m/s (n = 29)`,
+    walkingCondition: HOSOI_WALK,
+    measurementSystem: HOSOI_SYSTEM,
+    publishedValue: "MDC 0.11 m/s (comfortable speed, moderate-speed group)",
+    citation: HOSOI,
+    location: "abstract (results)",
+  },
+  {
+    id: "speed-stroke-high-hosoi-2023",
+    metric: "walkingSpeedMPerS",
+    condition: "stroke",
+    kind: "absolute",
+    value: 0.21,
+    baselineRange: { min: 0.8, minInclusive: false, max: Number.POSITIVE_INFINITY, maxInclusive: false },
+    population: `${HOSOI_POP}: high-speed group > 0.8 m/s (n = 36)`,
+    walkingCondition: HOSOI_WALK,
+    measurementSystem: HOSOI_SYSTEM,
+    publishedValue: "MDC 0.21 m/s (comfortable speed, high-speed group)",
+    citation: HOSOI,
+    location: "abstract (results)",
+  },
+  {
+    id: "speed-pd-combs-2014",
+    metric: "walkingSpeedMPerS",
+    condition: "parkinsons",
+    kind: "absolute",
+    value: 0.09,
+    population: "people with Parkinson's disease, Hoehn & Yahr 1–4, mean age 66 y, on medication (n = 88)",
+    walkingCondition: "comfortable 10-m walk test, test–retest (ICC(2,1) 0.98)",
+    measurementSystem: "timed 10-m walk",
+    publishedValue: "MDC95 0.09 m/s (comfortable walk test)",
+    citation: "Combs et al. 2014, Gait & Posture 39:784",
+    location: "abstract (results)",
   },
 ];
+
+function inRange(v: number, r: NonNullable<PublishedMdc["baselineRange"]>): boolean {
+  const aboveMin = r.minInclusive ? v >= r.min : v > r.min;
+  const belowMax = r.maxInclusive ? v <= r.max : v < r.max;
+  return aboveMin && belowMax;
+}
+
+/** The published MDC entry that fits this metric, condition and baseline mean, if any. */
+export function publishedMdcFor(metricKey: string, condition: string, baselineMean: number): PublishedMdc | undefined {
+  const base = resolveMetricKey(metricKey)?.base;
+  if (!base) return undefined;
+  return PUBLISHED_MDC.find(
+    (p) => p.metric === base && p.condition === condition && (!p.baselineRange || inRange(baselineMean, p.baselineRange)),
+  );
+}
 
 export const PATIENT_BASELINE_CITATION =
   "Patient's own baseline sessions: SEM = SD of the baseline values (n − 1), MDC95 = 1.96·√2·SEM (Weir 2005)";
 
 export interface Baseline {
+  /** Mean of the baseline sessions; for an angle, the circular mean in (−180°, 180°]. */
   mean: number;
+  /** Sample SD (n − 1); for an angle, of the wrapped deviations from the circular mean. */
   sd: number;
   n: number;
 }
@@ -82,32 +171,51 @@ export interface Mdc {
   value: number;
   source: "published" | "patient-baseline";
   citation: string;
-  confirmed: boolean;
   /** The SEM behind `value` (MDC95 / 2.772). */
   sem: number;
+  /** Who, how and where the published value comes from; or how the baseline value was formed. */
+  basis: string;
+  /** The other estimate when both existed and this one was larger (see the module note). */
+  alternative?: { value: number; source: "published" | "patient-baseline"; citation: string };
 }
 
-/**
- * The MDC95 for one patient and metric: published where a value fits the condition, else from the
- * baseline. `null` when neither applies (baseline SD of 0 gives no usable error estimate: with so
- * few sessions it means "not measured", not "no error").
- */
-export function resolveMdc(metricKey: string, condition: string, baseline: Baseline | null): Mdc | null {
-  if (!baseline) return null;
-  const resolved = resolveMetricKey(metricKey);
-  const published = resolved
-    ? PUBLISHED_MDC.find((p) => p.metric === resolved.base && p.condition === condition)
-    : undefined;
-  if (published && baseline.mean > 0) {
-    const value = (published.mdcPctOfMean / 100) * Math.abs(baseline.mean);
-    return { value, source: "published", citation: published.citation, confirmed: published.confirmed, sem: value / MDC95_FACTOR };
-  }
-  if (baseline.n < 2 || !(baseline.sd > 0)) return null;
+function publishedMdc(p: PublishedMdc, baseline: Baseline): Mdc | null {
+  const value = p.kind === "absolute" ? p.value : (p.value / 100) * Math.abs(baseline.mean);
+  if (!(value > 0)) return null;
+  return {
+    value,
+    source: "published",
+    citation: `${p.citation}, ${p.location}`,
+    sem: value / MDC95_FACTOR,
+    basis: `${p.publishedValue}; ${p.population}; ${p.walkingCondition}; ${p.measurementSystem}.`,
+  };
+}
+
+function baselineMdc(baseline: Baseline): Mdc | null {
+  if (baseline.n < 2 || !(baseline.sd > 0) || !Number.isFinite(baseline.sd)) return null;
   return {
     value: minimalDetectableChange95(baseline.sd),
     source: "patient-baseline",
     citation: PATIENT_BASELINE_CITATION,
-    confirmed: false,
     sem: baseline.sd,
+    basis: `SD of this patient's first ${baseline.n} sessions; a rough estimate with few sessions.`,
   };
+}
+
+/**
+ * The MDC95 for one patient and metric: the larger of the published value (where one fits the
+ * condition and baseline speed group) and the patient-baseline value. `null` without a baseline,
+ * or when neither applies (a baseline SD of 0 gives no usable error estimate: with so few
+ * sessions it means "not measured", not "no error").
+ */
+export function resolveMdc(metricKey: string, condition: string, baseline: Baseline | null): Mdc | null {
+  if (!baseline) return null;
+  const entry = publishedMdcFor(metricKey, condition, baseline.mean);
+  const published = entry ? publishedMdc(entry, baseline) : null;
+  const own = baselineMdc(baseline);
+  if (published && own) {
+    const [larger, smaller] = own.value > published.value ? [own, published] : [published, own];
+    return { ...larger, alternative: { value: smaller.value, source: smaller.source, citation: smaller.citation } };
+  }
+  return published ?? own;
 }

@@ -24,9 +24,16 @@ describe("annotateTrends", () => {
     expect(cv.baseline?.n).toBe(3);
   });
 
-  it("attaches the controls and PD stride-CV bands with citations (Frenkel-Toledo 2005) and none for asymmetry", () => {
-    expect(result.metrics[0]!.bands.map((b) => b.citation.startsWith("Frenkel-Toledo"))).toEqual([true, true]);
+  it("attaches the older-controls and PD stride-CV bands with citation and table (Frenkel-Toledo 2005, Table 2); none for asymmetry in PD", () => {
+    const bands = result.metrics[0]!.bands;
+    expect(bands.map((b) => b.citation)).toEqual([
+      "Frenkel-Toledo et al. 2005, J NeuroEng Rehabil 2:23, Table 2",
+      "Frenkel-Toledo et al. 2005, J NeuroEng Rehabil 2:23, Table 2",
+    ]);
+    expect(bands[1]!.population.conditions).toEqual(["parkinsons"]);
+    expect(result.metrics[0]!.bandNote).toBeNull();
     expect(result.metrics[2]!.bands).toEqual([]);
+    expect(result.metrics[2]!.bandNote).toMatch(/No published band for this patient/);
     expect(result.metrics[2]!.baseline).toBeNull();
   });
 
@@ -48,14 +55,13 @@ describe("annotateTrends", () => {
     expect(r.metrics[0]!.points.filter((p) => p.flag)).toHaveLength(1);
   });
 
-  it("picks age-limited bands from the age at the latest session (born 1956, 2026 → 70: no under-70 cadence band)", () => {
-    const r = annotateTrends({ patient, metrics: [{ key: "cadenceStepsPerMin", unit: "/min", points: weekly([100]) }] });
-    expect(r.metrics[0]!.bands.some((b) => /under 70/.test(b.label))).toBe(false);
-    const younger = annotateTrends({
-      patient: { ...patient, birthYear: 1980 },
-      metrics: [{ key: "cadenceStepsPerMin", unit: "/min", points: weekly([100]) }],
-    });
-    expect(younger.metrics[0]!.bands.some((b) => /under 70/.test(b.label))).toBe(true);
+  it("picks age-limited bands from the age at the latest session (born 1956, 2026 → 70: older-adult stride-CV band; born 1990 → none)", () => {
+    const cv = [{ key: "strideTimeCvPct", unit: "%", points: weekly([2.0]) }];
+    const r = annotateTrends({ patient: { ...patient, condition: "stroke" }, metrics: cv });
+    expect(r.metrics[0]!.bands.map((b) => b.id)).toEqual(["stride-cv-older-controls-frenkel-toledo-2005"]);
+    const younger = annotateTrends({ patient: { ...patient, condition: "stroke", birthYear: 1990 }, metrics: cv });
+    expect(younger.metrics[0]!.bands).toEqual([]);
+    expect(younger.metrics[0]!.bandNote).toMatch(/No published band for this patient/);
   });
 
   it("filters the visible range without moving the baseline", () => {

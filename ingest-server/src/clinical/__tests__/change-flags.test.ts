@@ -32,8 +32,8 @@ describe("flagMetricChanges: session flags", () => {
     }
   });
 
-  it("gives no flag to a metric without a clinical direction (relative phase), but still a baseline and MDC", () => {
-    const r = flagMetricChanges("armLegLeftArmRightLegMeanRelativePhaseDeg", weekly([10, 20, 15, 170]), "stroke");
+  it("gives no flag to a metric without a clinical direction (circular SD), but still a baseline and MDC", () => {
+    const r = flagMetricChanges("armLegLeftArmRightLegCircularSdDeg", weekly([10, 20, 15, 170]), "stroke");
     expect(r.points[3]!.flag).toBeUndefined();
     expect(r.mdc).not.toBeNull();
     expect(r.slopeFlag).toBeNull();
@@ -61,6 +61,45 @@ describe("flagMetricChanges: session flags", () => {
   it("orders sessions by recordedAt, whatever the input order", () => {
     const pts = weekly([1, 2, 3]).reverse();
     expect(orderSeries(pts).map((p) => p.sessionId)).toEqual(["s1", "s2", "s3"]);
+  });
+});
+
+describe("mean relative phase: circular baseline, wrapped difference", () => {
+  const key = "armLegLeftArmRightLegMeanRelativePhaseDeg";
+  // Baseline [172, 175, 178]°: circular mean 175°, SD of wrapped deviations 3° (scipy fixture) → MDC95 8.316°.
+
+  it("shows no change for a session at −178° against a baseline at 175° (7° apart, inside the MDC)", () => {
+    const r = flagMetricChanges(key, weekly([172, 175, 178, -178]), "stroke");
+    expect(r.baseline?.mean).toBeCloseTo(175, 9);
+    expect(r.baseline?.sd).toBeCloseTo(3, 9);
+    expect(r.mdc?.value).toBeCloseTo(3 * MDC95_FACTOR, 9);
+    expect(r.points[3]!.flag).toBe("within-error");
+  });
+
+  it("flags a shift beyond the MDC as changed, in either direction across ±180°", () => {
+    const r = flagMetricChanges(key, weekly([172, 175, 178, -170, 160]), "stroke");
+    expect(r.points.slice(3).map((p) => p.flag)).toEqual(["changed", "changed"]); // +15°, −15°
+    expect(r.slopeFlag).toBeNull(); // no line is fitted to angles
+  });
+
+  it("builds the baseline across the wrap: [178, −178, 180]° has mean 180° and SD 2°, not 206° and SD 205°", () => {
+    const r = flagMetricChanges(key, weekly([178, -178, 180, -179]), "stroke");
+    expect(Math.abs(r.baseline!.mean)).toBeCloseTo(180, 9);
+    expect(r.baseline?.sd).toBeCloseTo(fixtures.circular[2]!.deviation_sd_ddof1, 9);
+    expect(r.points[3]!.flag).toBe("within-error");
+  });
+
+  it("leaves excluded points (weak coupling) out of the baseline and the flags, but keeps them for display", () => {
+    const pts = weekly([172, 40, 175, 178, -178]);
+    pts[1] = { ...pts[1]!, excludedReason: "weak-coupling" };
+    const r = flagMetricChanges(key, pts, "stroke");
+    expect(r.points).toHaveLength(5);
+    expect(r.points[1]).toMatchObject({ excludedReason: "weak-coupling" });
+    expect(r.points[1]!.flag).toBeUndefined();
+    expect(r.points[1]!.baseline).toBeUndefined();
+    expect(r.baseline?.mean).toBeCloseTo(175, 9);
+    expect(r.points.filter((p) => p.baseline).map((p) => p.sessionId)).toEqual(["s1", "s3", "s4"]);
+    expect(r.points[4]!.flag).toBe("within-error");
   });
 });
 

@@ -31,6 +31,35 @@ describe("resolveMetricKey", () => {
   });
 
   it("returns null for an unknown key", () => {
-    expect(resolveMetricKey("walkingSpeedMPerS")).toBeNull();
+    expect(resolveMetricKey("heartRateBpm")).toBeNull();
+  });
+
+  it.each([
+    ["walkingSpeedMPerS", "walkingSpeedMPerS", null, "pace", "higher-is-better"],
+    ["strideLengthM", "strideLengthM", null, "pace", "higher-is-better"],
+    ["swingTimeCvPctLeft", "swingTimeCvPct", "left", "variability", "higher-is-worse"],
+    ["swingTimeCvPctRight", "swingTimeCvPct", "right", "variability", "higher-is-worse"],
+    ["stepTimeAsymmetryPct", "stepTimeAsymmetryPct", null, "asymmetry", "higher-is-worse"],
+    ["armSwingAmplitudeDegLeft", "armSwingAmplitudeDeg", "left", "arm-swing", null],
+    ["armSwingAmplitudeDegRight", "armSwingAmplitudeDeg", "right", "arm-swing", null],
+    ["armSwingAsymmetryPct", "armSwingAsymmetryPct", null, "arm-swing", "higher-is-worse"],
+  ])("new trend key %s → %s side %s, family %s, direction %s", (key, base, side, family, direction) => {
+    const r = resolveMetricKey(key);
+    expect(r?.base).toBe(base);
+    expect(r?.side).toBe(side);
+    expect(r?.info.family).toBe(family);
+    expect(r?.info.direction).toBe(direction);
+  });
+
+  it("keeps similar names apart: swing % vs swing-time CV, gait vs step vs arm-swing asymmetry", () => {
+    expect(resolveMetricKey("swingPctLeft")?.base).toBe("swingPct");
+    expect(resolveMetricKey("gaitAsymmetryPct")?.base).toBe("gaitAsymmetryPct");
+    expect(resolveMetricKey("stepTimeMeanSLeft")?.base).toBe("stepTimeMeanS");
+  });
+
+  it("marks only the mean relative phase as an angle (circular statistics)", () => {
+    expect(resolveMetricKey("armLegRightArmLeftLegMeanRelativePhaseDeg")?.info.circular).toBe(true);
+    expect(resolveMetricKey("armLegRightArmLeftLegCircularSdDeg")?.info.circular).toBeUndefined();
+    expect(resolveMetricKey("armSwingAmplitudeDegLeft")?.info.circular).toBeUndefined();
   });
 });

@@ -38,7 +38,7 @@ describe("change-flag invariants (fast-check)", () => {
         if (!a.baseline) return;
         const mirrored = values.map((v) => 2 * a.baseline!.mean - v);
         const b = flagMetricChanges("cadenceStepsPerMin", weekly(mirrored), "stroke");
-        const swap = { improved: "worsened", worsened: "improved", "within-error": "within-error" } as const;
+        const swap = { improved: "worsened", worsened: "improved", "within-error": "within-error", changed: "changed" } as const;
         a.points.forEach((p, i) => {
           const other = b.points[i]!.flag;
           // Values on the MDC edge can round either way after mirroring; skip those.

@@ -81,10 +81,37 @@ describe("resolveMdc", () => {
     expect(mdc?.citation).toMatch(/Nair/);
   });
 
-  it("uses Nair 2012 MDC% 80 % for double support in incomplete SCI", () => {
+  it("does not apply Nair 2012's 80 % (double support TIME per limb) to double support as % of the stride", () => {
     const mdc = resolveMdc("doubleSupportPct", "incomplete_sci", { mean: 30, sd: 2, n: 3 });
+    expect(mdc?.source).toBe("patient-baseline");
+    expect(mdc?.value).toBeCloseTo(2 * MDC95_FACTOR, 10);
+  });
+
+  it.each([
+    [0.3, 0.05],
+    [0.399, 0.05],
+    [0.4, 0.11],
+    [0.8, 0.11],
+    [0.81, 0.21],
+  ])("stroke walking speed, baseline %s m/s → Hosoi 2023 MDC %s m/s (speed groups < 0.4, 0.4–0.8, > 0.8)", (speed, expected) => {
+    const mdc = resolveMdc("walkingSpeedMPerS", "stroke", { mean: speed, sd: 0.01, n: 3 });
     expect(mdc?.source).toBe("published");
-    expect(mdc?.value).toBeCloseTo(24, 10);
+    expect(mdc?.value).toBeCloseTo(expected, 12);
+    expect(mdc?.citation).toMatch(/Hosoi.*2023/);
+    expect(mdc?.alternative?.source).toBe("patient-baseline");
+  });
+
+  it("PD walking speed uses Combs 2014 MDC95 0.09 m/s; iSCI speed has no confirmed published value and uses the baseline", () => {
+    expect(resolveMdc("walkingSpeedMPerS", "parkinsons", { mean: 1.0, sd: 0.01, n: 3 })?.value).toBeCloseTo(0.09, 12);
+    expect(resolveMdc("walkingSpeedMPerS", "incomplete_sci", { mean: 0.6, sd: 0.05, n: 3 })?.source).toBe("patient-baseline");
+  });
+
+  it("uses the larger estimate when the patient's own week-to-week error exceeds the published one", () => {
+    // Baseline SD 0.05 m/s → 0.1386 m/s > Hosoi's 0.11 m/s for the 0.4–0.8 group.
+    const mdc = resolveMdc("walkingSpeedMPerS", "stroke", { mean: 0.6, sd: 0.05, n: 3 });
+    expect(mdc?.source).toBe("patient-baseline");
+    expect(mdc?.value).toBeCloseTo(0.05 * MDC95_FACTOR, 12);
+    expect(mdc?.alternative).toMatchObject({ source: "published", value: 0.11 });
   });
 
   it("falls back to the patient's baseline for another condition: MDC95 = 2.7719 × baseline SD", () => {
