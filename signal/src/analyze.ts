@@ -15,6 +15,7 @@ import { projectOnAxis, sagittalAxis } from "./orientation/sagittal-axis";
 import { SATURATION_FLOOR_ACC_M_S2, SATURATION_FLOOR_GYRO_DEG_S, countSaturatedSamples } from "./quality/saturation";
 import { shankSwingAxisCheck } from "./quality/shank-swing-axis";
 import { MIN_STEADY_STRIDES_FOR_VARIABILITY, MISALIGNMENT_INFO_DEG, RATE_MISMATCH_FRACTION } from "./quality/thresholds";
+import { alignLegClocks } from "./timebase/align-clocks";
 import { type ResampledSensor, resampleToGrid } from "./timebase/resample-to-grid";
 import { sessionGrid } from "./timebase/session-grid";
 import { sessionStrideLengths } from "./spatial/session-stride-lengths";
@@ -81,6 +82,8 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
     sensors.set(r.placement!, s);
     reportRecordingQuality(r, s, quality);
   }
+  // Clock alignment of the right leg sensor to the left one (impacts felt by the trunk or wrists).
+  quality.push(...alignLegClocks(placed, grid, sensors, recordings).quality);
 
   const legPlacement = (side: Side): Placement | null => {
     const shank = `${side}_shank` as Placement;

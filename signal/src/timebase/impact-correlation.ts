@@ -1,0 +1,118 @@
+/**
+ * Lag correlation of two impact envelopes (same bin rate, same session grid) over a bounded lag
+ * range, computed directly (no FFT): cost is bins × lags, and the lag range is small.
+ *
+ * r(τ) = Σ a′(t)·b′(t+τ) / √(Σ a′² · Σ b′²), a′ and b′ the envelopes minus their mean over the
+ * bins used, summed over bins where both are valid and `active`. When own-impact masks are given,
+ * products where an own impact of `a` meets an own impact of `b` are left out (see clock-offset.ts
+ * for why), so the lag that lines up the two legs' own heel strikes cannot win.
+ */
+export function lagCorrelation(
+  a: Float32Array,
+  b: Float32Array,
+  validA: Uint8Array,
+  validB: Uint8Array,
+  active: Uint8Array,
+  maxLagBins: number,
+  fromBin: number,
+  toBin: number,
+  ownA: Uint8Array | null = null,
+  ownB: Uint8Array | null = null,
+): { r: Float64Array; bins: number } {
+  const m = Math.min(a.length, b.length, active.length);
+  const from = Math.max(0, fromBin);
+  const to = Math.min(m, toBin);
+  const r = new Float64Array(2 * maxLagBins + 1);
+  let sa = 0;
+  let sb = 0;
+  let na = 0;
+  let nb = 0;
+  for (let t = from; t < to; t++) {
+    if (!active[t]) continue;
+    if (validA[t]) {
+      sa += a[t]!;
+      na++;
+    }
+    if (validB[t]) {
+      sb += b[t]!;
+      nb++;
+    }
+  }
+  if (na < 2 || nb < 2) return { r: r.fill(Number.NaN), bins: 0 };
+  const ma = sa / na;
+  const mb = sb / nb;
+  let va = 0;
+  let vb = 0;
+  for (let t = from; t < to; t++) {
+    if (!active[t]) continue;
+    if (validA[t]) va += (a[t]! - ma) ** 2;
+    if (validB[t]) vb += (b[t]! - mb) ** 2;
+  }
+  const norm = Math.sqrt(va * vb);
+  if (!(norm > 0)) return { r: r.fill(Number.NaN), bins: 0 };
+  // Centred, zeroed where unusable, so the inner loop is one multiply–add per (t, τ).
+  const ca = new Float64Array(m);
+  const cb = new Float64Array(m);
+  for (let t = 0; t < m; t++) {
+    const inRange = t >= from && t < to && active[t] === 1;
+    ca[t] = inRange && validA[t] ? a[t]! - ma : 0;
+    cb[t] = validB[t] && active[t] ? b[t]! - mb : 0;
+  }
+  for (let li = 0; li < r.length; li++) {
+    const lag = li - maxLagBins;
+    const t0 = Math.max(from, -lag);
+    const t1 = Math.min(to, m - lag);
+    let s = 0;
+    if (ownA && ownB) {
+      for (let t = t0; t < t1; t++) if (!(ownA[t] && ownB[t + lag])) s += ca[t]! * cb[t + lag]!;
+    } else {
+      for (let t = t0; t < t1; t++) s += ca[t]! * cb[t + lag]!;
+    }
+    r[li] = s / norm;
+  }
+  return { r, bins: na };
+}
+
+export interface LagPeak {
+  /** Lag of the highest correlation (bins, sub-bin by parabolic interpolation). */
+  lagBins: number;
+  peak: number;
+  /** Highest other local maximum at least `separationBins` away (0 when there is none). */
+  runnerUp: number;
+}
+
+/**
+ * Highest value of r (after a [1 2 1]/4 smoothing, which steadies the top of a broad peak) with a
+ * parabolic sub-bin vertex, and the best other local maximum at least `separationBins` away.
+ */
+export function lagPeak(r: Float64Array, separationBins: number): LagPeak | null {
+  const n = r.length;
+  if (n < 3) return null;
+  const s = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const l = r[Math.max(0, i - 1)]!;
+    const c = r[i]!;
+    const h = r[Math.min(n - 1, i + 1)]!;
+    s[i] = (l + 2 * c + h) / 4;
+  }
+  let best = -1;
+  for (let i = 0; i < n; i++) if (Number.isFinite(s[i]!) && (best < 0 || s[i]! > s[best]!)) best = i;
+  if (best < 0) return null;
+  let lag = best;
+  if (best > 0 && best < n - 1) {
+    const y0 = s[best - 1]!;
+    const y1 = s[best]!;
+    const y2 = s[best + 1]!;
+    const den = y0 - 2 * y1 + y2;
+    if (den < 0) lag = best + Math.max(-0.5, Math.min(0.5, (0.5 * (y0 - y2)) / den));
+  }
+  let runnerUp = 0;
+  for (let i = 1; i < n - 1; i++) {
+    if (Math.abs(i - best) < separationBins) continue;
+    if (s[i]! > s[i - 1]! && s[i]! >= s[i + 1]! && s[i]! > runnerUp) runnerUp = s[i]!;
+  }
+  // An edge of the range still rising is a possible peak outside it.
+  if (Math.abs(0 - best) >= separationBins && s[0]! > s[1]! && s[0]! > runnerUp) runnerUp = s[0]!;
+  if (Math.abs(n - 1 - best) >= separationBins && s[n - 1]! > s[n - 2]! && s[n - 1]! > runnerUp) runnerUp = s[n - 1]!;
+  return { lagBins: lag - (n - 1) / 2, peak: s[best]!, runnerUp };
+}
