@@ -35,6 +35,25 @@ import { createRuntime } from "../runtime";
  */
 
 const PLACEMENTS = ["left_shank", "right_shank", "left_wrist", "right_wrist"] as const;
+
+/** Invented standing heights (cm) of the demo patients, by scenario key; the clinician enters these in the portal. */
+export const DEMO_HEIGHTS_CM: Record<string, number> = {
+  p01: 164, p02: 179, p03: 158, p04: 176, p05: 161, p06: 183, p07: 167, p08: 174, p09: 155,
+  p10: 181, p11: 172, p12: 163, p13: 185, p14: 160, p15: 177, p16: 169, p17: 171, p18: 152,
+};
+
+/**
+ * The walking aid the clinician records for a demo week (invented): early stroke and SCI weeks with
+ * a cane or crutches that are later put aside, the oldest patient with a rollator throughout, and
+ * one patient whose sessions carry no record, as happens when nobody entered it.
+ */
+export function demoWalkingAid(patient: DemoPatient, week: number): string | null {
+  if (patient.key === "p18") return "rollator";
+  if (patient.key === "p16") return null;
+  if (patient.condition === "incomplete_sci") return week < 6 ? "crutches" : week < 10 ? "cane" : "none";
+  if (patient.condition === "stroke") return week < 4 ? "cane" : "none";
+  return "none";
+}
 const DAY_MS = 86_400_000;
 
 function mondayUtc(d: Date): Date {
@@ -156,6 +175,7 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
         enrolled_on: enrolledAt.toISOString().slice(0, 10),
         research_consent: p.researchConsent,
         expected_uploads_per_week: 1,
+        height_cm: DEMO_HEIGHTS_CM[p.key] ?? null,
       })
       .returning("id");
     const patientId = pat.id as string;
@@ -198,6 +218,8 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
         patientId,
         files: synth.files.map((f) => ({ originalName: f.fileName, buffer: Buffer.from(f.text, "utf8") })),
       });
+      // Recorded before processing, as a clinician would at the visit, so the analysis is told about it.
+      await db("walk_sessions").where({ id: result.id }).update({ walking_aid: demoWalkingAid(p, week) });
       await processSession(deps, result.id);
       // Uploaded the same morning it was recorded, not at seed time.
       const uploadedAt = new Date(at.getTime() + 40 * 60_000);
