@@ -1,0 +1,246 @@
+import { assertPositiveFinite } from "../check";
+import { ANGLE_HIGH_PASS_STRIDE_FRACTION, segmentAngleDeg } from "../coordination/segment-angle";
+import { bandPassZeroPhase, lowPassZeroPhase } from "../filter/zero-phase-butterworth";
+import { sagittalAxis } from "./sagittal-axis";
+
+/** The wrist's swing axis is sought in gyro band-passed to this band around the stride frequency (× f_stride, common practice). */
+export const WRIST_AXIS_BAND: readonly [number, number] = [0.5, 2.6];
+/**
+ * The forward cue decides the sign only when its t statistic over steps reaches this and at least
+ * `MIN_FORWARD_CUE_STEPS` steps contribute (common practice: |t| ≥ 3 is p < 0.005 two-sided for
+ * ≥ 10 steps).
+ */
+export const MIN_FORWARD_CUE_T = 3;
+export const MIN_FORWARD_CUE_STEPS = 10;
+/** |cos| of the angle between a nominal axis and the measured direction needed to call it (60°, common practice). */
+export const AXIS_CALL_COS = 0.5;
+const DEG = Math.PI / 180;
+const G_M_S2 = 9.81;
+
+type Vec3 = [number, number, number];
+
+export interface WristOrientation {
+  /** Unit axis in the sensor frame; gyro · rightAxis is the forearm's sagittal ω, forward (flexion) positive. */
+  rightAxis: Vec3;
+  /** True when the body's forward direction confirmed the sign; false when it fell back on the nominal axes. */
+  verified: boolean;
+  /** Gravity along the sensor's nominal forearm axis (+y) says the device hangs upside down (null: neither way). */
+  upsideDown: boolean | null;
+  /** The sensor's nominal forward axis (+x) faces backward (null when unverified or sideways). */
+  turnedAround: boolean | null;
+  /** The corrected ω has the opposite sign to the nominal +z reading. */
+  flippedFromNominal: boolean;
+  /** Forward cue: mean over steps of (acceleration just before IC − just after IC), its t and step count. */
+  forwardCue: { meanM_S2: number; t: number; stepCount: number } | null;
+  /** Share of band-passed gyro variance on the swing axis. */
+  explainedVariance: number;
+}
+
+export interface WristSignInput {
+  accX: ArrayLike<number>;
+  accY: ArrayLike<number>;
+  accZ: ArrayLike<number>;
+  gyroX: ArrayLike<number>;
+  gyroY: ArrayLike<number>;
+  gyroZ: ArrayLike<number>;
+  /** 1 on straight, steady walking with valid wrist data (turns excluded). */
+  mask: Uint8Array;
+  sampleRateHz: number;
+  strideFrequencyHz: number;
+  /** Initial contacts of both legs (s, session time base), from the shank or foot events. */
+  initialContactsS: readonly number[];
+}
+
+/**
+ * Sagittal axis and sign of a wrist sensor from physics that does not involve the arm–leg phase.
+ *
+ * Axis: first principal component of the gyro band-passed to 0.5–2.6 × f_stride over straight
+ * walking, made horizontal by removing its component along gravity (the shoulder's flexion axis is
+ * horizontal; turns and the trunk's yaw would tilt it).
+ *
+ * Up: the mean accelerometer vector over the same samples (gravity dominates; it points up along
+ * the hanging forearm). Gravity along the nominal +y axis tells upright from upside-down wear.
+ *
+ * Sign: for the candidate right axis r, the candidate forward axis is f = up × r (x forward, y up,
+ * z right is right-handed). Along f the wrist feels g·sin θ + L·α from its own swing about the
+ * shoulder (θ = arm angle from the integrated ω, α = its angular acceleration; both flip with r, so
+ * they fit either sign equally) plus the body's own forward acceleration, which does not flip: the
+ * trunk accelerates forward before each initial contact and brakes after it (the anteroposterior
+ * acceleration crosses zero from positive to negative at IC; Zijlstra & Hof 2003, Gait Posture
+ * 18:1). So a_f is regressed on [1, sin θ, α], and for each IC (either leg) d = mean residual over
+ * the half step before IC − over the half step after. mean(d) > 0 means f is forward. The sign is
+ * decided only when |t| = |mean d| / (SD d / √K) ≥ 3 over K ≥ 10 steps; otherwise it falls back on
+ * the nominal axes (the sensor's +x taken as forward, corrected for upside-down wear by gravity)
+ * and `verified` is false. The expected arm–leg phase is never used.
+ *
+ * Returns null when there are too few straight-walking samples for an axis or no gravity reading.
+ */
+export function wristOrientation(input: WristSignInput): WristOrientation | null {
+  const fs = input.sampleRateHz;
+  assertPositiveFinite(fs, "sampleRateHz");
+  assertPositiveFinite(input.strideFrequencyHz, "strideFrequencyHz");
+  const n = input.mask.length;
+  const mask = input.mask;
+  const clean = (x: ArrayLike<number>): Float64Array => Float64Array.from({ length: n }, (_, i) => (Number.isFinite(x[i]!) ? x[i]! : 0));
+  const gyro = [clean(input.gyroX), clean(input.gyroY), clean(input.gyroZ)] as const;
+  const acc = [clean(input.accX), clean(input.accY), clean(input.accZ)] as const;
+
+  // Up: mean specific force over straight walking.
+  const up: Vec3 = [0, 0, 0];
+  let count = 0;
+  for (let i = 0; i < n; i++) {
+    if (!mask[i]) continue;
+    count++;
+    for (let k = 0; k < 3; k++) up[k] = up[k]! + acc[k]![i]!;
+  }
+  if (count === 0) return null;
+  const upNorm = Math.hypot(...up) / count;
+  if (upNorm < 0.5 * G_M_S2) return null;
+  normalise(up);
+
+  // Swing axis from band-limited gyro, made horizontal.
+  const lo = WRIST_AXIS_BAND[0] * input.strideFrequencyHz;
+  const hi = Math.min(WRIST_AXIS_BAND[1] * input.strideFrequencyHz, 0.45 * fs);
+  const band = gyro.map((g) => bandPassZeroPhase(g, fs, lo, hi, 2));
+  const pc = sagittalAxis(band[0]!, band[1]!, band[2]!, mask);
+  if (!pc) return null;
+  const right: Vec3 = [...pc.axis];
+  const along = dot(right, up);
+  for (let k = 0; k < 3; k++) right[k] = right[k]! - along * up[k]!;
+  if (Math.hypot(...right) < 0.5) return null;
+  normalise(right);
+  const forward = cross(up, right);
+
+  const forwardCue = bodyForwardCue(gyro, acc, right, forward, input);
+  const nominalX: Vec3 = [1, 0, 0];
+  const upsideDown = up[1] >= AXIS_CALL_COS ? false : up[1] <= -AXIS_CALL_COS ? true : null;
+  let sign: 1 | -1;
+  let verified = false;
+  if (forwardCue && forwardCue.stepCount >= MIN_FORWARD_CUE_STEPS && Math.abs(forwardCue.t) >= MIN_FORWARD_CUE_T) {
+    sign = forwardCue.t > 0 ? 1 : -1;
+    verified = true;
+  } else {
+    // Nominal fallback: +x forward, so right = x × up.
+    const nominalRight = cross(nominalX, up);
+    sign = dot(nominalRight, right) >= 0 ? 1 : -1;
+  }
+  const rightAxis: Vec3 = [sign * right[0], sign * right[1], sign * right[2]];
+  const fwd: Vec3 = [sign * forward[0], sign * forward[1], sign * forward[2]];
+  const turnedAround = !verified ? null : fwd[0] <= -AXIS_CALL_COS ? true : fwd[0] >= AXIS_CALL_COS ? false : null;
+  return {
+    rightAxis,
+    verified,
+    upsideDown,
+    turnedAround,
+    flippedFromNominal: rightAxis[2] < 0,
+    forwardCue: forwardCue && { ...forwardCue, t: sign * forwardCue.t, meanM_S2: sign * forwardCue.meanM_S2 },
+    explainedVariance: pc.explainedVariance,
+  };
+}
+
+function bodyForwardCue(
+  gyro: readonly Float64Array[],
+  acc: readonly Float64Array[],
+  right: Vec3,
+  forward: Vec3,
+  input: WristSignInput,
+): { meanM_S2: number; t: number; stepCount: number } | null {
+  const fs = input.sampleRateHz;
+  const n = input.mask.length;
+  const omega = new Float64Array(n);
+  const af = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    omega[i] = gyro[0]![i]! * right[0] + gyro[1]![i]! * right[1] + gyro[2]![i]! * right[2];
+    af[i] = acc[0]![i]! * forward[0] + acc[1]![i]! * forward[1] + acc[2]![i]! * forward[2];
+  }
+  const theta = segmentAngleDeg(omega, fs, ANGLE_HIGH_PASS_STRIDE_FRACTION * input.strideFrequencyHz);
+  // α from ω low-passed at 8 Hz (common practice: arm swing content lies well below it).
+  const smooth = 8 < 0.45 * fs ? lowPassZeroPhase(omega, fs, 8, 4) : omega;
+  const alpha = new Float64Array(n);
+  for (let i = 1; i < n - 1; i++) alpha[i] = ((smooth[i + 1]! - smooth[i - 1]!) * fs * 0.5) * DEG;
+  const sinTheta = theta.map((t) => Math.sin(t * DEG));
+
+  // Step template: +1 over the half step before each IC, −1 over the half step after.
+  const halfStep = Math.max(1, Math.round((0.25 * fs) / input.strideFrequencyHz));
+  const step = new Float64Array(n);
+  for (const ic of input.initialContactsS) {
+    const c = Math.round(ic * fs);
+    for (let i = Math.max(0, c - halfStep); i < Math.min(n, c + halfStep); i++) step[i] = i < c ? 1 : -1;
+  }
+  // Joint least squares a_f ≈ c0 + c1·sin θ + c2·α + β·step over the mask: fitting the template
+  // together with the arm's own terms keeps the arm's step-frequency harmonics from absorbing it.
+  const cols = [sinTheta, alpha, step];
+  const ata = new Float64Array(16);
+  const atb = new Float64Array(4);
+  const row = new Float64Array(4);
+  for (let i = 0; i < n; i++) {
+    if (!input.mask[i]) continue;
+    row[0] = 1;
+    for (let k = 0; k < 3; k++) row[k + 1] = cols[k]![i]!;
+    for (let r = 0; r < 4; r++) {
+      atb[r] = atb[r]! + row[r]! * af[i]!;
+      for (let c = 0; c < 4; c++) ata[4 * r + c] = ata[4 * r + c]! + row[r]! * row[c]!;
+    }
+  }
+  const coef = solveSymmetric(ata, atb, 4);
+  if (!coef) return null;
+  // Per-step evidence on the signal with the arm's own terms removed (template kept in).
+  const residual = new Float64Array(n);
+  for (let i = 0; i < n; i++) residual[i] = af[i]! - coef[0]! - coef[1]! * sinTheta[i]! - coef[2]! * alpha[i]!;
+
+  const d: number[] = [];
+  for (const ic of input.initialContactsS) {
+    const c = Math.round(ic * fs);
+    if (c - halfStep < 0 || c + halfStep > n) continue;
+    let ok = true;
+    let before = 0;
+    let after = 0;
+    for (let i = c - halfStep; i < c + halfStep; i++) {
+      if (!input.mask[i]) {
+        ok = false;
+        break;
+      }
+      if (i < c) before += residual[i]!;
+      else after += residual[i]!;
+    }
+    if (ok) d.push((before - after) / halfStep);
+  }
+  if (d.length < 2) return d.length === 0 ? null : { meanM_S2: d[0]!, t: 0, stepCount: d.length };
+  const mean = d.reduce((a, x) => a + x, 0) / d.length;
+  const sd = Math.sqrt(d.reduce((a, x) => a + (x - mean) ** 2, 0) / (d.length - 1));
+  const t = sd > 0 ? mean / (sd / Math.sqrt(d.length)) : 0;
+  return { meanM_S2: mean, t, stepCount: d.length };
+}
+
+function dot(a: Vec3, b: Vec3): number {
+  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
+}
+
+function cross(a: Vec3, b: Vec3): Vec3 {
+  return [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
+}
+
+function normalise(v: Vec3): void {
+  const m = Math.hypot(v[0], v[1], v[2]) || 1;
+  v[0] /= m;
+  v[1] /= m;
+  v[2] /= m;
+}
+
+/** Solves an m × m system (row-major) by Gaussian elimination with partial pivoting; null when singular. */
+function solveSymmetric(a: Float64Array, b: Float64Array, m: number): number[] | null {
+  const A = Array.from({ length: m }, (_, r) => [...a.subarray(r * m, r * m + m), b[r]!]);
+  for (let c = 0; c < m; c++) {
+    let p = c;
+    for (let r = c + 1; r < m; r++) if (Math.abs(A[r]![c]!) > Math.abs(A[p]![c]!)) p = r;
+    const scale = Math.max(...A.map((row) => Math.abs(row[c]!)));
+    if (!(Math.abs(A[p]![c]!) > 1e-12 * Math.max(1, scale))) return null;
+    [A[c], A[p]] = [A[p]!, A[c]!];
+    for (let r = 0; r < m; r++) {
+      if (r === c) continue;
+      const f = A[r]![c]! / A[c]![c]!;
+      for (let k = c; k <= m; k++) A[r]![k] = A[r]![k]! - f * A[c]![k]!;
+    }
+  }
+  return A.map((row, r) => row[m]! / row[r]!);
+}
