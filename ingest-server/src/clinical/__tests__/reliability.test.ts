@@ -35,7 +35,7 @@ describe("standardErrorOfMeasurement and minimalDetectableChange95", () => {
   });
 });
 
-describe("iccBand (Koo & Li 2016 cut-offs, DOMAIN.md §7 — from memory)", () => {
+describe("iccBand (Koo & Li 2016 cut-offs, DOMAIN.md re-checked values)", () => {
   it("places values on both sides of each cut-off", () => {
     expect(iccBand(0.49)).toBe("poor");
     expect(iccBand(0.5)).toBe("moderate");
