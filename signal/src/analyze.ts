@@ -188,7 +188,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   spatial.lengthsM.forEach((len, i) => {
     strides[i]!.strideLengthM = len;
   });
-  const speed = walkingSpeedFromStrides(strides);
+  const speed = walkingSpeedFromStrides(strides, spatial.rejected);
   if (speed.walkingSpeedMPerS === null && strides.length > 0) {
     quality.push({ code: "speed-unavailable", severity: "info", message: `walking speed and stride length not computed: ${speed.reason}` });
   }

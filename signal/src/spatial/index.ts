@@ -1,7 +1,20 @@
 export { sagittalPlaneSignals, type SagittalPlaneSignals } from "./sagittal-plane";
 export { leastRotationWindowCentre, MID_STANCE_WINDOW_S } from "./least-rotation-window";
-export { integrateSagittalStride, STANDARD_GRAVITY_M_S2, type PlaneVelocity, type SagittalStride } from "./integrate-sagittal-stride";
-export { shankPivotVelocity, SHANK_SENSOR_ABOVE_ANKLE_M } from "./shank-pivot-velocity";
+export {
+  integrateSagittalStride,
+  AT_REST,
+  STANDARD_GRAVITY_M_S2,
+  type PlaneVector,
+  type ResetState,
+  type SagittalStride,
+} from "./integrate-sagittal-stride";
+export {
+  shankPendulumReset,
+  shankSensorAboveAnkleM,
+  SHANK_LENGTH_PER_HEIGHT,
+  SHANK_SENSOR_FRACTION_ABOVE_ANKLE,
+  type PendulumReset,
+} from "./shank-pendulum";
 export { signedSagittalAxis } from "./signed-sagittal-axis";
 export {
   strideLengthsForSide,

@@ -1,8 +1,8 @@
 import type { Stride } from "../types";
-import { integrateSagittalStride, type PlaneVelocity } from "./integrate-sagittal-stride";
+import { AT_REST, integrateSagittalStride, type ResetState } from "./integrate-sagittal-stride";
 import { leastRotationWindowCentre, MID_STANCE_WINDOW_S } from "./least-rotation-window";
 import { sagittalPlaneSignals } from "./sagittal-plane";
-import { shankPivotVelocity, SHANK_SENSOR_ABOVE_ANKLE_M } from "./shank-pivot-velocity";
+import { shankPendulumReset } from "./shank-pendulum";
 
 /** One shank or foot sensor on the session grid, with its signed sagittal axis. */
 export interface SegmentSignals {
@@ -36,8 +36,9 @@ export interface StrideLengthResult {
 
 export interface StrideLengthOptions {
   sampleRateHz: number;
+  /** Standing height (cm); bounds a plausible stride. */
   heightCm?: number;
-  /** Shank sensor height above the ankle joint (m); default SHANK_SENSOR_ABOVE_ANKLE_M. */
+  /** Ankle-to-sensor distance (m); required for a shank (shankSensorAboveAnkleM(heightCm)). */
   shankSensorAboveAnkleM?: number;
 }
 
@@ -45,9 +46,11 @@ export interface StrideLengthOptions {
  * Stride length of each of one leg's strides from that leg's shank or foot sensor. Each stride is
  * integrated from the mid-stance that follows its IC to the mid-stance that follows the next IC (same
  * side): those two instants bracket the one swing of the stride, so the sensor's forward travel between
- * them is the stride's length. Mid-stance = centre of the 100 ms of least gyro energy between IC and the
- * same-side FC (Rampp et al. 2015). Reset velocity: zero for a foot (Mariani et al. 2010), the pendulum
- * velocity about the ankle for a shank (Li et al. 2010). On a treadmill the belt frame is inertial and
+ * them is the stride's length. Foot: mid-stance = centre of the 100 ms of least gyro energy between IC
+ * and the same-side FC (Rampp et al. 2015), where the foot is at rest (Mariani et al. 2010). Shank: the
+ * shank never stops in stance, so mid-stance is the middle of IC…FC, where the foot is flat and the shank
+ * turns about the ankle near vertical (Li et al. 2010), and the reset state is the pendulum's
+ * (shank-pendulum.ts). On a treadmill the belt frame is inertial and
  * the foot rests on the belt, so the result is belt speed × stride time, as overground.
  *
  * `strides` are this side's strides; `finalContactsS` this side's FCs (sorted). Results are in the
@@ -64,7 +67,8 @@ export function strideLengthsForSide(
   const plane = sagittalPlaneSignals(signals.accX, signals.accY, signals.accZ, signals.gyroX, signals.gyroY, signals.gyroZ, signals.axis);
   const windowSamples = Math.max(1, Math.round(MID_STANCE_WINDOW_S * fs));
   const half = Math.floor(windowSamples / 2);
-  const r = options.shankSensorAboveAnkleM ?? SHANK_SENSOR_ABOVE_ANKLE_M;
+  const r = options.shankSensorAboveAnkleM;
+  if (signals.segment === "shank" && !(r !== undefined && r > 0)) throw new RangeError("strideLengthsForSide: a shank needs shankSensorAboveAnkleM > 0");
   const maxLength = options.heightCm !== undefined ? Math.min(MAX_STRIDE_LENGTH_M, (MAX_STRIDE_LENGTH_PER_HEIGHT * options.heightCm) / 100) : MAX_STRIDE_LENGTH_M;
   const n = plane.omegaDegS.length;
 
@@ -74,7 +78,14 @@ export function strideLengthsForSide(
     if (fcS === null || !(fcS > icS)) return -1;
     const hit = resetCache.get(icS);
     if (hit !== undefined) return hit;
-    const c = leastRotationWindowCentre(signals.gyroX, signals.gyroY, signals.gyroZ, signals.valid, icS * fs, fcS * fs, windowSamples);
+    let c: number;
+    if (signals.segment === "foot") {
+      c = leastRotationWindowCentre(signals.gyroX, signals.gyroY, signals.gyroZ, signals.valid, icS * fs, fcS * fs, windowSamples);
+    } else {
+      c = Math.round(((icS + fcS) / 2) * fs);
+      if (c - half < 0 || c + half >= n) c = -1;
+      else for (let i = c - half; i <= c + half; i++) if (!signals.valid[i]) c = -1;
+    }
     resetCache.set(icS, c);
     return c;
   };
@@ -82,15 +93,24 @@ export function strideLengthsForSide(
     for (const fc of finalContactsS) if (fc > icS && fc < icS + withinS) return fc;
     return null;
   };
-  const velocityAt = (centre: number): PlaneVelocity => {
-    if (signals.segment === "foot") return { forwardMPerS: 0, upMPerS: 0 };
-    let w = 0;
+  const stateAt = (centre: number): ResetState => {
+    if (signals.segment === "foot") return AT_REST;
+    // Mean rate and least-squares slope of the rate over the reset window.
+    const deg = Math.PI / 180;
+    let sw = 0;
+    let stw = 0;
+    let stt = 0;
     let count = 0;
-    for (let i = Math.max(0, centre - half); i <= Math.min(n - 1, centre + half); i++) {
-      w += plane.omegaDegS[i]!;
+    for (let k = -half; k <= half; k++) {
+      const w = plane.omegaDegS[centre + k]! * deg;
+      const t = k / fs;
+      sw += w;
+      stw += t * w;
+      stt += t * t;
       count++;
     }
-    return shankPivotVelocity(w / count, r);
+    const alpha = stt > 0 ? stw / stt : 0;
+    return shankPendulumReset(sw / count, alpha, r!);
   };
 
   return strides.map((s): StrideLengthResult => {
@@ -100,7 +120,7 @@ export function strideLengthsForSide(
     const i1 = resetAfter(s.nextIcS, nextFc);
     if (i0 < 0 || i1 <= i0) return { strideLengthM: null, rejection: "no-reset", resetIndices: null };
     for (let i = i0; i <= i1; i++) if (!signals.valid[i]) return { strideLengthM: null, rejection: "invalid-data", resetIndices: [i0, i1] };
-    const out = integrateSagittalStride(plane, fs, i0, i1, velocityAt(i0), velocityAt(i1), half);
+    const out = integrateSagittalStride(plane, fs, i0, i1, stateAt(i0), stateAt(i1), half);
     if (Math.abs(out.angleDriftDeg) > MAX_ANGLE_DRIFT_DEG) return { strideLengthM: null, rejection: "angle-drift", resetIndices: [i0, i1] };
     if (!(out.strideLengthM > 0) || out.strideLengthM > maxLength) return { strideLengthM: null, rejection: "implausible", resetIndices: [i0, i1] };
     return { strideLengthM: out.strideLengthM, rejection: null, resetIndices: [i0, i1] };

@@ -15,9 +15,10 @@ export interface WalkingSpeed {
  * Session walking speed = Σ stride length / Σ stride time over the steady strides that have a length
  * (the same as mean stride length / mean stride time over those strides, so a long slow stride weighs
  * by its duration, as a timed walk would); stride length = their mean. Stride times are the analysis's
- * own (IC to next IC), so speed stays consistent with cadence and stride time.
+ * own (IC to next IC), so speed stays consistent with cadence and stride time. `rejected` (from
+ * sessionStrideLengths) only shapes the reason given when no speed can be reported.
  */
-export function walkingSpeedFromStrides(strides: readonly Stride[]): WalkingSpeed {
+export function walkingSpeedFromStrides(strides: readonly Stride[], rejected: Partial<Record<string, number>> = {}): WalkingSpeed {
   const steady = strides.filter((s) => s.steady);
   let lengthSum = 0;
   let timeSum = 0;
@@ -33,7 +34,9 @@ export function walkingSpeedFromStrides(strides: readonly Stride[]): WalkingSpee
     const reason =
       steady.length === 0
         ? "no steady strides"
-        : `only ${count} of ${steady.length} steady strides had a measurable length (at least ${MIN_STRIDES_FOR_SPEED} needed)`;
+        : (rejected["no-height"] ?? 0) > 0 && count === 0
+          ? "height not recorded: the shank method needs it for the ankle-to-sensor distance (a foot sensor needs none)"
+          : `only ${count} of ${steady.length} steady strides had a measurable length (at least ${MIN_STRIDES_FOR_SPEED} needed)`;
     return { walkingSpeedMPerS: null, strideLengthM: null, strideCount: count, reason };
   }
   return { walkingSpeedMPerS: lengthSum / timeSum, strideLengthM: lengthSum / count, strideCount: count, reason: null };
