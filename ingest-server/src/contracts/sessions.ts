@@ -53,8 +53,8 @@ export type SessionSummary = z.infer<typeof sessionSummary>;
 export const sessionDetail = sessionSummary.extend({
   files: z.array(sessionFile),
   analysis: analysisSchema.optional(),
-  /** Per stored metric key (session_metrics), the strides/steps its value rests on, when known. */
-  metricCounts: z.record(z.string(), z.number().int()).optional(),
+  /** Per stored metric key (session_metrics), how many strides/steps/arm cycles its value rests on, when known. */
+  metricCounts: z.record(z.string(), z.object({ n: z.number().int(), countNoun: z.string() })).optional(),
 });
 export type SessionDetail = z.infer<typeof sessionDetail>;
 

@@ -5,6 +5,7 @@ import type { SessionDetail, SessionSummary, SessionUpdate, SignalResponse } fro
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
+import { metricDefinition } from "../../metrics/metric-catalog";
 import { minMaxDecimate } from "../../processing/min-max-decimate";
 import { enqueueProcessing } from "./upload.service";
 import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
@@ -90,7 +91,11 @@ export async function getSessionJson(
     s.status === "done" ? sessionAnalysis(deps.db, id) : Promise.resolve(null),
   ]);
   const metrics = Object.fromEntries(metricRows.map((m) => [m.metric_key as string, Number(m.value)]));
-  const metricCounts = Object.fromEntries(metricRows.filter((m) => m.n !== null && m.n !== undefined).map((m) => [m.metric_key as string, Number(m.n)]));
+  const metricCounts = Object.fromEntries(
+    metricRows
+      .filter((m) => m.n !== null && m.n !== undefined)
+      .map((m) => [m.metric_key as string, { n: Number(m.n), countNoun: metricDefinition(m.metric_key)?.countNoun ?? "strides" }]),
+  );
   const detail: SessionDetail = {
     ...toSummary(s, metrics),
     files: files.map((f) => ({

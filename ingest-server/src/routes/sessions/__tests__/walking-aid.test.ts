@@ -75,6 +75,6 @@ describe("GET /api/sessions/:id counts", () => {
   it("gives, per stored metric, the strides or steps its value rests on", async () => {
     const res = await request(ctx.app).get(`/api/sessions/${sessionId}`).set(as(patient));
     expect(res.status).toBe(200);
-    expect(res.body.metricCounts).toEqual({ cadenceStepsPerMin: 31 });
+    expect(res.body.metricCounts).toEqual({ cadenceStepsPerMin: { n: 31, countNoun: "strides" } });
   });
 });
