@@ -4,7 +4,7 @@ import { detectCoordinationEvents, type CoordinationEvent } from "./coordination
 import { CLINICAL_CAUTIONS } from "./cautions";
 import { bandNote, bandsFor, type BandPopulation } from "./reference-bands";
 import { gatePhaseSeries } from "./phase-gate";
-import type { Baseline, Mdc } from "./reliability";
+import { importantChangeFor, type Baseline, type ImportantChange, type Mdc } from "./reliability";
 import type { MetricDirection } from "./metric-catalog";
 
 export interface TrendPointInput {
@@ -56,6 +56,8 @@ export interface AnnotatedMetric {
   bands: BandOut[];
   /** Why no band is shown ("No published band for this patient…"); null when bands are shown. */
   bandNote: string | null;
+  /** A published clinically important change for this condition, for interpretation beside the MDC; not used for flags. */
+  importantChange: ImportantChange | null;
 }
 
 export interface AnnotatedTrends {
@@ -100,6 +102,7 @@ export function annotateTrends(input: AnnotateTrendsInput): AnnotatedTrends {
         citation: `${band.citation}, ${band.location}`,
       })),
       bandNote: bandNote(m.key, { age, condition: patient.condition }),
+      importantChange: importantChangeFor(m.key, patient.condition),
     };
   });
   const events = detectCoordinationEvents(gated, {

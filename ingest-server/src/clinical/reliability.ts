@@ -219,3 +219,53 @@ export function resolveMdc(metricKey: string, condition: string, baseline: Basel
   }
   return published ?? own;
 }
+
+/**
+ * Published clinically important changes: how large a change patients or disability scales notice.
+ * Shown beside the MDC for interpretation only; flags use the MDC alone. A change can exceed the
+ * MDC (probably real) and still be smaller than these (perhaps not important), or the reverse.
+ */
+export interface ImportantChange {
+  id: string;
+  metric: BaseMetric;
+  condition: string;
+  /** The published thresholds in the metric's unit, smallest first, with their meaning. */
+  thresholds: readonly { value: number; meaning: string }[];
+  population: string;
+  method: string;
+  citation: string;
+  location: string;
+}
+
+export const PUBLISHED_IMPORTANT_CHANGE: readonly ImportantChange[] = [
+  {
+    id: "speed-mcid-subacute-stroke-tilson-2010",
+    metric: "walkingSpeedMPerS",
+    condition: "stroke",
+    thresholds: [{ value: 0.16, meaning: "minimal clinically important difference" }],
+    population:
+      "first-time stroke, 20 to 60 days after onset, with severe gait-speed impairment (mean comfortable speed 0.18 m/s at 20 days, 0.39 m/s at 60 days; n = 283); other stages of stroke were not studied",
+    method: "comfortable gait speed anchored to a 1-point improvement of the modified Rankin Scale",
+    citation: "Tilson et al. 2010, Phys Ther 90:196",
+    location: "abstract (results)",
+  },
+  {
+    id: "speed-important-pd-hass-2014",
+    metric: "walkingSpeedMPerS",
+    condition: "parkinsons",
+    thresholds: [
+      { value: 0.06, meaning: "small important difference" },
+      { value: 0.14, meaning: "moderate important difference" },
+      { value: 0.22, meaning: "large important difference" },
+    ],
+    population: "people with idiopathic Parkinson's disease on medication, a range of disease stages (n = 324)",
+    method: "distribution-based effect sizes, gait speed on an instrumented walkway",
+    citation: "Hass et al. 2014, J Neurol Phys Ther 38:233",
+    location: "abstract (results)",
+  },
+];
+
+export function importantChangeFor(metricKey: string, condition: string): ImportantChange | null {
+  const base = resolveMetricKey(metricKey)?.base;
+  return PUBLISHED_IMPORTANT_CHANGE.find((c) => c.metric === base && c.condition === condition) ?? null;
+}

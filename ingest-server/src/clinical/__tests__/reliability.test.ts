@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import fixtures from "./fixtures/reliability-fixtures.json";
 import {
   MDC95_FACTOR,
+  importantChangeFor,
   PATIENT_BASELINE_CITATION,
   iccBand,
   minimalDetectableChange95,
@@ -128,5 +129,15 @@ describe("resolveMdc", () => {
   it("gives no MDC without a baseline or with a zero baseline SD", () => {
     expect(resolveMdc("strideTimeCvPct", "stroke", null)).toBeNull();
     expect(resolveMdc("strideTimeCvPct", "stroke", { mean: 2, sd: 0, n: 3 })).toBeNull();
+  });
+});
+
+describe("importantChangeFor (interpretation only, never a flag threshold)", () => {
+  it("gives the subacute-stroke MCID 0.16 m/s (Tilson 2010) and the PD small/moderate/large 0.06/0.14/0.22 m/s (Hass 2014)", () => {
+    expect(importantChangeFor("walkingSpeedMPerS", "stroke")?.thresholds.map((t) => t.value)).toEqual([0.16]);
+    expect(importantChangeFor("walkingSpeedMPerS", "stroke")?.population).toMatch(/20 to 60 days/);
+    expect(importantChangeFor("walkingSpeedMPerS", "parkinsons")?.thresholds.map((t) => t.value)).toEqual([0.06, 0.14, 0.22]);
+    expect(importantChangeFor("walkingSpeedMPerS", "incomplete_sci")).toBeNull();
+    expect(importantChangeFor("cadenceStepsPerMin", "stroke")).toBeNull();
   });
 });

@@ -5,7 +5,7 @@ import { CLINICAL_CAUTIONS } from "../cautions";
 import { METRIC_INFO } from "../metric-catalog";
 import { changeAlertMail, digestMail, reminderMail } from "../notifications/messages";
 import { REFERENCE_BANDS } from "../reference-bands";
-import { PUBLISHED_MDC } from "../reliability";
+import { PUBLISHED_IMPORTANT_CHANGE, PUBLISHED_MDC } from "../reliability";
 import { weekly } from "./helpers";
 
 // Text that would tell a clinician a value is unsourced must never reach them.
@@ -46,6 +46,7 @@ describe("no user-facing text says a value is unconfirmed", () => {
     const texts = [
       JSON.stringify(REFERENCE_BANDS),
       JSON.stringify(PUBLISHED_MDC),
+      JSON.stringify(PUBLISHED_IMPORTANT_CHANGE),
       JSON.stringify(METRIC_INFO),
       ...CLINICAL_CAUTIONS,
       ...Object.values(reminderMail("https://pendula.example")),
