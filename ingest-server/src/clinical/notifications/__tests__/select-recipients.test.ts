@@ -36,7 +36,8 @@ describe("alerts", () => {
     metrics: [
       // Baseline [2.1, 2.3, 2.2] → MDC 0.277; s4 is worsened, s5 within error.
       { key: "strideTimeCvPct", unit: "%", points: weekly([2.1, 2.3, 2.2, 3.0, 2.3, 2.2]) },
-      { key: "cadenceStepsPerMin", unit: "/min", points: weekly([90, 92, 91, 91, 91, 120]) },
+      // Cadence steady through the 2:1 → 1:1 switch, so the pace does not explain it and it is an event.
+      { key: "cadenceStepsPerMin", unit: "/min", points: weekly([90, 92, 91, 91, 91, 91]) },
       { key: "armLegRightArmLeftLegFrequencyRatio", unit: "1", points: weekly([2, 2, 2, 2, 1, 1]) },
     ],
   });
@@ -54,7 +55,11 @@ describe("alerts", () => {
 
   it("does not alert for an improvement alone", () => {
     // s6 cadence 120 is far above baseline (improved) — only the mode change makes s6 alert-worthy.
-    const cadenceOnly = annotateTrends({ patient, metrics: [trends.metrics[1]!] });
+    const cadenceOnly = annotateTrends({
+      patient,
+      metrics: [{ key: "cadenceStepsPerMin", unit: "/min", points: weekly([90, 92, 91, 91, 91, 120]) }],
+    });
+    expect(cadenceOnly.metrics[0]!.points[5]!.flag).toBe("improved");
     expect(alertReasons(cadenceOnly, "s6")).toEqual({ worsenedMetrics: [], eventKinds: [] });
     expect(selectChangeAlerts(alertReasons(cadenceOnly, "s6"), clinicians, { sessionId: "s6", patientId: "p1" }, URL)).toEqual([]);
   });
