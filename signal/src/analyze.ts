@@ -113,6 +113,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
 
   // Events per leg.
   const legs: Partial<Record<Side, LegSignal>> = {};
+  const unreliableSides: Side[] = [];
   for (const side of ["left", "right"] as const) {
     const placement = legPlacement(side);
     if (!placement) continue;
@@ -126,6 +127,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
     const isFoot = placement.endsWith("_foot");
     const swingAxis = isFoot ? null : shankSwingAxisCheck(s.accX, s.accY, s.accZ, axis.axis, mask);
     if (swingAxis && !swingAxis.plausible) {
+      unreliableSides.push(side);
       quality.push({
         code: "misalignment",
         severity: "warning",
@@ -163,7 +165,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   }
 
   // Strides: per-leg checks, then the session-relative steady-state gate (gait/strides.ts).
-  const strides = buildSessionStrides(legs.left?.events ?? null, legs.right?.events ?? null, { bouts, turns, invalidSpans, gapSpans });
+  const strides = buildSessionStrides(legs.left?.events ?? null, legs.right?.events ?? null, { bouts, turns, invalidSpans, gapSpans, unreliableSides });
   const excludedItem = describeExcludedStrides(strides);
   if (excludedItem) quality.push({ code: "strides-excluded", severity: "info", message: excludedItem });
   const order = strides.filter((s) => s.excludedReason === "event-order").length;

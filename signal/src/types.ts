@@ -91,7 +91,7 @@ export interface Stride {
   /** Included in the steady-state metrics (not near a turn, not first/last of a bout, no gap). */
   steady: boolean;
   /** Why a stride was left out of the steady-state set, when it was. */
-  excludedReason?: "bout-edge" | "turn" | "invalid-span" | "out-of-range" | "event-order" | "gap" | "unsteady";
+  excludedReason?: "bout-edge" | "turn" | "invalid-span" | "out-of-range" | "event-order" | "gap" | "unsteady" | "unreliable-sensor";
   /** Stride length (m) for this stride when a spatial method could compute it. */
   strideLengthM?: number | null;
   /** Index of the continuous walking bout (0-based) the stride lies in; -1 when in none. */

@@ -11,6 +11,7 @@ const REASON_TEXT: Record<Reason, string> = {
   turn: "near a turn",
   gap: "across a short data gap",
   "invalid-span": "across missing data",
+  "unreliable-sensor": "from a sensor flagged unreliable",
 };
 
 /** Counts of left-out strides by reason (only reasons that occur). */

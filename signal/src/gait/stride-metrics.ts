@@ -38,7 +38,9 @@ function byBout(strides: readonly Stride[], pick: (s: Stride) => number | null |
 
 /**
  * Temporal metrics over steady-state strides (definitions in DOMAIN.md §3, Mobilise-D protocol):
- * cadence = 60 / mean step time (steps of both sides pooled); stride time mean (both legs pooled);
+ * cadence = 60 / mean step time (steps of both sides pooled; 120 / mean stride time when only one
+ * leg's events are usable, and then `counts.cadenceStepsPerMin` counts strides); stride time mean
+ * (both legs pooled);
  * stride-time CV and swing-time CV (per side) as the pooled within-bout SD over the grand mean
  * (pooled-variability.ts; SD with n − 1 within each bout), so a change of pace between bouts does
  * not count as variability; step time, stance % and swing % per side (means over strides);
@@ -69,9 +71,13 @@ export function strideMetrics(strides: readonly Stride[]): StrideMetrics {
   const stepTimeMeanS = { left: mean(stepL), right: mean(stepR) };
   const ga = gaitAsymmetryPct(swingTimeMeanS.left, swingTimeMeanS.right);
   const sta = stepTimeAsymmetryPct(stepTimeMeanS.left, stepTimeMeanS.right);
+  // With one leg's events only (the other sensor unreliable or missing) there are no steps; cadence
+  // then comes from the stride time, 120 / mean stride (DOMAIN.md §3), and its count is strides.
+  const strideMean = mean(strideTimes);
+  const cadence = stepMean !== null ? 60 / stepMean : strideMean !== null ? 120 / strideMean : null;
   return {
     steadyStrideCount: steady.length,
-    cadenceStepsPerMin: stepMean === null ? null : 60 / stepMean,
+    cadenceStepsPerMin: cadence,
     strideTimeMeanS: mean(strideTimes),
     strideTimeCvPct: strideCv.cvPct,
     stepTimeMeanS,
@@ -84,7 +90,7 @@ export function strideMetrics(strides: readonly Stride[]): StrideMetrics {
     stepTimeAsymmetryPct: sta,
     counts: {
       steadyStrideCount: steady.length,
-      cadenceStepsPerMin: steps.length,
+      cadenceStepsPerMin: stepMean !== null ? steps.length : strideTimes.length,
       strideTimeMeanS: strideTimes.length,
       strideTimeCvPct: strideCv.count,
       stepTimeMeanSLeft: stepL.length,

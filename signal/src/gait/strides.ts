@@ -27,6 +27,11 @@ export interface StrideContext {
   invalidSpans: readonly Bout[];
   /** Short gaps that were interpolated (≤ 150 ms): strides across them are reported, not measured. */
   gapSpans?: readonly Bout[];
+  /**
+   * Legs whose sensor the quality checks called unreliable (e.g. a loose strap): their strides are
+   * reported as "unreliable-sensor" and their events are not used to check the other leg's.
+   */
+  unreliableSides?: readonly Side[];
 }
 
 const overlaps = (a0: number, a1: number, b: Bout, margin = 0) => a0 < b.endS + margin && a1 > b.startS - margin;
@@ -122,13 +127,22 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
 
 /**
  * Both legs' strides of a session, in time order, with the full steady-state decision: buildStrides
- * per side, then `gateSteadyStateInPlace`.
+ * per side, then `gateSteadyStateInPlace`. A leg in `ctx.unreliableSides` keeps its strides in the
+ * list (reason "unreliable-sensor") but lends no events to the other leg's checks, so the reliable
+ * leg is measured on its own events (stride, stance and swing; no step time or double support).
  */
 export function buildSessionStrides(left: LegEvents | null, right: LegEvents | null, ctx: StrideContext): Stride[] {
+  const unreliable = new Set(ctx.unreliableSides ?? []);
+  const trusted = (side: Side, ev: LegEvents | null) => (unreliable.has(side) ? null : ev);
   const strides = [
-    ...(left ? buildStrides("left", left, right, ctx) : []),
-    ...(right ? buildStrides("right", right, left, ctx) : []),
+    ...(left ? buildStrides("left", left, trusted("right", right), ctx) : []),
+    ...(right ? buildStrides("right", right, trusted("left", left), ctx) : []),
   ];
+  for (const s of strides) {
+    if (!unreliable.has(s.side)) continue;
+    s.steady = false;
+    s.excludedReason = "unreliable-sensor";
+  }
   strides.sort((a, b) => a.icS - b.icS || (a.side === "left" ? -1 : 1));
   gateSteadyStateInPlace(strides);
   return strides;
