@@ -14,4 +14,4 @@ export {
 export { synthesizeSessionText } from "./synthesize-session-text";
 export { createPrng, type Prng } from "./prng";
 export { sensorCsvText, type SensorCsvHeader } from "./sensor-csv-text";
-export type * from "./kinematic";
+export * from "./kinematic";

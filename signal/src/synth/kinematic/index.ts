@@ -17,3 +17,4 @@ export type {
   SynthesizeKinematicSession,
   WristWear,
 } from "./types";
+export { synthesizeKinematicSession } from "./synthesize-kinematic-session";
