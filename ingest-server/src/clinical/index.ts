@@ -1,5 +1,6 @@
 export * from "./annotate-trends";
 export * from "./adherence";
+export * from "./caseload-flags";
 export * from "./cautions";
 export * from "./change-flags";
 export * from "./coordination-events";

@@ -1,7 +1,7 @@
 import type { Request } from "express";
 import { audit, auditRow } from "../../audit/audit";
 import { assertPatientAccess, clinicalPatientScope } from "../../auth/patient-access";
-import { annotateTrends, computeAdherence } from "../../clinical";
+import { annotateTrends, computeAdherence, orderCaseloadFlags } from "../../clinical";
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
@@ -106,10 +106,11 @@ function latestSessionFlags(p: PatientRow, rows: Awaited<ReturnType<typeof trend
     if (last && last.sessionId === latestSessionId && (last.flag === "improved" || last.flag === "worsened")) out.push({ metricKey: m.key, flag: last.flag });
   }
   for (const e of annotated.events) if (e.sessionId === latestSessionId) out.push({ metricKey: e.metricKey, flag: e.kind });
-  return out;
+  // Named in words with a severity, most urgent first (clinical/caseload-flags.ts).
+  return orderCaseloadFlags(out);
 }
 
-export type CaseloadFlags = Array<{ metricKey: string; flag: string }>;
+export type CaseloadFlags = Array<{ metricKey: string; flag: string; kind?: string; label?: string; severity?: number }>;
 
 /** Adherence looks at the last four ended weeks; eight weeks of dates cover them and the current one. */
 const ADHERENCE_DATES_WINDOW_MS = 8 * 7 * 86_400_000;
