@@ -1,4 +1,4 @@
-// `npm run --silent analyze -- <file>... [--json]` from the repository root. Reads sensor CSV v1
+// `npm run --silent analyze -- <file>... [--json] [--height-cm N]` from the repository root. Reads sensor CSV v1
 // files and BIDS Motion `*_motion.tsv` files (sidecars found beside them), prints a table or one
 // JSON object. Exit 0 on success, 2 with a one-line reason on stderr for bad input.
 import { readFileSync, statSync } from "node:fs";
@@ -8,9 +8,8 @@ import { MAX_SENSOR_FILE_CHARS, readSensorCsv } from "./io/read-sensor-csv";
 import { bidsSidecarNames, readBidsMotion } from "./io/read-bids-motion";
 import { sniffFormat } from "./io/sniff";
 import { formatAnalysisTable } from "./format-table";
+import { parseCliArgs, UsageError } from "./cli-args";
 import { type SensorRecording, SignalInputError } from "./types";
-
-class UsageError extends Error {}
 
 function readText(path: string): string {
   let size: number;
@@ -56,14 +55,10 @@ export function loadRecordings(paths: readonly string[]): SensorRecording[] {
 }
 
 function main(argv: string[]): number {
-  const json = argv.includes("--json");
-  const files = argv.filter((a) => a !== "--json");
-  const unknownFlag = files.find((f) => f.startsWith("--"));
   try {
-    if (unknownFlag) throw new UsageError(`unknown option ${unknownFlag} (usage: analyze <file>... [--json])`);
-    if (files.length === 0) throw new UsageError("usage: analyze <file>... [--json]");
-    const analysis = analyze(loadRecordings(files));
-    process.stdout.write(json ? JSON.stringify(analysis) + "\n" : formatAnalysisTable(analysis));
+    const args = parseCliArgs(argv);
+    const analysis = analyze(loadRecordings(args.files), args.heightCm === undefined ? {} : { heightCm: args.heightCm });
+    process.stdout.write(args.json ? JSON.stringify(analysis) + "\n" : formatAnalysisTable(analysis));
     return 0;
   } catch (e) {
     if (e instanceof SignalInputError || e instanceof UsageError) {
