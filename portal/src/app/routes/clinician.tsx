@@ -49,7 +49,7 @@ export function clinicianRoutes(queryClient: QueryClient): RouteObject[] {
     {
       path: "sessions/:sessionId",
       lazy: async () => {
-        const [review, notes] = await Promise.all([import("@/features/session-review"), import("@/features/notes")]);
+        const [review, notes, trends] = await Promise.all([import("@/features/session-review"), import("@/features/notes"), import("@/features/patient-trends")]);
         return {
           loader: async ({ params }: LoaderFunctionArgs) => {
             await queryClient.ensureQueryData(review.sessionQueryOptions(params.sessionId!));
@@ -60,6 +60,8 @@ export function clinicianRoutes(queryClient: QueryClient): RouteObject[] {
             return (
               <review.SessionPage
                 sessionId={id}
+                // The walking aid shows on the patient's trends too; refetch them with the new value.
+                onWalkingAidSaved={(patientId) => void queryClient.invalidateQueries({ queryKey: trends.trendsKeys.patient(patientId) })}
                 notePanel={(patientId) => (
                   <section className="card mb-8 p-4" aria-label="Write a note about this session">
                     <notes.NoteForm patientId={patientId} sessionId={id} />

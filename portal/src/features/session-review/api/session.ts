@@ -1,7 +1,8 @@
-import { queryOptions, useQuery, useSuspenseQuery } from "@tanstack/react-query";
+import { queryOptions, useMutation, useQuery, useQueryClient, useSuspenseQuery } from "@tanstack/react-query";
 import { z } from "zod";
 import type { Analysis } from "@pendula/signal";
-import { api } from "@/lib/api-client";
+import { api, request } from "@/lib/api-client";
+import { WALKING_AIDS, sessionUpdate, sessionUpdateResponse, type SessionUpdate } from "@pendula/ingest-server/contracts";
 
 // ingest-server/src/contracts/sessions.ts (`sessionDetail`, `signalResponse`), copied because the
 // contracts index does not re-export them yet. The analysis is signal's own `Analysis` object.
@@ -16,6 +17,9 @@ export const sessionDetailSchema = z.object({
   algorithmVersion: z.string().nullish(),
   error: z.string().nullish(),
   files: z.array(z.object({ placement: z.string(), deviceSerial: z.string().optional(), originalName: z.string().optional() })).optional(),
+  walkingAid: z.enum(WALKING_AIDS).nullish(),
+  /** Per metric key: how many strides/steps/arm cycles the value rests on, and which of them. */
+  metricCounts: z.record(z.string(), z.object({ n: z.number(), countNoun: z.string() })).optional(),
   analysis: z.custom<Analysis>((v) => typeof v === "object" && v !== null && "metrics" in v && "events" in v).optional(),
 });
 export type SessionDetail = z.infer<typeof sessionDetailSchema>;
@@ -56,4 +60,20 @@ export const signalQueryOptions = (id: string, placement: string) =>
   });
 
 export const useSession = (id: string) => useSuspenseQuery(sessionQueryOptions(id));
+
+export { sessionUpdate, type SessionUpdate };
+
+/** PATCH /api/sessions/:id (ingest-server/src/contracts/sessions.ts `sessionUpdate`): the walking aid of this test. */
+export const updateSession = (id: string, input: SessionUpdate) =>
+  request(`/sessions/${enc(id)}`, { method: "PATCH", body: input, schema: sessionUpdateResponse });
+
+/** Saves the walking aid; the session answer is refetched, and `onSaved` lets the route refresh other screens' data. */
+export function useUpdateSession(id: string, onSaved?: () => void) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: SessionUpdate) => updateSession(id, input),
+    onSuccess: () => onSaved?.(),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: sessionKeys.detail(id) }),
+  });
+}
 export const useSignal = (id: string, placement: string, enabled: boolean) => useQuery({ ...signalQueryOptions(id, placement), enabled });

@@ -6,6 +6,9 @@ import { Badge, Button, EmptyState, ErrorState, LoadingState, PageHeader, Sectio
 import { useQueries } from "@tanstack/react-query";
 import { signalQueryOptions, useSession } from "../api/session";
 import { SignalChart, type Trace } from "./signal-chart";
+import { ArmSwingSummary, CouplingCard, MetricsGrid, type MetricCounts } from "./metric-summary";
+import { qualityLabel, WALKING_AID_LABEL } from "./quality-labels";
+import { WalkingAidEditor } from "./walking-aid-editor";
 
 const PLACE_LABEL: Record<string, string> = {
   left_shank: "Left shank",
@@ -31,35 +34,11 @@ const EXCLUDED_WORDS: Record<string, string> = {
   "invalid-span": "crosses a gap",
   "out-of-range": "implausible duration",
   "event-order": "events out of order",
+  gap: "crosses a data gap",
+  unsteady: "not steady walking",
 };
 
 const f = (v: number | null | undefined, d = 1, unit = "") => (typeof v === "number" && Number.isFinite(v) ? `${v.toFixed(d)}${unit}` : "—");
-
-function MetricsGrid({ a }: { a: Analysis }) {
-  const m = a.metrics;
-  const items: [string, string][] = [
-    ["Cadence", f(m.cadenceStepsPerMin, 1, " steps/min")],
-    ["Stride time (mean)", f(m.strideTimeMeanS, 3, " s")],
-    ["Stride-time CV", f(m.strideTimeCvPct, 2, " %")],
-    ["Stance L / R", `${f(m.stancePct.left, 1, " %")} / ${f(m.stancePct.right, 1, " %")}`],
-    ["Double support", f(m.doubleSupportPct, 1, " %")],
-    ["PCI", f(m.phaseCoordinationIndexPct, 1, " %")],
-    ["Gait asymmetry", f(m.gaitAsymmetryPct, 1, " %")],
-    ["Steady strides", String(m.steadyStrideCount)],
-    ["Arm–leg ratio (LA–RL / RA–LL)", `${f(m.armLeg.leftArmRightLeg.frequencyRatio, 2)} / ${f(m.armLeg.rightArmLeftLeg.frequencyRatio, 2)}`],
-    ["Coupling R (LA–RL / RA–LL)", `${f(m.armLeg.leftArmRightLeg.couplingStrength, 2)} / ${f(m.armLeg.rightArmLeftLeg.couplingStrength, 2)}`],
-  ];
-  return (
-    <dl className="grid gap-2 sm:grid-cols-3 lg:grid-cols-5">
-      {items.map(([k, v]) => (
-        <div key={k} className="rounded-lg border border-line bg-paper p-2.5">
-          <dt className="text-xs text-ink-soft">{k}</dt>
-          <dd className="tabular font-bold">{v}</dd>
-        </div>
-      ))}
-    </dl>
-  );
-}
 
 function SignalSection({ sessionId, analysis }: { sessionId: string; analysis: Analysis }) {
   const available = analysis.session.placements;
@@ -176,11 +155,14 @@ function QualityList({ a }: { a: Analysis }) {
           {a.quality.map((q, i) => (
             <li key={`${q.code}-${i}`} className="flex flex-wrap items-start gap-2 p-3">
               <Badge tone={q.severity === "error" ? "alert" : q.severity === "warning" ? "caution" : "info"}>{q.severity}</Badge>
-              <span className="font-mono text-xs text-ink-soft">{q.code}</span>
-              <span className="flex-1">
-                {q.message}
-                {q.placement ? ` (${PLACE_LABEL[q.placement] ?? q.placement})` : ""}
+              <span className="flex flex-1 flex-col">
+                <span className="font-semibold">
+                  {qualityLabel(q.code)}
+                  {q.placement ? ` (${PLACE_LABEL[q.placement] ?? q.placement})` : ""}
+                </span>
+                <span>{q.message}</span>
               </span>
+              <span className="font-mono text-xs text-ink-soft">{q.code}</span>
             </li>
           ))}
         </ul>
@@ -189,7 +171,30 @@ function QualityList({ a }: { a: Analysis }) {
   );
 }
 
-export function SessionPage({ sessionId, notePanel }: { sessionId: string; notePanel?: (patientId: string) => ReactNode }) {
+function CouplingSection({ a, counts }: { a: Analysis; counts?: MetricCounts }) {
+  return (
+    <Section
+      title="Arm swing and arm–leg coordination"
+      id="arms"
+      description="Arm swing is the sagittal range of motion per arm cycle. The relative phase of an arm and the opposite leg is shown only with its coupling strength R; when the locking is too weak for a phase to mean much, the analysis withholds it and says why."
+    >
+      <ArmSwingSummary a={a} counts={counts} />
+      <div className="mt-3 grid gap-3 sm:grid-cols-2">
+        <CouplingCard title="Left arm – right leg" c={a.metrics.armLeg.leftArmRightLeg} />
+        <CouplingCard title="Right arm – left leg" c={a.metrics.armLeg.rightArmLeftLeg} />
+      </div>
+    </Section>
+  );
+}
+
+export interface SessionPageProps {
+  sessionId: string;
+  notePanel?: (patientId: string) => ReactNode;
+  /** Called after the walking aid is saved (the route refreshes the patient's trends with it). */
+  onWalkingAidSaved?: (patientId: string) => void;
+}
+
+export function SessionPage({ sessionId, notePanel, onWalkingAidSaved }: SessionPageProps) {
   const { data: s } = useSession(sessionId);
   const when = new Date(s.recordedAt).toLocaleString(undefined, { dateStyle: "full", timeStyle: "short" });
   return (
@@ -211,6 +216,10 @@ export function SessionPage({ sessionId, notePanel }: { sessionId: string; noteP
         {s.durationS ? `${Math.round(s.durationS)} s recorded.` : ""}
       </PageHeader>
       <p className="print-only mb-4 text-sm">Session report printed {new Date().toLocaleString()}. Pendula supports clinical judgement; it does not diagnose.</p>
+      <p className="print-only mb-4 text-sm">Walking aid: {s.walkingAid ? (WALKING_AID_LABEL[s.walkingAid] ?? s.walkingAid) : "not recorded"}.</p>
+      <div className="card mb-6 p-4">
+        <WalkingAidEditor sessionId={s.id} current={s.walkingAid} onSaved={onWalkingAidSaved ? () => onWalkingAidSaved(s.patientId) : undefined} />
+      </div>
 
       {s.status === "failed" ? (
         <ErrorState title="Processing failed" error={new Error(s.error ?? "The worker reported no reason.")} />
@@ -218,9 +227,14 @@ export function SessionPage({ sessionId, notePanel }: { sessionId: string; noteP
         <EmptyState title={s.status === "queued" ? "Waiting to be processed" : "Being processed"}>Results appear here when the analysis has finished.</EmptyState>
       ) : (
         <>
-          <Section title="Summary" id="summary">
-            <MetricsGrid a={s.analysis} />
+          <Section
+            title="Summary"
+            id="summary"
+            description="Means over the steady strides, each with the number of strides or steps behind it. A value from few strides varies more from week to week; read it with the recording and the patient, not alone."
+          >
+            <MetricsGrid a={s.analysis} counts={s.metricCounts} />
           </Section>
+          <CouplingSection a={s.analysis} counts={s.metricCounts} />
           <SignalSection sessionId={s.id} analysis={s.analysis} />
           <QualityList a={s.analysis} />
           <StrideTable a={s.analysis} />

@@ -1,0 +1,148 @@
+import { screen, waitFor, within } from "@testing-library/react";
+import { Suspense } from "react";
+import { afterEach, describe, expect, it, vi } from "vitest";
+import type { Analysis } from "@pendula/signal";
+import { mockApi } from "@/testing/mock-api";
+import { renderWithProviders } from "@/testing/render";
+import { SessionPage } from "../components/session-page";
+
+const SID = "2f6b8a1e-4c3d-4e5f-8a9b-0c1d2e3f4a5b";
+const PID = "5a0c7f0e-2b9d-4b59-9d7e-6a1f3c2b9e01";
+
+// An analysis object as the worker stores it. Speed is stride length / stride time (1.21 m / 1.1 s
+// = 1.10 m/s, a kinematic identity on the stride-time check value of DOMAIN.md).
+function analysis(): Analysis {
+  return {
+    session: { startUtc: "2026-10-06T09:00:00.000Z", durationS: 100, sampleRateHz: 100, placements: ["left_shank", "right_shank", "left_wrist", "right_wrist"] },
+    events: { left: { initialContacts: [], finalContacts: [] }, right: { initialContacts: [], finalContacts: [] } },
+    strides: [],
+    bouts: [],
+    turns: [],
+    invalidSpans: [],
+    metrics: {
+      steadyStrideCount: 36,
+      cadenceStepsPerMin: 109.1,
+      strideTimeMeanS: 1.1,
+      strideTimeCvPct: 2.4,
+      stepTimeMeanS: { left: 0.55, right: 0.55 },
+      stancePct: { left: 60, right: 61 },
+      swingPct: { left: 40, right: 39 },
+      doubleSupportPct: 21,
+      phaseCoordinationIndexPct: 5.2,
+      gaitAsymmetryPct: 2.5,
+      dfaAlpha: null,
+      dfaAlphaReason: "fewer than 256 strides",
+      walkingSpeedMPerS: 1.21 / 1.1,
+      strideLengthM: 1.21,
+      walkingSpeedReason: null,
+      swingTimeCvPct: { left: 3.1, right: 3.9 },
+      stepTimeAsymmetryPct: 4.2,
+      armSwing: { left: { amplitudeDeg: 31.5 }, right: { amplitudeDeg: 12 }, asymmetryPct: 89.6 },
+      armSwingReason: null,
+      counts: { walkingSpeedMPerS: 36 },
+      armLeg: {
+        leftArmRightLeg: { frequencyRatio: 1, meanRelativePhaseDeg: -20, couplingStrength: 0.8, circularSdDeg: 38 },
+        rightArmLeftLeg: { frequencyRatio: 1.45, meanRelativePhaseDeg: null, couplingStrength: 0.12, circularSdDeg: null, reason: "coupling too weak for a meaningful phase" },
+      },
+    },
+    quality: [
+      { code: "speed-unavailable", severity: "info", message: "no height entered for the stride-length scaling" },
+      { code: "placement-swap", severity: "warning", placement: "left_wrist", message: "left and right wrist signals look exchanged" },
+    ],
+    algorithm: { version: "1.1.0" },
+  };
+}
+
+function server(extra: Parameters<typeof mockApi>[0] = {}) {
+  return mockApi({
+    [`GET /api/sessions/${SID}`]: {
+      body: {
+        id: SID,
+        patientId: PID,
+        status: "done",
+        recordedAt: "2026-10-06T09:00:00.000Z",
+        durationS: 100,
+        algorithmVersion: "1.1.0",
+        walkingAid: null,
+        analysis: analysis(),
+        metricCounts: { walkingSpeedMPerS: { n: 36, countNoun: "strides" }, strideLengthM: { n: 36, countNoun: "strides" }, armSwingAmplitudeDegLeft: { n: 30, countNoun: "arm cycles" } },
+      },
+    },
+    [`GET /api/sessions/${SID}/signal`]: { body: { sessionId: SID, unit: "deg/s", fromS: 0, toS: 100, traces: [] } },
+    ...extra,
+  });
+}
+
+const renderPage = (onSaved?: (id: string) => void) =>
+  renderWithProviders(
+    <Suspense fallback={<p>loading</p>}>
+      <SessionPage sessionId={SID} onWalkingAidSaved={onSaved} />
+    </Suspense>,
+  );
+
+afterEach(() => vi.unstubAllGlobals());
+
+describe("session page", () => {
+  it("shows walking speed and stride length with the strides behind them", async () => {
+    server();
+    renderPage();
+    const measures = await screen.findByLabelText("Gait measures");
+    const speed = within(measures).getByText("Walking speed").parentElement!;
+    expect(speed.textContent).toContain("1.10 m/s");
+    expect(speed.textContent).toContain("n = 36 strides");
+    expect(within(measures).getByText("Stride length").parentElement!.textContent).toContain("1.21 m");
+    expect(within(measures).getByText("Swing-time CV L / R").parentElement!.textContent).toContain("3.10 % / 3.90 %");
+  });
+
+  it("shows arm swing per arm and its asymmetry", async () => {
+    server();
+    renderPage();
+    const arms = await screen.findByLabelText("Arm swing");
+    expect(within(arms).getByText("Arm swing, left").parentElement!.textContent).toMatch(/31\.5°.*n = 30 arm cycles/);
+    expect(within(arms).getByText("Arm swing, right").parentElement!.textContent).toContain("12.0°");
+    expect(within(arms).getByText("Arm swing asymmetry").parentElement!.textContent).toContain("89.6 %");
+  });
+
+  it("never shows a relative phase without its R; a withheld phase shows the analysis' reason", async () => {
+    server();
+    renderPage();
+    const phases = await screen.findAllByTestId("relative-phase");
+    expect(phases).toHaveLength(2);
+    expect(phases[0]!.textContent).toBe("-20° (R = 0.80, circular SD 38°)");
+    expect(phases[1]!.textContent).toBe("not reported: coupling too weak for a meaningful phase");
+    for (const p of phases) if (/\d°/.test(p.textContent ?? "")) expect(p.textContent).toMatch(/R = \d\.\d\d/);
+  });
+
+  it("gives the new quality codes readable headings", async () => {
+    server();
+    renderPage();
+    const quality = (await screen.findByText("Recording quality")).closest("section")!;
+    expect(within(quality).getByText("Walking speed and stride length not available")).toBeTruthy();
+    expect(within(quality).getByText(/Left and right sensors may be swapped/)).toBeTruthy();
+    expect(within(quality).getByText("no height entered for the stride-length scaling")).toBeTruthy();
+  });
+
+  it("saves the walking aid and tells the route, which refreshes the trends", async () => {
+    const { default: userEvent } = await import("@testing-library/user-event");
+    const api = server({ [`PATCH /api/sessions/${SID}`]: { body: { id: SID, walkingAid: "cane" } } });
+    const onSaved = vi.fn();
+    renderPage(onSaved);
+    const user = userEvent.setup();
+    await user.selectOptions(await screen.findByLabelText("Walking aid in this test"), "cane");
+    await user.click(screen.getByRole("button", { name: "Save walking aid" }));
+    await waitFor(() => expect(onSaved).toHaveBeenCalledWith(PID));
+    expect(api.calls.find((c) => c.method === "PATCH")?.body).toEqual({ walkingAid: "cane" });
+  });
+
+  it("shows the server's reason when the walking aid is refused", async () => {
+    const { default: userEvent } = await import("@testing-library/user-event");
+    server({
+      [`PATCH /api/sessions/${SID}`]: { status: 422, body: { error: { code: "invalid_session_field", message: "walkingAid must be one of none, cane, crutches, rollator, other, or null to clear it" } } },
+    });
+    renderPage();
+    const user = userEvent.setup();
+    await user.selectOptions(await screen.findByLabelText("Walking aid in this test"), "rollator");
+    await user.click(screen.getByRole("button", { name: "Save walking aid" }));
+    expect(await screen.findByText(/walkingAid must be one of none, cane/)).toBeTruthy();
+  });
+});
