@@ -44,7 +44,7 @@ describe("analyze CLI and --height-cm", () => {
     return p;
   });
 
-  it("exits 2 with one line on stderr for a height outside 100–230 cm, before reading any file", () => {
+  it("exits 2 with one line on stderr for a height outside 100–230 cm, before reading any file", { timeout: 60_000 }, () => {
     const r = run([join(dir, "missing.csv"), "--height-cm", "250"]);
     expect(r.status).toBe(2);
     expect(r.stderr.trim().split("\n")).toHaveLength(1);
