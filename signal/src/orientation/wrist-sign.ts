@@ -12,8 +12,16 @@ export const WRIST_AXIS_BAND: readonly [number, number] = [0.5, 2.6];
  */
 export const MIN_FORWARD_CUE_T = 3;
 export const MIN_FORWARD_CUE_STEPS = 10;
+/**
+ * … and its size reaches this (m/s²): the trunk's forward acceleration swings by roughly ±1 m/s²
+ * each step in walking (Zijlstra & Hof 2003 show the pattern; the size is common practice), so a
+ * difference under 0.1 m/s² is more likely what the arm model leaves over than the body.
+ */
+export const MIN_FORWARD_CUE_M_S2 = 0.1;
 /** |cos| of the angle between a nominal axis and the measured direction needed to call it (60°, common practice). */
 export const AXIS_CALL_COS = 0.5;
+/** Low-pass (Hz, zero phase) for the forward-cue regression: above the step rhythm's main harmonics, below impact ringing (common practice). */
+export const CUE_LOW_PASS_HZ = 5;
 const DEG = Math.PI / 180;
 const G_M_S2 = 9.81;
 
@@ -63,13 +71,16 @@ export interface WristSignInput {
  *
  * Sign: for the candidate right axis r, the candidate forward axis is f = up × r (x forward, y up,
  * z right is right-handed). Along f the wrist feels g·sin θ + L·α from its own swing about the
- * shoulder (θ = arm angle from the integrated ω, α = its angular acceleration; both flip with r, so
- * they fit either sign equally) plus the body's own forward acceleration, which does not flip: the
+ * shoulder (θ = arm angle from the integrated ω, α = its angular acceleration; g is replaced by the
+ * measured specific force along `up`, which also carries the body's vertical acceleration and heel
+ * impacts; these terms flip with r, so they fit either sign equally) plus the body's own forward
+ * acceleration, which does not flip: the
  * trunk accelerates forward before each initial contact and brakes after it (the anteroposterior
  * acceleration crosses zero from positive to negative at IC; Zijlstra & Hof 2003, Gait Posture
  * 18:1). So a_f is regressed on [1, sin θ, α], and for each IC (either leg) d = mean residual over
  * the half step before IC − over the half step after. mean(d) > 0 means f is forward. The sign is
- * decided only when |t| = |mean d| / (SD d / √K) ≥ 3 over K ≥ 10 steps; otherwise it falls back on
+ * decided only when |t| = |mean d| / (SD d / √K) ≥ 3 over K ≥ 10 steps and |mean d| ≥ 0.1 m/s²
+ * (all columns and a_f low-passed alike at 5 Hz first); otherwise it falls back on
  * the nominal axes (the sensor's +x taken as forward, corrected for upside-down wear by gravity)
  * and `verified` is false. The expected arm–leg phase is never used.
  *
@@ -111,12 +122,12 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
   normalise(right);
   const forward = cross(up, right);
 
-  const forwardCue = bodyForwardCue(gyro, acc, right, forward, input);
+  const forwardCue = bodyForwardCue(gyro, acc, right, forward, up, input);
   const nominalX: Vec3 = [1, 0, 0];
   const upsideDown = up[1] >= AXIS_CALL_COS ? false : up[1] <= -AXIS_CALL_COS ? true : null;
   let sign: 1 | -1;
   let verified = false;
-  if (forwardCue && forwardCue.stepCount >= MIN_FORWARD_CUE_STEPS && Math.abs(forwardCue.t) >= MIN_FORWARD_CUE_T) {
+  if (forwardCue && forwardCue.stepCount >= MIN_FORWARD_CUE_STEPS && Math.abs(forwardCue.t) >= MIN_FORWARD_CUE_T && Math.abs(forwardCue.meanM_S2) >= MIN_FORWARD_CUE_M_S2) {
     sign = forwardCue.t > 0 ? 1 : -1;
     verified = true;
   } else {
@@ -143,6 +154,7 @@ function bodyForwardCue(
   acc: readonly Float64Array[],
   right: Vec3,
   forward: Vec3,
+  up: Vec3,
   input: WristSignInput,
 ): { meanM_S2: number; t: number; stepCount: number } | null {
   const fs = input.sampleRateHz;
@@ -154,11 +166,17 @@ function bodyForwardCue(
     af[i] = acc[0]![i]! * forward[0] + acc[1]![i]! * forward[1] + acc[2]![i]! * forward[2];
   }
   const theta = segmentAngleDeg(omega, fs, ANGLE_HIGH_PASS_STRIDE_FRACTION * input.strideFrequencyHz);
-  // α from ω low-passed at 8 Hz (common practice: arm swing content lies well below it).
-  const smooth = 8 < 0.45 * fs ? lowPassZeroPhase(omega, fs, 8, 4) : omega;
+  // α from ω low-passed at CUE_LOW_PASS_HZ: differentiating amplifies sensor noise, and noise in a
+  // regressor shrinks its fitted coefficient, which would leave a fraction of the arm's large own
+  // acceleration (L·α reaches ~10 m/s²) in the residual. Every column and the target get the same filter.
+  const lp = (x: Float64Array): Float64Array => (CUE_LOW_PASS_HZ < 0.45 * fs ? lowPassZeroPhase(x, fs, CUE_LOW_PASS_HZ, 4) : x);
+  const smooth = lp(omega);
   const alpha = new Float64Array(n);
   for (let i = 1; i < n - 1; i++) alpha[i] = ((smooth[i + 1]! - smooth[i - 1]!) * fs * 0.5) * DEG;
-  const sinTheta = theta.map((t) => Math.sin(t * DEG));
+  // The arm's tilt projects the whole vertical specific force F (gravity plus the body's vertical
+  // acceleration and impacts) onto the forward axis: F·sin θ, not g·sin θ.
+  // The reading along `up` is F·cos θ + L·ω², so F·sin θ = (reading − L·ω²)·tan θ.
+  const sinTheta = theta.map((t, i) => Math.tan(t * DEG) * (acc[0]![i]! * up[0] + acc[1]![i]! * up[1] + acc[2]![i]! * up[2]));
 
   // Step template: +1 over the half step before each IC, −1 over the half step after.
   const halfStep = Math.max(1, Math.round((0.25 * fs) / input.strideFrequencyHz));
@@ -169,24 +187,31 @@ function bodyForwardCue(
   }
   // Joint least squares a_f ≈ c0 + c1·sin θ + c2·α + β·step over the mask: fitting the template
   // together with the arm's own terms keeps the arm's step-frequency harmonics from absorbing it.
-  const cols = [sinTheta, alpha, step];
-  const ata = new Float64Array(16);
-  const atb = new Float64Array(4);
-  const row = new Float64Array(4);
+  // The up reading also holds the centripetal L·ω² of the swing, which sin θ carries onto the
+  // forward axis, so it gets its own column.
+  const centripetal = smooth.map((w, i) => (w * DEG) ** 2 * Math.tan(theta[i]! * DEG));
+  const cols = [lp(sinTheta), lp(alpha), lp(centripetal), step];
+  const target = lp(af);
+  const m = cols.length + 1;
+  const ata = new Float64Array(m * m);
+  const atb = new Float64Array(m);
+  const row = new Float64Array(m);
   for (let i = 0; i < n; i++) {
     if (!input.mask[i]) continue;
     row[0] = 1;
-    for (let k = 0; k < 3; k++) row[k + 1] = cols[k]![i]!;
-    for (let r = 0; r < 4; r++) {
-      atb[r] = atb[r]! + row[r]! * af[i]!;
-      for (let c = 0; c < 4; c++) ata[4 * r + c] = ata[4 * r + c]! + row[r]! * row[c]!;
+    for (let k = 0; k < cols.length; k++) row[k + 1] = cols[k]![i]!;
+    for (let r = 0; r < m; r++) {
+      atb[r] = atb[r]! + row[r]! * target[i]!;
+      for (let c = 0; c < m; c++) ata[m * r + c] = ata[m * r + c]! + row[r]! * row[c]!;
     }
   }
-  const coef = solveSymmetric(ata, atb, 4);
+  const coef = solveSymmetric(ata, atb, m);
   if (!coef) return null;
   // Per-step evidence on the signal with the arm's own terms removed (template kept in).
   const residual = new Float64Array(n);
-  for (let i = 0; i < n; i++) residual[i] = af[i]! - coef[0]! - coef[1]! * sinTheta[i]! - coef[2]! * alpha[i]!;
+  for (let i = 0; i < n; i++) {
+    residual[i] = target[i]! - coef[0]! - coef[1]! * cols[0]![i]! - coef[2]! * cols[1]![i]! - coef[3]! * cols[2]![i]!;
+  }
 
   const d: number[] = [];
   for (const ic of input.initialContactsS) {
