@@ -10,6 +10,12 @@ export function formatAnalysisTable(a: Analysis): string {
     ["Cadence", f(m.cadenceStepsPerMin, 1), "steps/min"],
     ["Stride time (mean)", f(m.strideTimeMeanS, 3), "s"],
     ["Stride time CV", f(m.strideTimeCvPct, 2), "%"],
+    [
+      "Walking speed",
+      m.walkingSpeedMPerS === null ? `— (${m.walkingSpeedReason ?? "n/a"})` : `${m.walkingSpeedMPerS.toFixed(2)} m/s over ${m.counts.walkingSpeedMPerS ?? 0} strides`,
+      "",
+    ],
+    ["Stride length (mean)", m.strideLengthM === null ? "—" : `${m.strideLengthM.toFixed(2)} m over ${m.counts.strideLengthM ?? 0} strides`, ""],
     ["Step time L / R", `${f(m.stepTimeMeanS.left, 3)} / ${f(m.stepTimeMeanS.right, 3)}`, "s"],
     ["Stance L / R", `${f(m.stancePct.left)} / ${f(m.stancePct.right)}`, "% stride"],
     ["Swing L / R", `${f(m.swingPct.left)} / ${f(m.swingPct.right)}`, "% stride"],

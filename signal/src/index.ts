@@ -10,3 +10,4 @@ export * from "./gait";
 export * from "./quality";
 export * as coordination from "./coordination";
 export * from "./synth";
+export * from "./spatial";

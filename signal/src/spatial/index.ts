@@ -3,7 +3,6 @@ export { leastRotationWindowCentre, MID_STANCE_WINDOW_S } from "./least-rotation
 export {
   integrateSagittalStride,
   AT_REST,
-  STANDARD_GRAVITY_M_S2,
   type PlaneVector,
   type ResetState,
   type SagittalStride,

@@ -1,7 +1,5 @@
+import { STANDARD_GRAVITY_M_S2 } from "../io/read-sensor-csv";
 import type { SagittalPlaneSignals } from "./sagittal-plane";
-
-/** Standard acceleration of gravity (m/s²), CGPM 1901 / ISO 80000-3. */
-export const STANDARD_GRAVITY_M_S2 = 9.80665;
 
 /** A vector in the world sagittal plane: forward (direction of travel) and up components. */
 export interface PlaneVector {

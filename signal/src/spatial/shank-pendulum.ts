@@ -1,4 +1,5 @@
-import { STANDARD_GRAVITY_M_S2, type PlaneVector } from "./integrate-sagittal-stride";
+import { STANDARD_GRAVITY_M_S2 } from "../io/read-sensor-csv";
+import type { PlaneVector } from "./integrate-sagittal-stride";
 
 /** Knee-to-ankle length as a fraction of standing height: Winter 2009, Fig. 4.1, after Drillis & Contini 1966. */
 export const SHANK_LENGTH_PER_HEIGHT = 0.246;
