@@ -24,7 +24,18 @@ export const patientSummary = patientIdentity.extend({
   /** Uploads over the last 4 weeks as a share of the expected number (0–100+, null when none expected). */
   adherencePct: z.number().nullable(),
   /** Flags open on the latest session (beyond MDC, or a coordination event): prompts to look, not diagnoses. */
-  flags: z.array(z.object({ metricKey: z.string(), flag: z.string() })),
+  flags: z.array(
+    z.object({
+      metricKey: z.string(),
+      flag: z.string(),
+      /** What the flag is (clinical/caseload-flags.ts): worsened, a coordination event, a phase shift, improved… */
+      kind: z.string().optional(),
+      /** The flag in plain words, e.g. "Cadence worse than baseline". */
+      label: z.string().optional(),
+      /** Higher = look sooner; the list is ordered by it, most urgent first. */
+      severity: z.number().optional(),
+    }),
+  ),
   latest: z.object({
     sessionId: z.uuid().nullable(),
     cadenceStepsPerMin: z.number().nullable(),

@@ -54,7 +54,9 @@ describe("GET /api/patients", () => {
     expect(row.adherencePct === null || (row.adherencePct >= 0 && row.adherencePct <= 100)).toBe(true);
     // Cadence 106 vs a 92/94/96 baseline (mean 94, SD 2): beyond MDC95 = 2.77·SD ≈ 5.5 (Weir 2005) → improved;
     // PCI stays at 6 % → no flag. The same rule as the trend page.
-    expect(row.flags).toContainEqual({ metricKey: "cadenceStepsPerMin", flag: "improved" });
+    expect(row.flags).toContainEqual(
+      expect.objectContaining({ metricKey: "cadenceStepsPerMin", flag: "improved", kind: "improved", label: "Cadence better than baseline" }),
+    );
     expect(row.flags.map((f: { metricKey: string }) => f.metricKey)).not.toContain("phaseCoordinationIndexPct");
   });
 
