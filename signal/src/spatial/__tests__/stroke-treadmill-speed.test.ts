@@ -24,6 +24,18 @@ interface Row {
   shank: Analysis["metrics"];
   strideTimeS: number | null;
   lrShank: [number | null, number | null];
+  /** Per steady stride present in both runs (same shank events): shank − foot stride length (m). */
+  strideDiffM: number[];
+}
+
+function pairedStrideDiffs(shank: Analysis, foot: Analysis): number[] {
+  const byIc = new Map(foot.strides.filter((s) => s.steady && s.strideLengthM != null).map((s) => [`${s.side}${s.icS.toFixed(3)}`, s.strideLengthM!]));
+  const out: number[] = [];
+  for (const s of shank.strides) {
+    const f = byIc.get(`${s.side}${s.icS.toFixed(3)}`);
+    if (s.steady && s.strideLengthM != null && f !== undefined) out.push(s.strideLengthM - f);
+  }
+  return out;
 }
 
 function sideMean(a: Analysis, side: "left" | "right"): number | null {
@@ -48,6 +60,7 @@ describe.skipIf(!strokeTreadmillAvailable)("walking speed on the stroke treadmil
       shank: shank.metrics,
       strideTimeS: shank.metrics.strideTimeMeanS,
       lrShank: [sideMean(shank, "left"), sideMean(shank, "right")],
+      strideDiffM: pairedStrideDiffs(shank, foot),
     };
   });
 
@@ -64,6 +77,8 @@ describe.skipIf(!strokeTreadmillAvailable)("walking speed on the stroke treadmil
           ` | ${f(r.lrShank[0], 3)} / ${f(r.lrShank[1], 3)}`,
       ),
     ];
+    lines.push("per stride, shank − foot stride length (same strides): trial n bias(m) median|diff|(m)");
+    for (const r of rows) lines.push(`  ${r.trial} ${r.strideDiffM.length} ${mean(r.strideDiffM).toFixed(3)} ${median(r.strideDiffM.map(Math.abs)).toFixed(3)}`);
     const used = rows.filter((r) => r.used);
     const err = used.map((r) => r.shank.walkingSpeedMPerS! - r.listed);
     lines.push(
