@@ -65,13 +65,16 @@ export function alignLegClocks(
   const strideS = strideTimeFromImpacts(eL.envelope, eL.valid, active, rate) ?? strideTimeFromImpacts(eR.envelope, eR.valid, active, rate);
   if (strideS === null) return none("clock alignment between the legs could not be checked: no regular walking in the impact signals");
   const bridges = bridgePlacements.map((p) => env(sensors.get(p)!));
-  const est = estimateLegClockOffset(eL, eR, bridges, active, rate, strideS / 2);
+  const memo = new Map<number, number>();
+  const alternation = (offsetS: number) => {
+    const k = Math.round(offsetS * fs);
+    if (!memo.has(k)) memo.set(k, legAlternation(left, right, walking, k / fs, fs));
+    return memo.get(k)!;
+  };
+  const est = estimateLegClockOffset(eL, eR, bridges, active, rate, strideS / 2, alternation);
   if (!est.fit) return none(`clock alignment between the legs could not be checked: ${est.reason} (start times were trusted)`);
   const { offsetS, driftSPerS, centreS, corrected: driftCorrected } = est.fit;
   const driftMsPerMin = driftSPerS * 60_000;
-  if (!legsAlternate(left, right, walking, offsetS, fs)) {
-    return none(`clock alignment between the legs could not be checked: the impact lag (${(offsetS * 1000).toFixed(0)} ms) would put the legs in step, so it matched the wrong step (start times were trusted)`);
-  }
   // Strong evidence is applied even below the report threshold (a few ms still move PCI); only
   // offsets beyond CLOCK_OFFSET_REPORT_S are worth a warning.
   const big = Math.abs(offsetS) > CLOCK_OFFSET_REPORT_S || (driftCorrected && Math.abs(driftSPerS) * grid.durationS > CLOCK_OFFSET_REPORT_S);
@@ -100,11 +103,12 @@ export function alignLegClocks(
 }
 
 /**
- * Coarse check that the corrected clocks keep the legs alternating: walking legs swing half a
- * stride apart (Plotnik et al. 2007: left–right phase near 180°), so the two shanks' |ω| must
- * correlate negatively. A lag one step off would make them swing together.
+ * Correlation of the two leg sensors' |ω| over walking with the right one's clock moved by offsetS.
+ * Walking legs swing half a stride apart (Plotnik et al. 2007: left–right phase near 180° even in
+ * impaired gait), so the true offset gives a negative value and an offset one step off a positive
+ * one: a coarse, step-level check only (|ω| is independent of how the sensor is mounted).
  */
-function legsAlternate(left: ResampledSensor, right: ResampledSensor, walking: Uint8Array, offsetS: number, fs: number): boolean {
+export function legAlternation(left: ResampledSensor, right: ResampledSensor, walking: Uint8Array, offsetS: number, fs: number): number {
   const shift = Math.round(offsetS * fs);
   const n = walking.length;
   const mag = (s: ResampledSensor, i: number) => Math.hypot(s.gyroX[i]!, s.gyroY[i]!, s.gyroZ[i]!);
@@ -118,14 +122,20 @@ function legsAlternate(left: ResampledSensor, right: ResampledSensor, walking: U
     sr += mag(right, j);
     c++;
   }
-  if (c < 2 * fs) return true;
+  if (c < 2 * fs) return Number.NaN;
   const ml = sl / c;
   const mr = sr / c;
   let sxy = 0;
+  let sxx = 0;
+  let syy = 0;
   for (let i = 0; i < n; i++) {
     const j = i - shift;
     if (j < 0 || j >= n || !walking[i] || !left.valid[i] || !right.valid[j]) continue;
-    sxy += (mag(left, i) - ml) * (mag(right, j) - mr);
+    const x = mag(left, i) - ml;
+    const y = mag(right, j) - mr;
+    sxy += x * y;
+    sxx += x * x;
+    syy += y * y;
   }
-  return sxy < 0;
+  return sxx > 0 && syy > 0 ? sxy / Math.sqrt(sxx * syy) : Number.NaN;
 }

@@ -1,4 +1,4 @@
-import { lagCorrelation, lagPeak } from "./impact-correlation";
+import { lagCandidates, lagCorrelation, lagPeak } from "./impact-correlation";
 
 /**
  * Clock offset between the left and right leg sensor, from heel-strike impacts felt by a third
@@ -16,10 +16,12 @@ import { lagCorrelation, lagPeak } from "./impact-correlation";
  * the left, provided the delay leg → bridge is the same for both legs (assumption: the body is
  * mechanically near-symmetric at this scale — a few ms; not verified on impaired gait).
  *
- * Why the search is limited to ±0.45 step: the bridge's train repeats every step, so its
- * correlation with a leg repeats every step too; beyond half a step the neighbouring strike would
- * win. Offsets larger than that are outside what this method can tell; the anti-phase check of the
- * legs (analyze step) catches a lock onto the wrong step.
+ * Why the candidates are told apart by the legs' alternation: the bridge's train repeats every step,
+ * so its correlation with a leg has a peak every step, all about as high. The left (reference) leg's
+ * lag is only the physical delay, so it is searched within ±0.45 step, where there is one peak. The
+ * right leg's lag also holds the offset: each of its peaks within MAX_CLOCK_OFFSET_S is a candidate,
+ * and only the true one keeps the legs swinging in alternation (the others put them in step). Two
+ * alternating candidates (one stride apart, strides under 1 s) leave the offset unverified.
  */
 
 /** Largest offset looked for (s): wireless start-up synchronisation errors are far smaller (common practice). */
@@ -37,6 +39,8 @@ export const MIN_DRIFT_WINDOWS = 4;
 export const MIN_DRIFT_EFFECT_S = 0.01;
 /** …and the slope is at least this many standard errors from 0 (common practice). */
 export const MIN_DRIFT_T = 4;
+/** Per-window lags are searched this far around the whole-session ones (s): 2 min of a few ms/min drift stays well inside (common practice). */
+export const DRIFT_SEARCH_S = 0.1;
 
 export interface EnvelopeInput {
   envelope: Float32Array;
@@ -63,30 +67,118 @@ export function impactLag(a: EnvelopeInput, b: EnvelopeInput, active: Uint8Array
   return { lagS: p.lagBins / rateHz, peak: p.peak, runnerUp: p.runnerUp, strong };
 }
 
+/**
+ * Correlation of the two legs' |ω| with the right leg's clock moved by offsetS: walking legs swing
+ * half a stride apart, so the true offset gives a negative value and one step off a positive one.
+ */
+export type Alternation = (offsetS: number) => number;
+
 export interface BridgeEstimate {
   /** Add to the right leg sensor's clock to put it on the left one's (s). */
   offsetS: number;
   strong: boolean;
   peak: number;
+  leftLagS: number;
+  rightLagS: number;
+  /** Why the estimate is not strong, when it is not. */
+  reason: string | null;
 }
 
-/** Right-vs-left offset through one bridge sensor: lag(left → bridge) − lag(right → bridge). */
+/**
+ * Right-vs-left offset through one bridge sensor: lag(right → bridge) − lag(left → bridge).
+ *
+ * The left leg is the reference, so its lag to the bridge is only the physical delay (small): it is
+ * searched within ±STEP_FRACTION_SEARCH step, where the bridge's step-periodic train has one peak.
+ * The right leg's lag also holds the unknown offset (up to MAX_CLOCK_OFFSET_S), so every peak of its
+ * correlation is a candidate, one step apart; the candidate whose offset keeps the legs alternating
+ * (and the only one doing so) is taken.
+ */
 export function offsetThroughBridge(
   left: EnvelopeInput,
   right: EnvelopeInput,
   bridge: EnvelopeInput,
   active: Uint8Array,
   rateHz: number,
-  maxLagS: number,
-  from = 0,
-  to = active.length,
+  stepTimeS: number,
+  alternation: Alternation,
 ): BridgeEstimate | null {
-  const l = impactLag(left, bridge, active, rateHz, maxLagS, from, to);
-  const r = impactLag(right, bridge, active, rateHz, maxLagS, from, to);
-  if (!l || !r) return null;
-  // Right data describing a moment s later than its clock: its strikes show s early, so the lag to
-  // the bridge grows by s; the correction to add to the right clock is that growth.
-  return { offsetS: r.lagS - l.lagS, strong: l.strong && r.strong, peak: Math.min(l.peak, r.peak) };
+  const est = offsetFromReference(left, right, bridge, active, rateHz, stepTimeS, alternation);
+  if (est?.strong || est?.reason !== REFERENCE_WEAK) return est;
+  // The left leg's strikes may be too soft (a paretic leg lands flat-footed): the right leg serves as
+  // the reference instead, with every sign turned round.
+  const swapped = offsetFromReference(right, left, bridge, active, rateHz, stepTimeS, (o) => alternation(-o));
+  if (!swapped?.strong) return est;
+  return { ...swapped, offsetS: -swapped.offsetS, leftLagS: swapped.rightLagS, rightLagS: swapped.leftLagS };
+}
+
+const REFERENCE_WEAK = "neither leg's impacts are clearly felt by the bridge sensor";
+
+function offsetFromReference(
+  left: EnvelopeInput,
+  right: EnvelopeInput,
+  bridge: EnvelopeInput,
+  active: Uint8Array,
+  rateHz: number,
+  stepTimeS: number,
+  alternation: Alternation,
+): BridgeEstimate | null {
+  const leftMaxS = Math.min(MAX_CLOCK_OFFSET_S, STEP_FRACTION_SEARCH * stepTimeS);
+  const l = impactLag(left, bridge, active, rateHz, leftMaxS);
+  if (!l) return null;
+  const maxLagBins = Math.ceil((MAX_CLOCK_OFFSET_S + leftMaxS) * rateHz);
+  const { r, bins } = lagCorrelation(right.envelope, bridge.envelope, right.valid, bridge.valid, active, maxLagBins, 0, active.length);
+  if (bins < 2 * rateHz) return null;
+  const all = lagCandidates(r, Math.max(1, Math.round(0.06 * rateHz)));
+  const best = all[0]?.peak ?? 0;
+  // A candidate must be one of the train's main peaks (half the best: common practice), not a ripple.
+  const candidates = all
+    .filter((c) => c.peak >= MIN_PEAK_CORRELATION && c.peak >= 0.5 * best)
+    .map((c) => ({ ...c, rightLagS: c.lagBins / rateHz, offsetS: c.lagBins / rateHz - l.lagS }))
+    .filter((c) => Math.abs(c.offsetS) <= MAX_CLOCK_OFFSET_S)
+    .map((c) => ({ ...c, alternation: alternation(c.offsetS) }));
+  const alternating = candidates.filter((c) => c.alternation < 0);
+  const weak = (reason: string, c = candidates[0]): BridgeEstimate => ({
+    offsetS: c?.offsetS ?? Number.NaN,
+    strong: false,
+    peak: c?.peak ?? 0,
+    leftLagS: l.lagS,
+    rightLagS: c?.rightLagS ?? Number.NaN,
+    reason,
+  });
+  if (!l.strong) return weak(REFERENCE_WEAK);
+  if (alternating.length === 0) return weak("no impact lag keeps the legs alternating");
+  if (alternating.length > 1) return weak("more than one impact lag keeps the legs alternating");
+  const c = alternating[0]!;
+  return { offsetS: c.offsetS, strong: true, peak: Math.min(l.peak, c.peak), leftLagS: l.lagS, rightLagS: c.rightLagS, reason: null };
+}
+
+/**
+ * The same offset over bins [from, to), searched only within ±toleranceS of the whole-session lags
+ * (a window has too few strides to settle which step is which on its own).
+ */
+export function offsetNear(
+  left: EnvelopeInput,
+  right: EnvelopeInput,
+  bridge: EnvelopeInput,
+  active: Uint8Array,
+  rateHz: number,
+  whole: BridgeEstimate,
+  toleranceS: number,
+  from: number,
+  to: number,
+): number | null {
+  const lag = (x: EnvelopeInput, centreS: number): number | null => {
+    const centre = Math.round(centreS * rateHz);
+    const half = Math.max(2, Math.ceil(toleranceS * rateHz));
+    const { r, bins } = lagCorrelation(x.envelope, bridge.envelope, x.valid, bridge.valid, active, half, from, to, null, null, centre);
+    if (bins < 10 * rateHz) return null;
+    const c = lagCandidates(r, Math.max(1, Math.round(0.06 * rateHz)))[0];
+    if (!c || c.peak < MIN_PEAK_CORRELATION) return null;
+    return (centre + c.lagBins) / rateHz;
+  };
+  const l = lag(left, whole.leftLagS);
+  const r = lag(right, whole.rightLagS);
+  return l === null || r === null ? null : r - l;
 }
 
 export interface DriftFit {
@@ -137,8 +229,9 @@ export interface LegClockEstimate {
 }
 
 /**
- * Right-vs-left leg clock offset through every bridge, over the whole session and in
- * DRIFT_WINDOW_S windows; windows where the strong bridges agree (within 20 ms) give one point each.
+ * Right-vs-left leg clock offset through every bridge over the whole session; then, on sessions of
+ * at least two DRIFT_WINDOW_S windows, once per window near the whole-session lags (a window counts
+ * when its strong bridges agree within 20 ms) for the drift fit.
  */
 export function estimateLegClockOffset(
   left: EnvelopeInput,
@@ -147,13 +240,16 @@ export function estimateLegClockOffset(
   active: Uint8Array,
   rateHz: number,
   stepTimeS: number,
+  alternation: Alternation,
 ): LegClockEstimate {
   if (bridges.length === 0) return { fit: null, bridges: [], reason: "no sensor that feels both feet (lower back or wrist) to compare the legs through" };
-  const maxLagS = Math.min(MAX_CLOCK_OFFSET_S, STEP_FRACTION_SEARCH * stepTimeS);
-  const whole = bridges.map((b, index) => ({ index, estimate: offsetThroughBridge(left, right, b, active, rateHz, maxLagS) }));
-  const strong = whole.filter((w) => w.estimate?.strong).map((w) => w.estimate!);
-  if (strong.length === 0) return { fit: null, bridges: whole, reason: "the impacts felt by the bridge sensors do not give a clear, unambiguous lag" };
-  const agreed = agree(strong.map((s) => s.offsetS));
+  const whole = bridges.map((b, index) => ({ index, estimate: offsetThroughBridge(left, right, b, active, rateHz, stepTimeS, alternation) }));
+  const strong = whole.filter((w) => w.estimate?.strong);
+  if (strong.length === 0) {
+    const why = whole.map((w) => w.estimate?.reason).find((r) => r) ?? "the impacts felt by the bridge sensors do not give a clear lag";
+    return { fit: null, bridges: whole, reason: why };
+  }
+  const agreed = agree(strong.map((s) => s.estimate!.offsetS));
   if (agreed === null) return { fit: null, bridges: whole, reason: "the bridge sensors disagree on the offset by more than 20 ms" };
 
   const windowBins = Math.round(DRIFT_WINDOW_S * rateHz);
@@ -161,10 +257,10 @@ export function estimateLegClockOffset(
   const m = active.length;
   if (m >= 2 * windowBins) {
     for (let from = 0; from + windowBins <= m; from += windowBins) {
-      const ests = bridges
-        .map((b) => offsetThroughBridge(left, right, b, active, rateHz, maxLagS, from, from + windowBins))
-        .filter((e): e is BridgeEstimate => !!e && e.strong);
-      const o = ests.length > 0 ? agree(ests.map((e) => e.offsetS)) : null;
+      const ests = strong
+        .map((w) => offsetNear(left, right, bridges[w.index]!, active, rateHz, w.estimate!, DRIFT_SEARCH_S, from, from + windowBins))
+        .filter((o): o is number => o !== null);
+      const o = ests.length > 0 ? agree(ests) : null;
       if (o !== null) points.push({ centreS: (from + windowBins / 2) / rateHz, offsetS: o });
     }
   }

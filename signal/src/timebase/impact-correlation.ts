@@ -5,7 +5,8 @@
  * r(τ) = Σ a′(t)·b′(t+τ) / √(Σ a′² · Σ b′²), a′ and b′ the envelopes minus their mean over the
  * bins used, summed over bins where both are valid and `active`. When own-impact masks are given,
  * products where an own impact of `a` meets an own impact of `b` are left out (see clock-offset.ts
- * for why), so the lag that lines up the two legs' own heel strikes cannot win.
+ * for why), so the lag that lines up the two legs' own heel strikes cannot win. Lags run over
+ * lagCentreBins ± maxLagBins; r[i] is the lag lagCentreBins + i − maxLagBins.
  */
 export function lagCorrelation(
   a: Float32Array,
@@ -18,6 +19,7 @@ export function lagCorrelation(
   toBin: number,
   ownA: Uint8Array | null = null,
   ownB: Uint8Array | null = null,
+  lagCentreBins = 0,
 ): { r: Float64Array; bins: number } {
   const m = Math.min(a.length, b.length, active.length);
   const from = Math.max(0, fromBin);
@@ -59,7 +61,7 @@ export function lagCorrelation(
     cb[t] = validB[t] && active[t] ? b[t]! - mb : 0;
   }
   for (let li = 0; li < r.length; li++) {
-    const lag = li - maxLagBins;
+    const lag = lagCentreBins + li - maxLagBins;
     const t0 = Math.max(from, -lag);
     const t1 = Math.min(to, m - lag);
     let s = 0;
@@ -115,4 +117,32 @@ export function lagPeak(r: Float64Array, separationBins: number): LagPeak | null
   if (Math.abs(0 - best) >= separationBins && s[0]! > s[1]! && s[0]! > runnerUp) runnerUp = s[0]!;
   if (Math.abs(n - 1 - best) >= separationBins && s[n - 1]! > s[n - 2]! && s[n - 1]! > runnerUp) runnerUp = s[n - 1]!;
   return { lagBins: lag - (n - 1) / 2, peak: s[best]!, runnerUp };
+}
+
+export interface LagCandidate {
+  /** Lag (bins from the centre of r, sub-bin by parabolic interpolation). */
+  lagBins: number;
+  peak: number;
+}
+
+/**
+ * Every local maximum of r (after the same [1 2 1]/4 smoothing as lagPeak), highest first, with a
+ * parabolic sub-bin vertex; a maximum within `separationBins` of a higher one is dropped. The ends
+ * of the range are not candidates (a peak there may lie outside it).
+ */
+export function lagCandidates(r: Float64Array, separationBins: number): LagCandidate[] {
+  const n = r.length;
+  const s = new Float64Array(n);
+  for (let i = 0; i < n; i++) s[i] = (r[Math.max(0, i - 1)]! + 2 * r[i]! + r[Math.min(n - 1, i + 1)]!) / 4;
+  const found: Array<{ i: number; lag: number; peak: number }> = [];
+  for (let i = 1; i < n - 1; i++) {
+    if (!(s[i]! > s[i - 1]! && s[i]! >= s[i + 1]!)) continue;
+    const den = s[i - 1]! - 2 * s[i]! + s[i + 1]!;
+    const d = den < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (s[i - 1]! - s[i + 1]!)) / den)) : 0;
+    found.push({ i, lag: i + d - (n - 1) / 2, peak: s[i]! });
+  }
+  found.sort((a, b) => b.peak - a.peak);
+  const kept: typeof found = [];
+  for (const f of found) if (kept.every((k) => Math.abs(k.i - f.i) >= separationBins)) kept.push(f);
+  return kept.map((k) => ({ lagBins: k.lag, peak: k.peak }));
 }

@@ -60,7 +60,7 @@ function matchEvents(a: number[], b: number[], tolS: number): { matched: number;
 }
 
 const trials = strokeTreadmillTrials();
-const SHIFTS_S = [0.05, -0.12];
+const SHIFTS_S = [0.05, -0.12, 0.3];
 
 describe.skipIf(!strokeTreadmillAvailable)("clock alignment on real stroke recordings (one shared clock)", () => {
   it.each(trials.map((t) => [t.trial, t] as const))("%s: a shifted right shank is recovered through the lower back", (_name, trial) => {
@@ -108,14 +108,6 @@ describe.skipIf(!strokeTreadmillAvailable)("clock alignment on real stroke recor
       expect(a.quality.some((q) => q.code === "clock-unverified")).toBe(false);
       compare(a, `shift ${s * 1000} ms`);
     }
-  });
-
-  it.each(trials.map((t) => [t.trial, t] as const))("%s: a 300 ms shift (beyond half a step) is never mis-corrected by a step", (_name, trial) => {
-    const recs = trial.recordings(ALL_FIVE);
-    const est = estimate(withShift(recs, "right_shank", 0.3));
-    // Either recovered (slow walkers: half a step > 300 ms) or left unverified, never locked one step off.
-    if (est.offsetS !== null) expect(Math.abs(est.offsetS - 0.3)).toBeLessThan(0.05);
-    else expect(est.quality.map((q) => q.code)).toEqual(["clock-unverified"]);
   });
 
   it.each(trials.map((t) => [t.trial, t] as const))("%s: with the shanks alone the offset cannot be told and is reported as unverified", (_name, trial) => {
