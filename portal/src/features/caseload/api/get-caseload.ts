@@ -27,9 +27,58 @@ export const caseloadRowSchema = z.object({
       phaseCoordinationIndexPct: z.number().nullish(),
     })
     .optional(),
-  flags: z.array(z.object({ metricKey: z.string(), flag: z.string() }).catchall(z.unknown())).optional(),
+  flags: z
+    .array(
+      z
+        .object({ metricKey: z.string(), flag: z.string(), kind: z.string().optional(), label: z.string().optional(), severity: z.number().optional() })
+        .catchall(z.unknown()),
+    )
+    .optional(),
 });
 export type CaseloadRow = z.infer<typeof caseloadRowSchema>;
+
+/**
+ * A caseload flag with its words and urgency. The server names them (ingest-server
+ * clinical/caseload-flags.ts); these fallbacks only cover an answer without names.
+ */
+export interface NamedFlag {
+  metricKey: string;
+  flag: string;
+  kind: string;
+  label: string;
+  severity: number;
+}
+
+const FALLBACK: Record<string, { kind: string; severity: number; words: string }> = {
+  worsened: { kind: "worsened", severity: 50, words: "worse than baseline" },
+  improved: { kind: "improved", severity: 10, words: "better than baseline" },
+};
+
+export function namedFlag(f: NonNullable<CaseloadRow["flags"]>[number]): NamedFlag {
+  const fb = FALLBACK[f.flag];
+  return {
+    metricKey: f.metricKey,
+    flag: f.flag,
+    kind: f.kind ?? fb?.kind ?? "other",
+    label: f.label ?? `${f.metricKey}: ${fb?.words ?? f.flag}`,
+    severity: f.severity ?? fb?.severity ?? 20,
+  };
+}
+
+/** Most urgent first; ties keep the server's order. */
+export function orderedFlags(flags: NonNullable<CaseloadRow["flags"]>): NamedFlag[] {
+  return flags
+    .map(namedFlag)
+    .map((f, i) => ({ f, i }))
+    .sort((a, b) => b.f.severity - a.f.severity || a.i - b.i)
+    .map(({ f }) => f);
+}
+
+/** Sort key for the flags column: the worst flag's severity, then the number of flags. */
+export function flagRank(flags: NonNullable<CaseloadRow["flags"]>): number {
+  const named = flags.map(namedFlag);
+  return named.length ? Math.max(...named.map((f) => f.severity)) * 1000 + named.length : 0;
+}
 
 export const caseloadKeys = {
   all: ["caseload"] as const,

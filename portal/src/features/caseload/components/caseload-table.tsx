@@ -7,13 +7,50 @@ import {
   useReactTable,
   type SortingState,
 } from "@tanstack/react-table";
-import { useMemo, useRef, useState } from "react";
+import { useMemo, useRef, useState, type ReactNode } from "react";
 import { Link } from "react-router-dom";
-import { IconSearch, IconSort } from "@/components/icons";
+import { IconAlert, IconCheck, IconInfo, IconSearch, IconSort, IconWave } from "@/components/icons";
 import { Badge, EmptyState, SelectField, TextField } from "@/components/ui";
-import { CONDITION_LABEL, type CaseloadRow } from "../api/get-caseload";
+import type { BadgeTone } from "@/components/ui/badge";
+import { CONDITION_LABEL, orderedFlags, flagRank, type CaseloadRow, type NamedFlag } from "../api/get-caseload";
 
 const col = createColumnHelper<CaseloadRow>();
+
+// How each kind of flag looks: always an icon and words (the server's label), never colour alone.
+const FLAG_LOOK: Record<string, { tone: BadgeTone; icon: ReactNode }> = {
+  worsened: { tone: "alert", icon: <IconAlert /> },
+  "left-right-coordination": { tone: "caution", icon: <IconWave /> },
+  "coupling-drop": { tone: "caution", icon: <IconWave /> },
+  "coordination-change": { tone: "caution", icon: <IconWave /> },
+  "phase-shift": { tone: "info", icon: <IconWave /> },
+  improved: { tone: "good", icon: <IconCheck /> },
+  other: { tone: "info", icon: <IconInfo /> },
+};
+const FLAGS_SHOWN = 3;
+
+function FlagList({ flags }: { flags: NamedFlag[] }) {
+  const shown = flags.slice(0, FLAGS_SHOWN);
+  const rest = flags.slice(FLAGS_SHOWN);
+  return (
+    <ul className="flex flex-col items-start gap-1" aria-label="Flags, most urgent first">
+      {shown.map((f, i) => {
+        const look = FLAG_LOOK[f.kind] ?? FLAG_LOOK.other!;
+        return (
+          <li key={`${f.metricKey}-${f.flag}-${i}`}>
+            <Badge tone={look.tone} icon={look.icon}>
+              {f.label}
+            </Badge>
+          </li>
+        );
+      })}
+      {rest.length ? (
+        <li className="text-xs text-ink-soft" title={rest.map((f) => f.label).join("; ")}>
+          {`and ${rest.length} more: ${rest.map((f) => f.label).join("; ")}`}
+        </li>
+      ) : null}
+    </ul>
+  );
+}
 const fmt = (v: number | null | undefined, digits = 0) => (typeof v === "number" ? v.toFixed(digits) : "—");
 
 function daysAgo(iso: string | null | undefined): string {
@@ -76,21 +113,16 @@ export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
           return v < 50 ? <Badge tone="caution">{`${Math.round(v)} %`}</Badge> : <span className="tabular">{Math.round(v)} %</span>;
         },
       }),
-      col.accessor((r) => r.flags?.length ?? 0, {
+      col.accessor((r) => (r.flags ? flagRank(r.flags) : null), {
         id: "flags",
         header: "Flags",
+        // Most urgent first when sorted descending: the worst flag decides, then how many there are.
+        sortingFn: (a, b) => nullsLast(a.getValue("flags"), b.getValue("flags")),
         cell: (c) => {
-          const flags = c.row.original.flags ?? [];
           if (!c.row.original.flags) return "—";
-          const worse = flags.filter((f) => f.flag === "worsened").length;
-          const other = flags.length - worse;
+          const flags = orderedFlags(c.row.original.flags);
           if (!flags.length) return <span className="text-ink-soft">none</span>;
-          return (
-            <span className="flex flex-wrap gap-1">
-              {worse ? <Badge tone="alert">{`${worse} worsened`}</Badge> : null}
-              {other ? <Badge tone="info">{`${other} other`}</Badge> : null}
-            </span>
-          );
+          return <FlagList flags={flags} />;
         },
       }),
       col.accessor((r) => r.latest?.cadenceStepsPerMin ?? null, {
