@@ -1,6 +1,6 @@
 import { boutsToMask, detectWalkingMask, maskToBouts } from "./activity/walking-bouts";
 import { detectTurns, yawRateAboutGravity } from "./activity/turns";
-import { armLegCoupling } from "./coordination";
+import { type WalkingAid, sessionArms } from "./coordination/session-arms";
 import { detectFootEvents } from "./gait/detect-foot-events";
 import { detectShankEvents } from "./gait/detect-shank-events";
 import { longestConsecutiveRun } from "./gait/consecutive-strides";
@@ -39,9 +39,11 @@ export interface AnalyzeOptions {
   skipArmLeg?: boolean;
   /** Patient's standing height (cm, 100–230) for spatial methods that scale with body size. */
   heightCm?: number;
+  /** Walking aid used in this session (recorded by the clinician); any aid but "none" withholds arm–leg coupling. */
+  walkingAid?: WalkingAid;
 }
 
-const NO_COUPLING: ArmLegCoupling = { frequencyRatio: null, meanRelativePhaseDeg: null, couplingStrength: null, circularSdDeg: null };
+const NO_COUPLING: ArmLegCoupling = { frequencyRatio: null, meanRelativePhaseDeg: null, couplingStrength: null, circularSdDeg: null, reason: "arm analysis skipped" };
 
 interface LegSignal {
   side: Side;
@@ -216,20 +218,21 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
     quality.push({ code: "dfa-unavailable", severity: "info", message: `DFA α not computed: ${dfa.reason}` });
   }
 
-  // Arm–leg coordination over steady-state walking.
-  const steadyMask = new Uint8Array(n);
-  for (const s of steady) steadyMask.fill(1, Math.max(0, Math.ceil(s.icS * fs)), Math.min(n, Math.floor(s.nextIcS * fs) + 1));
+  // Arm swing and arm–leg coordination over straight steady walking (signal/docs/arm-leg-coordination.md).
   const strideFrequencyHz = base.strideTimeMeanS ? 1 / base.strideTimeMeanS : Number.NaN;
-  const coupling = (arm: Placement, legSide: Side): ArmLegCoupling => {
-    const wrist = sensors.get(arm);
-    const leg = legs[legSide];
-    if (options.skipArmLeg || !wrist || !leg || !Number.isFinite(strideFrequencyHz)) return { ...NO_COUPLING };
-    const mask = andMask(steadyMask, wrist.valid);
-    const axis = sagittalAxis(wrist.gyroX, wrist.gyroY, wrist.gyroZ, andMask(boutMask, wrist.valid));
-    if (!axis) return { ...NO_COUPLING };
-    const armOmega = projectOnAxis(wrist.gyroX, wrist.gyroY, wrist.gyroZ, axis.axis);
-    return armLegCoupling(armOmega, leg.omega, fs, strideFrequencyHz, mask);
-  };
+  const legOf = (side: Side) => (legs[side] ? { omegaDegS: legs[side]!.omega, initialContactsS: legs[side]!.events.initialContactsS } : undefined);
+  const arms = options.skipArmLeg
+    ? { armLeg: { leftArmRightLeg: { ...NO_COUPLING }, rightArmLeftLeg: { ...NO_COUPLING } }, armSwing: null, armSwingReason: "arm analysis skipped", counts: {}, quality: [] }
+    : sessionArms({
+        wrists: { left: sensors.get("left_wrist"), right: sensors.get("right_wrist") },
+        legs: { left: legOf("left"), right: legOf("right") },
+        sampleRateHz: fs,
+        strideFrequencyHz,
+        steadyStrides: steady,
+        turns,
+        walkingAid: options.walkingAid,
+      });
+  quality.push(...arms.quality);
 
   if (bouts.length === 0 || strides.length === 0) {
     quality.push({ code: "no-walking", severity: "error", message: "no walking was found in this session; no gait metrics were computed" });
@@ -278,13 +281,10 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
       walkingSpeedReason: speed.reason,
       swingTimeCvPct: base.swingTimeCvPct,
       stepTimeAsymmetryPct: base.stepTimeAsymmetryPct,
-      armSwing: null,
-      armSwingReason: "arm swing is not computed yet",
-      counts: { ...base.counts, phaseCoordinationIndexPct: pciPhases, dfaAlpha: dfa.strideCount, walkingSpeedMPerS: speed.strideCount, strideLengthM: speed.strideCount },
-      armLeg: {
-        leftArmRightLeg: coupling("left_wrist", "right"),
-        rightArmLeftLeg: coupling("right_wrist", "left"),
-      },
+      armSwing: arms.armSwing,
+      armSwingReason: arms.armSwingReason,
+      counts: { ...base.counts, phaseCoordinationIndexPct: pciPhases, dfaAlpha: dfa.strideCount, walkingSpeedMPerS: speed.strideCount, strideLengthM: speed.strideCount, ...arms.counts },
+      armLeg: arms.armLeg,
     },
     quality,
     algorithm: { version: ALGORITHM_VERSION },
