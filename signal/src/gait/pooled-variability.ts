@@ -1,16 +1,16 @@
-/**
- * CV across walking bouts without the between-bout pace difference: the pooled within-bout SD
- * s_p = √(Σ(n_b − 1)·s_b² / Σ(n_b − 1)) (the pooled standard deviation of the NIST/SEMATECH
- * e-Handbook of Statistical Methods, §7.3.1 / §7.4.3) over the grand mean of all values, as a
- * percentage. With one bout this is the ordinary CV with ddof 1. Bouts with one value add nothing
- * to the SD (n_b − 1 = 0) but count in the mean.
- */
 export interface PooledCv {
   cvPct: number | null;
   /** Values behind the CV (bouts with ≥ 2 values; single values are left out of both terms). */
   count: number;
 }
 
+/**
+ * CV across walking bouts without the between-bout pace difference: the pooled within-bout SD
+ * s_p = √(Σ(n_b − 1)·s_b² / Σ(n_b − 1)) (the pooled standard deviation of the NIST/SEMATECH
+ * e-Handbook of Statistical Methods) over the grand mean of all values, as a
+ * percentage. With one bout this is the ordinary CV with ddof 1. Bouts with one value add nothing
+ * to the SD (n_b − 1 = 0) but count in the mean.
+ */
 export function pooledWithinBoutCvPct(bouts: readonly (readonly number[])[]): PooledCv {
   let ss = 0;
   let dof = 0;
