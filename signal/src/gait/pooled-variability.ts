@@ -8,8 +8,9 @@ export interface PooledCv {
  * CV across walking bouts without the between-bout pace difference: the pooled within-bout SD
  * s_p = √(Σ(n_b − 1)·s_b² / Σ(n_b − 1)) (the pooled standard deviation of the NIST/SEMATECH
  * e-Handbook of Statistical Methods) over the grand mean of all values, as a
- * percentage. With one bout this is the ordinary CV with ddof 1. Bouts with one value add nothing
- * to the SD (n_b − 1 = 0) but count in the mean.
+ * percentage. With one bout this is the ordinary CV with ddof 1. A bout with a single value has
+ * no within-bout spread (n_b − 1 = 0) and is left out of the mean as well, so SD and mean describe
+ * the same strides.
  */
 export function pooledWithinBoutCvPct(bouts: readonly (readonly number[])[]): PooledCv {
   let ss = 0;
