@@ -25,7 +25,7 @@ export const MAX_STRIDE_LENGTH_PER_HEIGHT = 1.5;
 /** Gyro/gravity disagreement (deg) above which a stride's orientation is not trusted; common practice. */
 export const MAX_ANGLE_DRIFT_DEG = 15;
 
-export type StrideLengthRejection = "no-stance" | "no-reset" | "invalid-data" | "angle-drift" | "implausible";
+export type StrideLengthRejection = "turn" | "no-stance" | "no-reset" | "invalid-data" | "angle-drift" | "implausible";
 
 export interface StrideLengthResult {
   strideLengthM: number | null;
@@ -114,6 +114,8 @@ export function strideLengthsForSide(
   };
 
   return strides.map((s): StrideLengthResult => {
+    // In a turn the plane of the leg swings about the vertical, so a planar length means nothing.
+    if (s.excludedReason === "turn") return { strideLengthM: null, rejection: "turn", resetIndices: null };
     const nextFc = fcAfter(s.nextIcS, s.strideTimeS);
     if (s.fcS === null || nextFc === null) return { strideLengthM: null, rejection: "no-stance", resetIndices: null };
     const i0 = resetAfter(s.icS, s.fcS);

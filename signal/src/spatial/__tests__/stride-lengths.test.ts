@@ -69,14 +69,18 @@ describe("strideLengthsForSide(signals, strides, fcs, options) on a planar kinem
     expect(naive.strideLengthM).toBeLessThan(1.3 * 0.95);
   });
 
-  it("rejects strides whose data are invalid and strides without an FC", () => {
+  it("rejects strides whose data are invalid, strides without an FC and turning strides", () => {
     const leg = planarLeg({ ...base, segment: "foot" });
     const strides = stridesOf(leg.icS, leg.fcS);
+    strides[5]!.steady = false;
+    strides[5]!.excludedReason = "turn";
     leg.valid.fill(0, Math.round(strides[3]!.icS * 100) + 20, Math.round(strides[3]!.icS * 100) + 25);
     const res = strideLengthsForSide({ segment: "foot", ...leg }, strides, leg.fcS, { sampleRateHz: 100 });
     expect(res[3]!.strideLengthM).toBeNull();
     expect(res[3]!.rejection).toBe("invalid-data");
     expect(res[res.length - 1]!.rejection).toBe("no-stance");
+    expect(res[5]!).toEqual({ strideLengthM: null, rejection: "turn", resetIndices: null });
+    expect(res[4]!.strideLengthM).not.toBeNull();
   });
 
   it("refuses a shank without an ankle-to-sensor distance", () => {
