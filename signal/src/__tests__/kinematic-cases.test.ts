@@ -1,0 +1,258 @@
+import { afterAll, describe, expect, it } from "vitest";
+import { analyze } from "../analyze";
+import { synthesizeKinematicSession, type KinematicOptions, type KinematicSession } from "../synth";
+import type { Analysis, Side } from "../types";
+
+// The real analysis on sessions from the kinematic body model (signal/src/synth/kinematic). Truth is
+// the model's own contacts (schedule knots of the segment-angle phase), not features of ω, so these
+// cases are not circular with the detector. Targets: F1 ≥ 0.95 within ±100 ms (event tolerance of
+// common practice; Trojaniello et al. 2014 report no missed or extra shank events in impaired gait),
+// cadence within 2 % of the model's (project target; the model's cadence = 120 / mean stride time of
+// strides away from bout edges and pauses, DOMAIN.md §3). Signed bias and median |error| are printed
+// per case with the numbers of events behind them.
+
+const TOLERANCE_S = 0.1;
+const F1_MIN = 0.95;
+const CADENCE_TOL_PCT = 2;
+
+interface EventScore {
+  truth: number;
+  detected: number;
+  matched: number;
+  f1: number;
+  biasMs: number;
+  medianAbsMs: number;
+}
+
+interface CaseResult {
+  name: string;
+  ic: Record<Side, EventScore>;
+  fc: Record<Side, EventScore>;
+  cadenceTruth: number;
+  cadenceAnalysis: number | null;
+  cadenceErrPct: number | null;
+  cadenceSteps: number | null;
+  truthStrides: number;
+  steadyStrides: number;
+  speedTruth: number;
+  speedAnalysis: number | null;
+}
+
+const results: CaseResult[] = [];
+
+/**
+ * One-to-one matching, nearest first, within the tolerance. Truth contacts made while the pattern
+ * is still fading in (gait initiation: before the bout's first IC) are not scored, and detections
+ * within the tolerance of them are not counted as extra.
+ */
+function scoreEvents(detected: readonly number[], truth: readonly number[], unscored: readonly number[]): EventScore {
+  const pairs: { d: number; t: number; err: number }[] = [];
+  for (const t of truth) for (const d of detected) if (Math.abs(d - t) <= TOLERANCE_S) pairs.push({ d, t, err: d - t });
+  pairs.sort((a, b) => Math.abs(a.err) - Math.abs(b.err));
+  const usedD = new Set<number>();
+  const usedT = new Set<number>();
+  const errs: number[] = [];
+  for (const p of pairs) {
+    if (usedD.has(p.d) || usedT.has(p.t)) continue;
+    usedD.add(p.d);
+    usedT.add(p.t);
+    errs.push(p.err);
+  }
+  const extra = detected.filter((d) => !usedD.has(d) && !unscored.some((u) => Math.abs(u - d) <= TOLERANCE_S)).length;
+  const tp = errs.length;
+  const fn = truth.length - tp;
+  const abs = errs.map(Math.abs).sort((a, b) => a - b);
+  return {
+    truth: truth.length,
+    detected: tp + extra,
+    matched: tp,
+    f1: tp === 0 ? 0 : (2 * tp) / (2 * tp + extra + fn),
+    biasMs: tp ? (1000 * errs.reduce((a, b) => a + b, 0)) / tp : Number.NaN,
+    medianAbsMs: tp ? 1000 * abs[abs.length >> 1]! : Number.NaN,
+  };
+}
+
+function runCase(name: string, options: KinematicOptions): { session: KinematicSession; analysis: Analysis; result: CaseResult } {
+  const session = synthesizeKinematicSession(options);
+  const analysis = analyze(session.recordings, { heightCm: options.heightCm ?? 172 });
+  const firstIc = session.truth.bouts.map((b) => Math.min(...[...session.truth.left.ic, ...session.truth.right.ic].filter((t) => t >= b.startS)));
+  const initiation = (t: number) => session.truth.bouts.some((b, i) => t >= b.startS && t < firstIc[i]!);
+  const score = (kind: "ic" | "fc", side: Side) => {
+    const truth = session.truth[side][kind];
+    const detected = kind === "ic" ? analysis.events[side].initialContacts : analysis.events[side].finalContacts;
+    return scoreEvents(detected, truth.filter((t) => !initiation(t)), truth.filter(initiation));
+  };
+  const cadenceTruth = session.truth.summary.cadenceStepsPerMin;
+  const cadenceAnalysis = analysis.metrics.cadenceStepsPerMin;
+  const result: CaseResult = {
+    name,
+    ic: { left: score("ic", "left"), right: score("ic", "right") },
+    fc: { left: score("fc", "left"), right: score("fc", "right") },
+    cadenceTruth,
+    cadenceAnalysis,
+    cadenceErrPct: cadenceAnalysis === null ? null : (100 * (cadenceAnalysis - cadenceTruth)) / cadenceTruth,
+    cadenceSteps: analysis.metrics.counts?.cadenceStepsPerMin ?? null,
+    truthStrides: session.truth.summary.strideCount,
+    steadyStrides: analysis.metrics.steadyStrideCount,
+    speedTruth: session.truth.summary.walkingSpeedMPerS,
+    speedAnalysis: analysis.metrics.walkingSpeedMPerS ?? null,
+  };
+  results.push(result);
+  return { session, analysis, result };
+}
+
+function expectKeeps(result: CaseResult): void {
+  for (const side of ["left", "right"] as const) {
+    expect(result.ic[side].f1, `${result.name}: ${side} IC F1`).toBeGreaterThanOrEqual(F1_MIN);
+    expect(result.fc[side].f1, `${result.name}: ${side} FC F1`).toBeGreaterThanOrEqual(F1_MIN);
+  }
+  expect(result.cadenceAnalysis, `${result.name}: cadence`).not.toBeNull();
+  expect(Math.abs(result.cadenceErrPct!), `${result.name}: cadence error %`).toBeLessThanOrEqual(CADENCE_TOL_PCT);
+}
+
+/** Invented sessions: each a scenario of the kinematic model (seeded, deterministic). */
+const CASES: Record<string, KinematicOptions> = {
+  "normal gait, 1.1 s strides": { seed: 11, bouts: [{ durationS: 60 }] },
+  "stride-time CV 6 %": { seed: 12, bouts: [{ durationS: 70 }], strideTimeCvPct: 6 },
+  "knee hyperextension 12° in stance (left)": { seed: 15, bouts: [{ durationS: 60 }], legs: { left: { hyperextensionDeg: 12 } } },
+  "circumduction 15° (right)": { seed: 16, bouts: [{ durationS: 60, strideTimeS: 1.4 }], legs: { right: { circumductionDeg: 15 } } },
+  "shuffling (ROM × 0.45, stance 72 %)": { seed: 17, bouts: [{ durationS: 60, strideTimeS: 1.0, romScale: 0.45 }], stanceFraction: 0.72 },
+};
+
+/**
+ * Cases the current detector does not yet meet (strict targets, unchanged). Each keeps the reason seen
+ * when it was written, so a detector change that fixes it shows up as these tests passing.
+ *  - bouts / 2:1 at 1.8–2.0 s strides: ICs land ≈ 100–115 ms after the model's heel contact. The first
+ *    minimum of shank ω after mid-swing is the loading-response minimum (knee flexing under load,
+ *    Winter 1991), ≈ 5 % of the cycle after contact, so its delay grows with stride time.
+ *  - stiff knee / hemiparetic: reduced knee flexion before toe-off leaves no distinct ω minimum at FC;
+ *    detected FCs fall ≈ 145 ms early and every stride is dropped for event order.
+ *  - festination-like episodes: events are kept (F1 1.0) but the short strides are dropped as
+ *    out-of-range or event-order (IC late + FC early overlap the short double support), so cadence
+ *    comes from the normal strides only (−17 %).
+ */
+const PENDING_CASES: Record<string, KinematicOptions> = {
+  "three bouts at 1.0 / 1.4 / 2.0 s strides": {
+    seed: 13,
+    bouts: [
+      { durationS: 30, strideTimeS: 1.0 },
+      { durationS: 35, strideTimeS: 1.4, romScale: 0.8 },
+      { durationS: 45, strideTimeS: 2.0, romScale: 0.65 },
+    ],
+  },
+  "stiff knee (swing flexion × 0.4, both legs)": {
+    seed: 14,
+    bouts: [{ durationS: 60, strideTimeS: 1.3 }],
+    legs: { left: { swingKneeScale: 0.4 }, right: { swingKneeScale: 0.4 } },
+  },
+  "hemiparetic (left: slow long swing, stiff knee; arm held still)": {
+    seed: 18,
+    bouts: [{ durationS: 80, strideTimeS: 1.7 }],
+    stepFraction: 0.45,
+    legs: { left: { stanceFraction: 0.55, swingKneeScale: 0.5, romScale: 0.7 }, right: { stanceFraction: 0.74, romScale: 0.85 } },
+    arms: { heldStill: ["left"] },
+  },
+  "2:1 arms, mirrored wrist, wrist clock 150 ms late, shanks misaligned 20°": {
+    seed: 19,
+    bouts: [{ durationS: 70, strideTimeS: 1.8, romScale: 0.7 }],
+    arms: { coupling: "2:1", wear: { right: "mirrored" } },
+    clockOffsetS: { left_wrist: 0.15 },
+    misalignmentDeg: { left_shank: 20, right_shank: 20 },
+  },
+  "festination-like episodes (stride × 0.6, ROM × 0.5, CV 8 %)": {
+    seed: 32,
+    bouts: [{ durationS: 80, strideTimeS: 1.2 }],
+    shortStrideEpisodes: [
+      { startS: 15, durationS: 15 },
+      { startS: 50, durationS: 15 },
+    ],
+  },
+};
+
+const SLOW_CASES: Record<string, KinematicOptions> = {
+  "very slow, 40 steps/min (3.0 s strides, stance 75 %)": {
+    seed: 21,
+    bouts: [{ durationS: 120, strideTimeS: 3.0, romScale: 0.55 }],
+    stanceFraction: 0.75,
+    arms: { coupling: "none" },
+  },
+  "very slow, 35 steps/min (3.43 s strides, stance 78 %)": {
+    seed: 22,
+    bouts: [{ durationS: 130, strideTimeS: 120 / 35, romScale: 0.5 }],
+    stanceFraction: 0.78,
+    arms: { coupling: "none" },
+  },
+};
+
+const IRREGULAR_CASES: Record<string, KinematicOptions> = {
+  "hesitations of 1, 2 and 3 s inside a bout": {
+    seed: 31,
+    bouts: [{ durationS: 75, strideTimeS: 1.3 }],
+    hesitations: [
+      { atS: 15, durationS: 1 },
+      { atS: 35, durationS: 2 },
+      { atS: 55, durationS: 3 },
+    ],
+  },
+  "short quick irregular strides throughout (0.75 s, ROM × 0.45, CV 7 %)": {
+    seed: 33,
+    bouts: [{ durationS: 60, strideTimeS: 0.75, romScale: 0.45, strideTimeCvPct: 7 }],
+    stanceFraction: 0.64,
+  },
+};
+
+afterAll(() => {
+  const f = (x: number, d = 0) => (Number.isFinite(x) ? x.toFixed(d) : "–");
+  const rows = results.map((r) => {
+    const ev = (s: EventScore) => `${f(s.f1, 3)} ${s.matched}/${s.truth}/${s.detected} ${f(s.biasMs)}/${f(s.medianAbsMs)}`;
+    return [
+      r.name.slice(0, 58).padEnd(58),
+      ev(r.ic.left).padEnd(24),
+      ev(r.ic.right).padEnd(24),
+      ev(r.fc.left).padEnd(24),
+      ev(r.fc.right).padEnd(24),
+      `${f(r.cadenceTruth, 1)} ${r.cadenceAnalysis === null ? "–" : f(r.cadenceAnalysis, 1)} ${r.cadenceErrPct === null ? "–" : f(r.cadenceErrPct, 2)}% n=${r.cadenceSteps ?? "–"}`.padEnd(28),
+      `${r.truthStrides}/${r.steadyStrides}`.padEnd(9),
+      `${f(r.speedTruth, 2)} ${r.speedAnalysis === null ? "–" : f(r.speedAnalysis, 2)}`,
+    ].join(" | ");
+  });
+  const head = [
+    "case".padEnd(58),
+    "IC left F1 m/t/d bias/med ms".padEnd(24),
+    "IC right".padEnd(24),
+    "FC left".padEnd(24),
+    "FC right".padEnd(24),
+    "cadence model/analysis err".padEnd(28),
+    "strides model/steady".padEnd(9),
+    "speed m/s model analysis (not asserted)",
+  ].join(" | ");
+  console.log(["kinematic cases (m/t/d = matched / model contacts / detections; bias = mean detected − model)", head, ...rows].join("\n"));
+});
+
+describe("analyze(recordings) on kinematic sessions: normal and pathological gait", () => {
+  for (const [name, options] of Object.entries(CASES)) {
+    it(`keeps events (F1 ≥ 0.95, ±100 ms) and cadence (± 2 %): ${name}`, () => expectKeeps(runCase(name, options).result));
+  }
+});
+
+describe("analyze(recordings) on kinematic sessions: very slow walks, 35–40 steps/min", () => {
+  for (const [name, options] of Object.entries(SLOW_CASES)) {
+    it(`keeps strides, events and cadence: ${name}`, () => {
+      const { result } = runCase(name, options);
+      expect(result.steadyStrides, `${name}: steady strides`).toBeGreaterThanOrEqual(0.8 * result.truthStrides);
+      expectKeeps(result);
+    });
+  }
+});
+
+describe("analyze(recordings) on kinematic sessions: hesitations and short irregular strides", () => {
+  for (const [name, options] of Object.entries(IRREGULAR_CASES)) {
+    it(`keeps events and cadence: ${name}`, () => expectKeeps(runCase(name, options).result));
+  }
+});
+
+describe("analyze(recordings) on kinematic sessions the detector does not handle yet (strict targets)", () => {
+  for (const [name, options] of Object.entries(PENDING_CASES)) {
+    it(`keeps events and cadence: ${name}`, () => expectKeeps(runCase(name, options).result));
+  }
+});
