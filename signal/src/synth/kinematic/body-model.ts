@@ -5,7 +5,10 @@ import { monotoneCubic, type MonotoneCubic } from "./monotone-cubic";
 
 const RAD = Math.PI / 180;
 
-/** Segment lengths, m, from standing height H with Winter's (2009) anthropometric proportions. */
+/**
+ * Segment lengths, m, from standing height H: proportions after Drillis & Contini (1966) as reproduced in
+ * Winter's anthropometry chapter (not re-checked against the source; approximation).
+ */
 export interface SegmentLengths {
   /** Hip-joint centre to knee: 0.245 H. */
   thighM: number;
