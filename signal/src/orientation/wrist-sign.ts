@@ -20,6 +20,10 @@ export const MIN_FORWARD_CUE_STEPS = 10;
 export const MIN_FORWARD_CUE_M_S2 = 0.1;
 /** |cos| of the angle between a nominal axis and the measured direction needed to call it (60°, common practice). */
 export const AXIS_CALL_COS = 0.5;
+/** Heel-strike impacts at the wrist: acceleration above this (Hz) forms the impact envelope (common practice). */
+export const IMPACT_HIGH_PASS_HZ = 8;
+/** The impact lag is used only when the envelope at the best lag is this many times its median over lags (common practice). */
+export const MIN_IMPACT_LAG_CONTRAST = 1.5;
 /** Low-pass (Hz, zero phase) for the forward-cue regression: above the step rhythm's main harmonics, below impact ringing (common practice). */
 export const CUE_LOW_PASS_HZ = 5;
 const DEG = Math.PI / 180;
@@ -42,6 +46,8 @@ export interface WristOrientation {
   forwardCue: { meanM_S2: number; t: number; stepCount: number } | null;
   /** Share of band-passed gyro variance on the swing axis. */
   explainedVariance: number;
+  /** Lag (s) of the wrist's own heel-strike impacts after the legs' ICs, used to time the cue; null when not found. */
+  impactLagS: number | null;
 }
 
 export interface WristSignInput {
@@ -80,6 +86,8 @@ export interface WristSignInput {
  * 18:1). So a_f is regressed on [1, sin θ, α], and for each IC (either leg) d = mean residual over
  * the half step before IC − over the half step after. mean(d) > 0 means f is forward. The sign is
  * decided only when |t| = |mean d| / (SD d / √K) ≥ 3 over K ≥ 10 steps and |mean d| ≥ 0.1 m/s²
+ * (ICs shifted by the lag of the wrist's own heel-strike impacts when those stand out, so neither a
+ * wrist clock offset nor the shank detector's latency can reverse the contrast)
  * (all columns and a_f low-passed alike at 5 Hz first); otherwise it falls back on
  * the nominal axes (the sensor's +x taken as forward, corrected for upside-down wear by gravity)
  * and `verified` is false. The expected arm–leg phase is never used.
@@ -122,7 +130,12 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
   normalise(right);
   const forward = cross(up, right);
 
-  const forwardCue = bodyForwardCue(gyro, acc, right, forward, up, input);
+  // Time the cue by the wrist's own heel-strike impacts: the leg ICs are detected on the shanks (with
+  // their own latency) and the wrist clock may be off; a timing error beyond a quarter step would
+  // reverse the before/after contrast. The lag is defined modulo one step, as is the cue.
+  const impactLagS = impactLag(acc, input);
+  const contacts = impactLagS === null ? input.initialContactsS : input.initialContactsS.map((t) => t + impactLagS);
+  const forwardCue = bodyForwardCue(gyro, acc, right, forward, up, { ...input, initialContactsS: contacts });
   const nominalX: Vec3 = [1, 0, 0];
   const upsideDown = up[1] >= AXIS_CALL_COS ? false : up[1] <= -AXIS_CALL_COS ? true : null;
   let sign: 1 | -1;
@@ -146,7 +159,40 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
     flippedFromNominal: rightAxis[2] < 0,
     forwardCue: forwardCue && { ...forwardCue, t: sign * forwardCue.t, meanM_S2: sign * forwardCue.meanM_S2 },
     explainedVariance: pc.explainedVariance,
+    impactLagS,
   };
+}
+
+/**
+ * Lag in [−step/2, step/2) that maximises the mean of the wrist's impact envelope (high-passed
+ * acceleration magnitude, 8 Hz, orientation-free) sampled at IC + lag over all ICs in the mask.
+ * Null when the best lag does not stand out (contrast < 1.5 × the median over lags).
+ */
+function impactLag(acc: readonly Float64Array[], input: WristSignInput): number | null {
+  const fs = input.sampleRateHz;
+  const n = input.mask.length;
+  if (IMPACT_HIGH_PASS_HZ >= 0.45 * fs) return null;
+  const envelope = new Float64Array(n);
+  for (const a of acc) {
+    const slow = lowPassZeroPhase(a, fs, IMPACT_HIGH_PASS_HZ, 4);
+    for (let i = 0; i < n; i++) envelope[i] = envelope[i]! + (a[i]! - slow[i]!) ** 2;
+  }
+  const smooth = lowPassZeroPhase(envelope.map(Math.sqrt), fs, Math.min(20, 0.4 * fs), 2);
+  const halfStep = Math.round((0.25 * fs) / input.strideFrequencyHz);
+  const ics = input.initialContactsS.map((t) => Math.round(t * fs)).filter((c) => c - halfStep >= 0 && c + halfStep < n && input.mask[c]);
+  if (ics.length < MIN_FORWARD_CUE_STEPS) return null;
+  const scores: number[] = [];
+  let best = 0;
+  for (let lag = -halfStep; lag < halfStep; lag++) {
+    let sum = 0;
+    for (const c of ics) sum += smooth[c + lag]!;
+    scores.push(sum / ics.length);
+    if (sum / ics.length > scores[best]!) best = scores.length - 1;
+  }
+  const sorted = [...scores].sort((x, y) => x - y);
+  const median = sorted[sorted.length >> 1]!;
+  if (!(scores[best]! >= MIN_IMPACT_LAG_CONTRAST * median)) return null;
+  return (best - halfStep) / fs;
 }
 
 function bodyForwardCue(
