@@ -4,6 +4,7 @@ import { detectCoordinationEvents, type CoordinationEvent } from "./coordination
 import { CLINICAL_CAUTIONS } from "./cautions";
 import { bandNote, bandsFor, type BandPopulation } from "./reference-bands";
 import { gatePhaseSeries } from "./phase-gate";
+import { gateFewStrides } from "./few-strides";
 import { importantChangeFor, type Baseline, type ImportantChange, type Mdc } from "./reliability";
 import type { MetricDirection } from "./metric-catalog";
 
@@ -11,6 +12,8 @@ export interface TrendPointInput {
   sessionId: string;
   recordedAt: string;
   value: number;
+  /** Strides (or steps, arm cycles) behind the value; variability values with too few are not compared. */
+  n?: number | null;
 }
 
 export interface AnnotateTrendsInput {
@@ -89,7 +92,8 @@ export function annotateTrends(input: AnnotateTrendsInput): AnnotatedTrends {
   const visible = visibility(options.visibleFrom, options.visibleTo);
   const age = ageAt(patient.birthYear, input.metrics);
   // A mean relative phase is compared only where its session's coupling strength shows a real phase relation.
-  const gated = gatePhaseSeries(input.metrics);
+  // Variability from too few strides is shown but not compared (few-strides.ts).
+  const gated = gateFewStrides(gatePhaseSeries(input.metrics));
   const metrics = gated.map((m): AnnotatedMetric => {
     const change = flagMetricChanges(m.key, m.points, patient.condition, options);
     return {

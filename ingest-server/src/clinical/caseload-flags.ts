@@ -4,13 +4,22 @@
  *
  * Order (most urgent first; our ordering, common practice): a metric worse than baseline beyond its
  * MDC; a coordination event (left–right PCI rise, arm–leg coupling drop, arm–leg mode change not
- * explained by pace); an arm–leg phase shift; anything unrecognised; an improvement. Each flag is a
+ * explained by pace); an arm–leg phase shift; a value not compared for too few strides; anything
+ * unrecognised; an improvement. Each flag is a
  * prompt to look at the recording and the patient, not a diagnosis.
  */
 import { metricDefinition } from "../metrics/metric-catalog";
 import { resolveMetricKey, type ArmLegPair } from "./metric-catalog";
 
-export type CaseloadFlagKind = "worsened" | "left-right-coordination" | "coupling-drop" | "coordination-change" | "phase-shift" | "other" | "improved";
+export type CaseloadFlagKind =
+  | "worsened"
+  | "left-right-coordination"
+  | "coupling-drop"
+  | "coordination-change"
+  | "phase-shift"
+  | "few-strides"
+  | "other"
+  | "improved";
 
 export interface CaseloadFlagInput {
   metricKey: string;
@@ -32,6 +41,7 @@ export const CASELOAD_FLAG_SEVERITY: Record<CaseloadFlagKind, number> = {
   "coupling-drop": 40,
   "coordination-change": 40,
   "phase-shift": 30,
+  "few-strides": 25,
   other: 20,
   improved: 10,
 };
@@ -61,6 +71,8 @@ export function describeCaseloadFlag(f: CaseloadFlagInput): DescribedCaseloadFla
       return of("improved", `${metricName(f.metricKey)} better than baseline`);
     case "changed":
       return of("phase-shift", `Arm–leg phase shifted${pairWords(f.metricKey)}`);
+    case "few-strides":
+      return of("few-strides", `${metricName(f.metricKey)} not compared: too few strides`);
     case "pci-rise":
       return of("left-right-coordination", "Left–right coordination (PCI) worse than baseline");
     case "coupling-drop":

@@ -30,8 +30,10 @@ export interface SeriesPoint {
   sessionId: string;
   recordedAt: string;
   value: number;
-  /** Why this point is shown but not compared (e.g. "weak-coupling"). */
+  /** Why this point is shown but not compared (e.g. "weak-coupling", "few-strides"). */
   excludedReason?: string;
+  /** Strides (or steps, arm cycles) behind the value, when the analysis reported it. */
+  n?: number | null;
 }
 
 export interface FlaggedPoint extends SeriesPoint {

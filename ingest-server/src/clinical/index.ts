@@ -4,6 +4,7 @@ export * from "./caseload-flags";
 export * from "./cautions";
 export * from "./change-flags";
 export * from "./coordination-events";
+export * from "./few-strides";
 export * from "./iso-week";
 export * from "./metric-catalog";
 export * from "./phase-gate";

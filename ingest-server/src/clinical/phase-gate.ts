@@ -5,9 +5,10 @@
  * "mean" is noise. The signal already leaves the phase out when coupling is low; this gate applies
  * the same idea on the server, per session, with a stated test: the Rayleigh test of the session's
  * coupling strength R (statistics.ts `rayleighP`, Zar's approximation) must reject uniform phases
- * at p < 0.05. The number of independent phase observations is taken as the session's steady
- * stride count (one relative phase per stride cycle: common practice, since samples within a cycle
- * are not independent); without a count, 10 strides — the fewest for which the signal reports R.
+ * at p < 0.05. The number of independent phase observations is the count behind the phase value
+ * (`n`, arm cycles) or else the session's steady stride count (one relative phase per cycle: common
+ * practice, since samples within a cycle are not independent); without either, 10 — the fewest
+ * strides for which the signal reports R.
  * A phase point that fails, or has no R, is kept for display with `excludedReason` and takes no
  * part in baselines, MDC or flags.
  */
@@ -50,7 +51,8 @@ export function gatePhaseSeries<T extends KeyedSeries>(metrics: readonly T[]): T
     });
     const rBySession = new Map(coupling?.points.map((p) => [p.sessionId, p.value]) ?? []);
     const points = m.points.map((p) => {
-      const reason = phaseExclusion(rBySession.get(p.sessionId), strides.get(p.sessionId));
+      const n = typeof p.n === "number" && Number.isFinite(p.n) ? p.n : strides.get(p.sessionId);
+      const reason = phaseExclusion(rBySession.get(p.sessionId), n);
       return reason ? { ...p, excludedReason: reason } : p;
     });
     return { ...m, points };

@@ -104,6 +104,8 @@ function latestSessionFlags(p: PatientRow, rows: Awaited<ReturnType<typeof trend
   for (const m of annotated.metrics) {
     const last = m.points.at(-1);
     if (last && last.sessionId === latestSessionId && (last.flag === "improved" || last.flag === "worsened")) out.push({ metricKey: m.key, flag: last.flag });
+    // A variability value from too few strides was not compared: say so rather than stay silent.
+    else if (last && last.sessionId === latestSessionId && last.excludedReason === "few-strides") out.push({ metricKey: m.key, flag: "few-strides" });
   }
   for (const e of annotated.events) if (e.sessionId === latestSessionId) out.push({ metricKey: e.metricKey, flag: e.kind });
   // Named in words with a severity, most urgent first (clinical/caseload-flags.ts).
