@@ -1,8 +1,9 @@
 /**
  * Sessions with too few strides behind a variability value are shown but not compared.
  *
- * Galna et al. 2013 (Gait & Posture 37:580; DOMAIN.md §7) found that stride-to-stride variability
- * needs at least 30 continuous steps to be consistent. The count each trend point carries (`n`, the
+ * Galna, Lord & Rochester 2013 (Gait & Posture; abstract: older adults and early Parkinson's
+ * disease, a week apart) recommend a continuous walk and "no fewer than 30 steps" for reliable
+ * gait variability, most of the gain coming over the first 30 steps. The count each trend point carries (`n`, the
  * strides or steps the analysis used) is compared with that: a pooled left+right stride count needs
  * 30 (each stride ends at one step, so 30 strides span at least 30 steps); a one-side count needs 15
  * (15 strides of one foot span 30 steps). Points below it get `excludedReason: "few-strides"`, so
