@@ -13,6 +13,8 @@ export interface SeriesPoint {
   t: Date;
   v: number;
   flag?: PointFlag;
+  /** Extra words for the point's tooltip (e.g. "n = 42 strides; walking aid: cane"). */
+  note?: string;
 }
 
 export interface ChartSeries {
@@ -133,7 +135,7 @@ function Chart({ width, height, ariaLabel, series, bands = [], markers = [], xDo
                 data-flag={p.flag ?? "none"}
               >
                 <FlagGlyph flag={p.flag} x={x(p.t)} y={y(p.v)} color={s.color} />
-                <title>{`${s.label}: ${formatY ? formatY(p.v) : p.v.toFixed(1)} on ${p.t.toLocaleDateString()}${p.flag ? ` (${p.flag.replace("-", " ")})` : ""}`}</title>
+                <title>{`${s.label}: ${formatY ? formatY(p.v) : p.v.toFixed(1)} on ${p.t.toLocaleDateString()}${p.flag ? ` (${p.flag.replace("-", " ")})` : ""}${p.note ? `; ${p.note}` : ""}`}</title>
               </g>
             ))}
           </g>

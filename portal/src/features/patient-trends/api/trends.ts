@@ -1,6 +1,7 @@
-import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
+import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from "@tanstack/react-query";
 import { z } from "zod";
-import { api } from "@/lib/api-client";
+import { HEIGHT_CM_RANGE, patientUpdate, type PatientUpdate } from "@pendula/ingest-server/contracts";
+import { api, request } from "@/lib/api-client";
 
 // GET /api/patients/:id/trends (ingest-server/src/contracts/trends.ts) with the clinical-change
 // annotations (ingest-server/src/clinical/annotate-trends.ts): bands with citations, MDC, slope
@@ -13,6 +14,9 @@ export const trendPointSchema = z.object({
   value: z.number(),
   flag: z.string().optional(),
   baseline: z.boolean().optional(),
+  /** Strides/steps/arm cycles behind the value (metric's countNoun says which). */
+  n: z.number().nullish(),
+  walkingAid: z.string().nullish(),
 });
 
 export const bandSchema = z.object({
@@ -44,6 +48,7 @@ export const trendMetricSchema = z.object({
   key: z.string(),
   unit: z.string(),
   label: z.string().optional(),
+  countNoun: z.string().optional(),
   points: z.array(trendPointSchema),
   bands: z.array(bandSchema).optional(),
   mdc: mdcSchema.nullish(),
@@ -79,6 +84,7 @@ export const patientDetailSchema = z.object({
   condition: z.string().optional(),
   conditionDetail: z.string().nullish(),
   expectedUploadsPerWeek: z.number().optional(),
+  heightCm: z.number().nullish(),
 });
 export type PatientDetail = z.infer<typeof patientDetailSchema>;
 
@@ -91,7 +97,11 @@ export const patientSessionSchema = z.object({
   cadenceStepsPerMin: z.number().nullish(),
   strideTimeCvPct: z.number().nullish(),
   phaseCoordinationIndexPct: z.number().nullish(),
+  walkingSpeedMPerS: z.number().nullish(),
+  strideLengthM: z.number().nullish(),
+  walkingAid: z.string().nullish(),
 });
+export type PatientSession = z.infer<typeof patientSessionSchema>;
 
 export const trendsKeys = {
   all: ["patient-trends"] as const,
@@ -119,3 +129,18 @@ export const patientSessionsQueryOptions = (id: string) =>
 export const usePatientDetail = (id: string) => useSuspenseQuery(patientDetailQueryOptions(id));
 export const useTrends = (id: string) => useSuspenseQuery(trendsQueryOptions(id));
 export const usePatientSessions = (id: string) => useSuspenseQuery(patientSessionsQueryOptions(id));
+
+export { HEIGHT_CM_RANGE, patientUpdate, type PatientUpdate };
+
+/** PATCH /api/patients/:id (ingest-server/src/contracts/patients.ts `patientUpdate`): the patient's height. */
+export const updatePatient = (id: string, input: PatientUpdate) =>
+  request(`/patients/${enc(id)}`, { method: "PATCH", body: input, schema: patientDetailSchema });
+
+export function useUpdatePatient(id: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: PatientUpdate) => updatePatient(id, input),
+    onSuccess: (detail) => queryClient.setQueryData(trendsKeys.detail(id), detail),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: trendsKeys.detail(id) }),
+  });
+}

@@ -7,6 +7,9 @@ import { FAMILIES, familyOf } from "../api/metric-families";
 import { usePatientDetail, usePatientSessions, useTrends, type CoordinationEvent, type TrendMetric } from "../api/trends";
 import { DEFAULT_CAUTIONS, SHORT_CAUTION } from "./flag-badge";
 import { TrendFamilyCard } from "./trend-family-card";
+import { PatientHeightForm } from "./patient-height-form";
+import { WalkingAidStrip, walkingAidMarkers, walkingAidRuns } from "./walking-aid-strip";
+import { walkingAidLabel } from "@/lib/walking-aid";
 
 const CONDITION_LABEL: Record<string, string> = { incomplete_sci: "Incomplete SCI", stroke: "Stroke", parkinsons: "Parkinson's disease", other: "Other" };
 const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: "numeric", month: "short", year: "numeric" });
@@ -38,7 +41,9 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
   const events: CoordinationEvent[] = trends.events ?? [];
   // The full cautions appear once above the charts; each card repeats the short form beside its flags.
   const cautions = trends.cautions?.length ? trends.cautions : DEFAULT_CAUTIONS;
-  const domain = sharedDomain(trends.metrics, markers);
+  const aidRuns = walkingAidRuns(sessions.items);
+  const chartMarkers = [...markers, ...walkingAidMarkers(aidRuns)];
+  const domain = sharedDomain(trends.metrics, chartMarkers);
   const byFamily = FAMILIES.map((f) => ({
     family: f,
     metrics: trends.metrics.filter((m) => familyOf(m.key) === f.id),
@@ -59,6 +64,10 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
           .filter(Boolean)
           .join(" · ")}
       </PageHeader>
+      <p className="print-only mb-2 text-sm">Height: {patient.heightCm != null ? `${patient.heightCm} cm` : "not entered"}.</p>
+      <div className="card mb-6 p-4">
+        <PatientHeightForm key={String(patient.heightCm ?? "")} patientId={patientId} heightCm={patient.heightCm} />
+      </div>
       <p className="print-only mb-4 text-sm">Trend report printed {new Date().toLocaleString()}. Pendula supports clinical judgement; it does not diagnose.</p>
 
       <details className="no-print mb-6 rounded-lg border border-line bg-paper p-3 text-sm">
@@ -69,7 +78,8 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
           <li>◆ open: change within measurement error</li>
           <li>● small: no flag (baseline or not assessed)</li>
           <li>Shaded bands: published reference ranges, numbered and sourced under each chart</li>
-          <li>Dotted lines — N: clinician note, T: training, E: coordination event</li>
+          <li>Dotted lines — N: clinician note, T: training, E: coordination event, A: walking aid changed</li>
+          <li>Hover a point for the number of strides behind it and the walking aid of that session</li>
         </ul>
         <p className="mt-2">Select a point, or a row in the session list, to open that session.</p>
       </details>
@@ -93,12 +103,18 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
               family={family}
               metrics={metrics}
               events={events.filter((e) => e.metricKey && familyOf(e.metricKey) === family.id)}
-              markers={markers}
+              markers={chartMarkers}
               xDomain={domain}
               cautions={SHORT_CAUTION}
               onOpenSession={openSession}
             />
           ))}
+          <section aria-labelledby="walking-aid-heading" className="card p-4 sm:p-5">
+            <h3 id="walking-aid-heading" className="mb-2 text-base font-bold">
+              Walking aid
+            </h3>
+            <WalkingAidStrip runs={aidRuns} />
+          </section>
         </div>
       )}
 
@@ -113,9 +129,11 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
               <tr>
                 <Th>Recorded</Th>
                 <Th>Status</Th>
+                <Th>Walking speed</Th>
                 <Th>Cadence</Th>
                 <Th>Stride-time CV</Th>
                 <Th>PCI</Th>
+                <Th>Walking aid</Th>
               </tr>
             </thead>
             <tbody>
@@ -131,9 +149,11 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
                     <Td>
                       {s.status === "done" ? <Badge tone="good">Processed</Badge> : s.status === "failed" ? <Badge tone="alert">Failed</Badge> : <Badge tone="info">{s.status === "queued" ? "Queued" : "Processing"}</Badge>}
                     </Td>
+                    <Td className="tabular">{s.walkingSpeedMPerS != null ? `${s.walkingSpeedMPerS.toFixed(2)} m/s` : "—"}</Td>
                     <Td className="tabular">{s.cadenceStepsPerMin != null ? `${s.cadenceStepsPerMin.toFixed(1)} steps/min` : "—"}</Td>
                     <Td className="tabular">{s.strideTimeCvPct != null ? `${s.strideTimeCvPct.toFixed(2)} %` : "—"}</Td>
                     <Td className="tabular">{s.phaseCoordinationIndexPct != null ? `${s.phaseCoordinationIndexPct.toFixed(1)} %` : "—"}</Td>
+                    <Td>{walkingAidLabel(s.walkingAid)}</Td>
                   </tr>
                 ))}
             </tbody>

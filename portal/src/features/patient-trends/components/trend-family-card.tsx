@@ -3,14 +3,23 @@ import { TimeSeriesChart, type ChartMarker, type ChartSeries, type PointFlag } f
 import type { CoordinationEvent, TrendBand, TrendMetric } from "../api/trends";
 import { metricLabel, seriesColor, type FamilyInfo } from "../api/metric-families";
 import { FlagBadge } from "./flag-badge";
+import { walkingAidLabel } from "@/lib/walking-aid";
 
 const asFlag = (f: string | undefined): PointFlag | undefined => (f === "improved" || f === "worsened" || f === "within-error" ? f : undefined);
 const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: "numeric", month: "short", year: "numeric" });
 
+const displayUnit = (rawUnit: string) => (rawUnit === "/min" ? "steps/min" : rawUnit === "deg" ? "°" : rawUnit);
+
 function fmt(v: number, rawUnit: string) {
-  const unit = rawUnit === "/min" ? "steps/min" : rawUnit;
+  const unit = displayUnit(rawUnit);
   const digits = Math.abs(v) >= 20 ? 1 : 2;
+  if (unit === "°") return `${v.toFixed(digits)}°`;
   return `${v.toFixed(digits)}${unit && unit !== "1" ? ` ${unit}` : ""}`;
+}
+
+/** "n = 36 strides" for one trend point, or null when the server sent no count. */
+export function countWords(n: number | null | undefined, noun: string | undefined): string | null {
+  return typeof n === "number" ? `n = ${n} ${noun ?? "strides"}` : null;
 }
 
 export interface TrendFamilyCardProps {
@@ -25,14 +34,21 @@ export interface TrendFamilyCardProps {
 
 export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cautions, onOpenSession }: TrendFamilyCardProps) {
   const rawUnit = metrics[0]?.unit ?? "";
-  const unit = rawUnit === "/min" ? "steps/min" : rawUnit;
+  const unit = displayUnit(rawUnit);
   const series: ChartSeries[] = metrics.map((m, i) => ({
     id: m.key,
     label: metricLabel(m.key, m.label),
     color: seriesColor(i),
     dashed: i % 2 === 1,
     points: m.points
-      .map((p) => ({ key: `${m.key}-${p.sessionId}`, t: new Date(p.recordedAt), v: p.value, flag: asFlag(p.flag), sessionId: p.sessionId }))
+      .map((p) => ({
+        key: `${m.key}-${p.sessionId}`,
+        t: new Date(p.recordedAt),
+        v: p.value,
+        flag: asFlag(p.flag),
+        sessionId: p.sessionId,
+        note: [countWords(p.n, m.countNoun), p.walkingAid !== undefined ? `walking aid: ${walkingAidLabel(p.walkingAid)}` : null].filter(Boolean).join("; ") || undefined,
+      }))
       .sort((a, b) => a.t.getTime() - b.t.getTime()),
   }));
   // Bands are shown once even when several series (left/right) share them.
@@ -85,6 +101,20 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
           }}
         />
       )}
+
+      <ul className="mt-2 flex flex-col gap-0.5 text-sm" aria-label={`${family.title}, latest values`}>
+        {metrics.map((m) => {
+          const last = [...m.points].sort((a, b) => a.recordedAt.localeCompare(b.recordedAt)).at(-1);
+          if (!last) return null;
+          const n = countWords(last.n, m.countNoun);
+          return (
+            <li key={m.key}>
+              <span className="font-semibold">{metricLabel(m.key, m.label)}, latest:</span> <span className="tabular">{fmt(last.value, m.unit)}</span> on {day(last.recordedAt)}
+              {n ? <span className="text-ink-soft"> ({n})</span> : null}
+            </li>
+          );
+        })}
+      </ul>
 
       <div className="mt-3 grid gap-3 text-sm lg:grid-cols-2">
         <div>

@@ -26,12 +26,3 @@ export const QUALITY_LABEL: Record<QualityCode, string> = {
 };
 
 export const qualityLabel = (code: string): string => QUALITY_LABEL[code as QualityCode] ?? code;
-
-/** Walking aids as the clinician picks them (server enum in db/src/enums.ts). */
-export const WALKING_AID_LABEL: Record<string, string> = {
-  none: "No aid",
-  cane: "Cane",
-  crutches: "Crutches",
-  rollator: "Rollator",
-  other: "Other aid",
-};

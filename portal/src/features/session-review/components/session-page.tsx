@@ -7,7 +7,8 @@ import { useQueries } from "@tanstack/react-query";
 import { signalQueryOptions, useSession } from "../api/session";
 import { SignalChart, type Trace } from "./signal-chart";
 import { ArmSwingSummary, CouplingCard, MetricsGrid, type MetricCounts } from "./metric-summary";
-import { qualityLabel, WALKING_AID_LABEL } from "./quality-labels";
+import { qualityLabel } from "./quality-labels";
+import { walkingAidLabel } from "@/lib/walking-aid";
 import { WalkingAidEditor } from "./walking-aid-editor";
 
 const PLACE_LABEL: Record<string, string> = {
@@ -216,7 +217,7 @@ export function SessionPage({ sessionId, notePanel, onWalkingAidSaved }: Session
         {s.durationS ? `${Math.round(s.durationS)} s recorded.` : ""}
       </PageHeader>
       <p className="print-only mb-4 text-sm">Session report printed {new Date().toLocaleString()}. Pendula supports clinical judgement; it does not diagnose.</p>
-      <p className="print-only mb-4 text-sm">Walking aid: {s.walkingAid ? (WALKING_AID_LABEL[s.walkingAid] ?? s.walkingAid) : "not recorded"}.</p>
+      <p className="print-only mb-4 text-sm">Walking aid: {walkingAidLabel(s.walkingAid)}.</p>
       <div className="card mb-6 p-4">
         <WalkingAidEditor sessionId={s.id} current={s.walkingAid} onSaved={onWalkingAidSaved ? () => onWalkingAidSaved(s.patientId) : undefined} />
       </div>

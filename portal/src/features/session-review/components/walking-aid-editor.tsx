@@ -1,9 +1,8 @@
 import { useState } from "react";
-import { WALKING_AIDS } from "@pendula/ingest-server/contracts";
 import { Button, FormMessage, SelectField } from "@/components/ui";
 import { ApiError } from "@/lib/api-client";
 import { sessionUpdate, useUpdateSession } from "../api/session";
-import { WALKING_AID_LABEL } from "./quality-labels";
+import { WALKING_AID_LABEL, WALKING_AIDS } from "@/lib/walking-aid";
 
 /** The clinician records which walking aid the person used in this test (an aid changes speed and arm swing). */
 export function WalkingAidEditor({ sessionId, current, onSaved }: { sessionId: string; current: string | null | undefined; onSaved?: () => void }) {
