@@ -69,7 +69,7 @@ export interface WristSignInput {
  * Sagittal axis and sign of a wrist sensor from physics that does not involve the arm–leg phase.
  *
  * Axis: first principal component of the gyro band-passed to 0.5–2.6 × f_stride over straight
- * walking, made horizontal by removing its component along gravity (the shoulder's flexion axis is
+ * walking, with each sample's component along gravity removed first (the shoulder's flexion axis is
  * horizontal; turns and the trunk's yaw would tilt it).
  *
  * Up: the mean accelerometer vector over the same samples (gravity dominates; it points up along
@@ -121,6 +121,12 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
   const lo = WRIST_AXIS_BAND[0] * input.strideFrequencyHz;
   const hi = Math.min(WRIST_AXIS_BAND[1] * input.strideFrequencyHz, 0.45 * fs);
   const band = gyro.map((g) => bandPassZeroPhase(g, fs, lo, hi, 2));
+  // Only rotation about horizontal axes counts: the trunk's yaw (about `up`) is removed first, so
+  // an arm that hardly swings still gets its best horizontal axis rather than the yaw axis.
+  for (let i = 0; i < n; i++) {
+    const along = band[0]![i]! * up[0] + band[1]![i]! * up[1] + band[2]![i]! * up[2];
+    for (let k = 0; k < 3; k++) band[k]![i] = band[k]![i]! - along * up[k]!;
+  }
   const pc = sagittalAxis(band[0]!, band[1]!, band[2]!, mask);
   if (!pc) return null;
   const right: Vec3 = [...pc.axis];

@@ -1,0 +1,106 @@
+import { describe, expect, it } from "vitest";
+import { analyze } from "../../analyze";
+import { type KinematicOptions, synthesizeKinematicSession } from "../../synth/kinematic";
+import type { Analysis } from "../../types";
+import { wrapPi } from "../relative-phase";
+
+// Whole-pipeline checks on the kinematic generator (segment angles from a body model, wrists with
+// their own wear, body accelerations and heel-strike impacts). Truth: the model's angle-based ψ
+// (`relativePhaseAngleDeg`) and its swing range per arm cycle; the analysis sees only the files.
+const angleErrorDeg = (a: number, b: number) => (Math.abs(wrapPi(((a - b) * Math.PI) / 180)) * 180) / Math.PI;
+
+function session(options: KinematicOptions, walkingAid?: "none" | "cane" | "crutches" | "rollator" | "other") {
+  const s = synthesizeKinematicSession({ seed: 3, placements: ["left_shank", "right_shank", "left_wrist", "right_wrist"], bouts: [{ durationS: 120 }], ...options });
+  const a = analyze(s.recordings, walkingAid ? { walkingAid } : {});
+  return { s, a };
+}
+const codes = (a: Analysis, code: string) => a.quality.filter((q) => q.code === code);
+
+describe("analyze() arm section on kinematic sessions", () => {
+  it("standard wear, 1:1 with a 40 % 2nd harmonic → ratio 1, ψ within 15° of the model's angle ψ, range within 10 %", () => {
+    const { s, a } = session({ arms: { coupling: "1:1", secondHarmonicPct: 40 } });
+    for (const [key, side] of [["leftArmRightLeg", "left"], ["rightArmLeftLeg", "right"]] as const) {
+      const c = a.metrics.armLeg[key];
+      const truth = s.truth.arms[side]!;
+      expect(c.frequencyRatio).toBe(1);
+      expect(c.couplingStrength!).toBeGreaterThan(0.9);
+      expect(angleErrorDeg(c.meanRelativePhaseDeg!, truth.relativePhaseAngleDeg!)).toBeLessThan(15);
+      expect(a.metrics.armSwing![side].amplitudeDeg! / truth.swingRangeDeg).toBeGreaterThan(0.9);
+      expect(a.metrics.armSwing![side].amplitudeDeg! / truth.swingRangeDeg).toBeLessThan(1.1);
+    }
+    expect(codes(a, "arm-sign-unverified")).toHaveLength(0);
+    expect(codes(a, "inverted-sensor")).toHaveLength(0);
+    expect(a.metrics.counts.armSwing).toBeGreaterThanOrEqual(40);
+  });
+
+  it("left watch mirrored, right upside down → both reported as inverted-sensor with the placement, ψ unchanged", () => {
+    const { s, a } = session({ arms: { coupling: "1:1", wear: { left: "mirrored", right: "upside-down" } } });
+    const inverted = codes(a, "inverted-sensor");
+    expect(inverted.map((q) => q.placement).sort()).toEqual(["left_wrist", "right_wrist"]);
+    expect(inverted.find((q) => q.placement === "left_wrist")!.message).toMatch(/turned around/);
+    expect(inverted.find((q) => q.placement === "right_wrist")!.message).toMatch(/upside down/);
+    expect(angleErrorDeg(a.metrics.armLeg.leftArmRightLeg.meanRelativePhaseDeg!, s.truth.arms.left!.relativePhaseAngleDeg!)).toBeLessThan(15);
+    expect(angleErrorDeg(a.metrics.armLeg.rightArmLeftLeg.meanRelativePhaseDeg!, s.truth.arms.right!.relativePhaseAngleDeg!)).toBeLessThan(15);
+  });
+
+  it("both wrists turned around → placement-swap, mean phases withheld with a reason, R kept", () => {
+    const { a } = session({ arms: { coupling: "1:1", wear: { left: "mirrored", right: "mirrored" } } });
+    expect(codes(a, "placement-swap")).toHaveLength(1);
+    for (const c of [a.metrics.armLeg.leftArmRightLeg, a.metrics.armLeg.rightArmLeftLeg]) {
+      expect(c.meanRelativePhaseDeg).toBeNull();
+      expect(c.reason).toMatch(/swapped/);
+      expect(c.couplingStrength!).toBeGreaterThan(0.9);
+    }
+  });
+
+  it("slow 2:1 walking → ratio 2 and the angle-based n:1 ψ within 15° of the model (the rate-based value differs by 90°)", () => {
+    const { s, a } = session({ strideTimeS: 1.8, arms: { coupling: "2:1" } });
+    const c = a.metrics.armLeg.leftArmRightLeg;
+    const truth = s.truth.arms.left!;
+    expect(c.frequencyRatio).toBe(2);
+    expect(angleErrorDeg(c.meanRelativePhaseDeg!, truth.relativePhaseAngleDeg!)).toBeLessThan(15);
+    expect(angleErrorDeg(c.meanRelativePhaseDeg!, truth.relativePhaseDeg!)).toBeGreaterThan(60);
+  });
+
+  it("reduced swing on one side → amplitudes follow the model and the asymmetry matches the symmetry-angle formula on the truth", () => {
+    const { s, a } = session({ arms: { coupling: "1:1", rangeDeg: { left: 32, right: 12 } } });
+    const l = s.truth.arms.left!.swingRangeDeg;
+    const r = s.truth.arms.right!.swingRangeDeg;
+    // Zifchock et al. 2008 symmetry angle (magnitude), applied by hand to the model's ranges.
+    const expected = (Math.abs(45 - (Math.atan(l / r) * 180) / Math.PI) / 90) * 100;
+    expect(a.metrics.armSwing!.asymmetryPct!).toBeGreaterThan(expected - 3);
+    expect(a.metrics.armSwing!.asymmetryPct!).toBeLessThan(expected + 3);
+    expect(a.metrics.armSwing!.right.amplitudeDeg!).toBeGreaterThan(0.85 * r);
+    expect(a.metrics.armSwing!.right.amplitudeDeg!).toBeLessThan(1.15 * r);
+  });
+
+  it("an arm held still (as on a cane) → no-arm-swing for that wrist, its coupling null with the reason; the other arm unaffected", () => {
+    const { s, a } = session({ arms: { coupling: "1:1", heldStill: ["left"] } });
+    const item = codes(a, "no-arm-swing");
+    expect(item.map((q) => q.placement)).toEqual(["left_wrist"]);
+    expect(a.metrics.armLeg.leftArmRightLeg).toMatchObject({ frequencyRatio: null, meanRelativePhaseDeg: null, couplingStrength: null });
+    expect(a.metrics.armLeg.leftArmRightLeg.reason).toMatch(/no arm swing/);
+    expect(a.metrics.armSwing!.left.amplitudeDeg!).toBeLessThan(5);
+    expect(angleErrorDeg(a.metrics.armLeg.rightArmLeftLeg.meanRelativePhaseDeg!, s.truth.arms.right!.relativePhaseAngleDeg!)).toBeLessThan(15);
+  });
+
+  it("walking aid recorded → both couplings null with 'walking aid used', a no-arm-swing item, amplitudes still shown", () => {
+    const { a } = session({ arms: { coupling: "1:1" } }, "rollator");
+    for (const c of [a.metrics.armLeg.leftArmRightLeg, a.metrics.armLeg.rightArmLeftLeg]) {
+      expect(c.couplingStrength).toBeNull();
+      expect(c.reason).toMatch(/walking aid used/);
+    }
+    expect(codes(a, "no-arm-swing").length).toBeGreaterThan(0);
+    expect(a.metrics.armSwing!.left.amplitudeDeg!).toBeGreaterThan(20);
+  });
+
+  // Clock alignment between a wrist and the legs belongs to the time base; this part must not be
+  // fooled by the offset (the sign is timed by the wrist's own impacts). Until the time base aligns
+  // wrists, ψ carries the offset's share of the stride: 360° × 0.1 s / stride time.
+  it("wrist clock 100 ms early → sign still right (no inverted-sensor), ψ shifted by 360°·0.1/T as documented", () => {
+    const { s, a } = session({ arms: { coupling: "1:1" }, clockOffsetS: { left_wrist: 0.1 } });
+    expect(codes(a, "inverted-sensor")).toHaveLength(0);
+    const shift = (360 * 0.1) / s.truth.summary.strideTimeMeanS;
+    expect(angleErrorDeg(a.metrics.armLeg.leftArmRightLeg.meanRelativePhaseDeg!, s.truth.arms.left!.relativePhaseAngleDeg! + shift)).toBeLessThan(15);
+  });
+});
