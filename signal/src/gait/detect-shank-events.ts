@@ -1,6 +1,13 @@
 import { lowPassZeroPhaseSegments } from "../filter/zero-phase-butterworth";
 import type { LegEvents } from "./gait-events";
-import { MS_LOW_PASS_HZ, SALARIAN_MIN_PEAK_DISTANCE_S, allMasked, findPeaks, signalRelativeThresholds } from "./mid-swing-peaks";
+import {
+  MS_LOW_PASS_HZ,
+  SALARIAN_MIN_PEAK_DISTANCE_S,
+  allMasked,
+  findPeaks,
+  mergeSwingsWithoutStance,
+  signalRelativeThresholds,
+} from "./mid-swing-peaks";
 
 /**
  * IC/FC minima are read on ω low-passed at this cut-off (Hz): strap and soft-tissue vibration and
@@ -27,7 +34,8 @@ export const SHANK_SEARCH_FRACTION_OF_STRIDE = 0.5;
  * Shank gait events by the mid-swing-peak method (Aminian et al. 2002, J Biomech 35:689; Salarian
  * et al. 2004, IEEE TBME 51:1434), made robust for impaired gait:
  * - MS = peaks of sagittal ω (forward swing positive) ≥ 0.5 s apart on a 3 Hz low-passed copy, with
- *   signal-relative thresholds (signalRelativeThresholds), re-centred on the 15 Hz copy;
+ *   signal-relative thresholds (signalRelativeThresholds), re-centred on the 15 Hz copy; two peaks
+ *   with no stance (backward rotation) between them are one swing (mergeSwingsWithoutStance);
  * - IC = the first negative minimum (below the IC threshold) after MS that ends the swing. A minimum
  *   is passed over when the shank then swings forward again — ω climbs back to swing level (the MS
  *   threshold) and faster than the backward rotation at that minimum was. That is a terminal-swing
@@ -50,7 +58,7 @@ export function detectShankEvents(omegaDegS: ArrayLike<number>, mask: Uint8Array
   const peaks = findPeaks(msSignal, mask, thr.midSwingDegS, Math.round(SALARIAN_MIN_PEAK_DISTANCE_S * fs));
   // Re-centre each MS on the less-smoothed signal (the 3 Hz copy shifts asymmetric peaks a little).
   const win = Math.round(0.1 * fs);
-  const ms = peaks.map((p) => {
+  const ms = mergeSwingsWithoutStance(peaks, msSignal, ev, mask, fs).map((p) => {
     let best = p;
     for (let i = Math.max(0, p - win); i <= Math.min(ev.length - 1, p + win); i++) if (mask[i] && ev[i]! > ev[best]!) best = i;
     return best;

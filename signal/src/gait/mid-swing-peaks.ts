@@ -63,3 +63,61 @@ export function allMasked(mask: Uint8Array, a: number, b: number): boolean {
   for (let i = Math.max(0, a); i <= b && i < mask.length; i++) if (!mask[i]) return false;
   return true;
 }
+
+/**
+ * Over one stride the shank's sagittal rotation returns to where it started: the swing rotates it
+ * forward and the stance takes that back as the tibia advances over the planted foot (DOMAIN.md,
+ * shank physics). Two mid-swing candidates with no stance between them — backward rotation
+ * (∫ max(−ω, 0) dt over the masked samples) less than this fraction of the session's median between
+ * consecutive candidates — belong to one swing (a hesitant limb's second forward bump, which at
+ * very slow cadence lies more than the 0.5 s peak distance after the first): only the taller one is
+ * kept. Half the typical stance rotation: common practice.
+ */
+export const SAME_SWING_BACKWARD_ROTATION_FRACTION = 0.5;
+
+/**
+ * Drops mid-swing candidates that share a swing with a taller neighbour (see the constant above).
+ * Backward rotation is integrated on `omegaDegS`; "taller" is read on `heightDegS` (the smoothed copy
+ * the peaks were found on, where a brief impact spike cannot outgrow the swing).
+ */
+export function mergeSwingsWithoutStance(
+  peaks: number[],
+  heightDegS: ArrayLike<number>,
+  omegaDegS: ArrayLike<number>,
+  mask: Uint8Array,
+  sampleRateHz: number,
+): number[] {
+  if (peaks.length < 3) return peaks;
+  const backwardDeg = (a: number, b: number): number | null => {
+    let sum = 0;
+    for (let i = a; i < b; i++) {
+      if (!mask[i]) return null; // a pause or gap: different bouts, never merged
+      const v = omegaDegS[i]!;
+      if (v < 0) sum -= v;
+    }
+    return sum / sampleRateHz;
+  };
+  const gaps = peaks.slice(1).map((p, k) => backwardDeg(peaks[k]!, p));
+  const typical = quantileOf(gaps.filter((g): g is number => g !== null), 0.5);
+  if (typical === null || !(typical > 0)) return peaks;
+  const limit = SAME_SWING_BACKWARD_ROTATION_FRACTION * typical;
+  const kept: number[] = [peaks[0]!];
+  for (let k = 1; k < peaks.length; k++) {
+    const p = peaks[k]!;
+    const last = kept[kept.length - 1]!;
+    const back = backwardDeg(last, p);
+    if (back !== null && back < limit) {
+      if (heightDegS[p]! > heightDegS[last]!) kept[kept.length - 1] = p;
+    } else kept.push(p);
+  }
+  return kept;
+}
+
+function quantileOf(values: number[], q: number): number | null {
+  if (values.length === 0) return null;
+  const s = [...values].sort((a, b) => a - b);
+  const pos = q * (s.length - 1);
+  const lo = Math.floor(pos);
+  const hi = Math.min(s.length - 1, lo + 1);
+  return s[lo]! + (pos - lo) * (s[hi]! - s[lo]!);
+}

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { analyze } from "../../analyze";
-import type { Analysis, Placement, Side } from "../../types";
+import type { Analysis, Placement, SensorRecording, Side } from "../../types";
 import { type EventScore, scoreEvents } from "./support/real-walk-trials";
 import {
   FEET,
@@ -102,12 +102,14 @@ function meanOf(xs: Array<number | null>): number | null {
   return v.length ? v.reduce((a, b) => a + b, 0) / v.length : null;
 }
 
-function evaluate(t: StrokeTreadmillTrial, placements: readonly Placement[], unusable: ReadonlySet<string>): TrialRow {
-  const a = analyze(t.recordings(placements));
+function evaluate(t: StrokeTreadmillTrial, placements: readonly Placement[], unusable: ReadonlySet<string>, slowBy = 1): TrialRow {
+  const recordings = t.recordings(placements);
+  const a = analyze(slowBy === 1 ? recordings : recordings.map((r) => slowedDown(r, slowBy)));
+  const back = (times: number[]) => times.map((x) => x / slowBy).filter(t.keep);
   const ref = t.reference;
   const sides = (["left", "right"] as const).map((side): SideRow => {
-    const detIc = a.events[side].initialContacts.filter(t.keep);
-    const detFc = a.events[side].finalContacts.filter(t.keep);
+    const detIc = back(a.events[side].initialContacts);
+    const detFc = back(a.events[side].finalContacts);
     const refIc = ref.events[side].ic.filter(t.keep);
     const refFc = ref.events[side].fc.filter(t.keep);
     return {
@@ -125,13 +127,48 @@ function evaluate(t: StrokeTreadmillTrial, placements: readonly Placement[], unu
   return {
     trial: t.trial,
     sides,
-    cadenceFromIcs: meanOf(usable.map((s) => cadenceOfSide(a.events[s].initialContacts.filter(t.keep)))),
-    cadenceMetric: a.metrics.cadenceStepsPerMin,
+    cadenceFromIcs: meanOf(usable.map((s) => cadenceOfSide(back(a.events[s].initialContacts)))),
+    cadenceMetric: a.metrics.cadenceStepsPerMin === null ? null : a.metrics.cadenceStepsPerMin * slowBy,
     refCadence: meanOf((["left", "right"] as const).map((s) => cadenceOfSide(ref.events[s].ic.filter(t.keep))))!,
     turns: a.turns.length,
     analysis: a,
   };
 }
+
+/**
+ * The same walk played k times slower, kept at the file's rate: every channel is linearly
+ * interpolated at t/k and angular velocity divided by k (the same segment angles covered in k times
+ * the time). Detected times are divided by k again before scoring, so the ±100 ms window and the
+ * reference keep their meaning. A check that no search window is a fixed number of seconds.
+ */
+function slowedDown(r: SensorRecording, k: number): SensorRecording {
+  const n0 = r.timeS.length;
+  const n = Math.floor((n0 - 1) * k) + 1;
+  const timeS = new Float64Array(n);
+  for (let i = 0; i < n; i++) timeS[i] = r.timeS[0]! * k + i / r.nominalSampleRateHz;
+  const stretch = (x: Float32Array, scale: number) => {
+    const out = new Float32Array(n);
+    for (let i = 0; i < n; i++) {
+      const u = i / k;
+      const j = Math.min(n0 - 2, Math.floor(u));
+      out[i] = scale * (x[j]! + (u - j) * (x[j + 1]! - x[j]!));
+    }
+    return out;
+  };
+  return {
+    ...r,
+    timeS,
+    accX: stretch(r.accX, 1),
+    accY: stretch(r.accY, 1),
+    accZ: stretch(r.accZ, 1),
+    gyroX: stretch(r.gyroX, 1 / k),
+    gyroY: stretch(r.gyroY, 1 / k),
+    gyroZ: stretch(r.gyroZ, 1 / k),
+  };
+}
+
+/** Cadence the slowed walks are brought to (steps/min): the slow end the product must handle. */
+const SLOW_CADENCE = 36;
 
 const fmt = (x: number | null, d = 1) => (x === null || !Number.isFinite(x) ? "–" : x.toFixed(d));
 
@@ -215,6 +252,34 @@ describe.skipIf(!strokeTreadmillAvailable)("stroke treadmill recordings: shank a
           expect(Math.abs(s.stancePct! - s.refStancePct!), key).toBeLessThanOrEqual((100 * 0.1) / strideS);
         }
       }
+    });
+  });
+
+  describe(`two shank sensors, the same walks slowed to ${SLOW_CADENCE} steps/min (strides ≈ 3.3 s)`, () => {
+    const rows = trials.map((t) => {
+      const refCadence = meanOf((["left", "right"] as const).map((s) => cadenceOfSide(t.reference.events[s].ic.filter(t.keep))))!;
+      return evaluate(t, SHANKS, FLAGGED_SHANK, refCadence / SLOW_CADENCE);
+    });
+
+    it("prints the per-trial table (times and cadence scaled back to the recorded walk)", () => {
+      printTable(`SHANKS ONLY, SLOWED TO ${SLOW_CADENCE} STEPS/MIN`, rows);
+      expect(rows.length).toBe(8);
+    });
+
+    it("still finds IC and FC with F1 ≥ 0.95 on every side not flagged or ambiguous", () => {
+      for (const r of rows) {
+        for (const s of r.sides) {
+          const key = `${r.trial}:${s.side}`;
+          if (FLAGGED_SHANK.has(key)) continue;
+          expect(s.fc.f1, `${key} FC`).toBeGreaterThanOrEqual(F1_TARGET);
+          if (AMBIGUOUS_REFERENCE_IC.has(key)) continue;
+          expect(s.ic.f1, `${key} IC`).toBeGreaterThanOrEqual(F1_TARGET);
+        }
+      }
+    });
+
+    it("keeps cadence from the detected ICs within 2 % of the reference", () => {
+      for (const r of rows) expect(Math.abs(r.cadenceFromIcs! / r.refCadence - 1), r.trial).toBeLessThanOrEqual(CADENCE_TOLERANCE);
     });
   });
 
