@@ -25,6 +25,7 @@ export const caseloadRowSchema = z.object({
       cadenceStepsPerMin: z.number().nullish(),
       strideTimeCvPct: z.number().nullish(),
       phaseCoordinationIndexPct: z.number().nullish(),
+      walkingSpeedMPerS: z.number().nullish(),
     })
     .optional(),
   flags: z

@@ -125,6 +125,12 @@ export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
           return <FlagList flags={flags} />;
         },
       }),
+      col.accessor((r) => r.latest?.walkingSpeedMPerS ?? null, {
+        id: "speed",
+        header: "Walking speed (m/s)",
+        sortingFn: (a, b) => nullsLast(a.getValue("speed"), b.getValue("speed")),
+        cell: (c) => <span className="tabular">{fmt(c.getValue(), 2)}</span>,
+      }),
       col.accessor((r) => r.latest?.cadenceStepsPerMin ?? null, {
         id: "cadence",
         header: "Cadence (steps/min)",
