@@ -6,7 +6,7 @@ import { bandNote, bandsFor, type BandPopulation } from "./reference-bands";
 import { gatePhaseSeries } from "./phase-gate";
 import { gateFewStrides } from "./few-strides";
 import { importantChangeFor, type Baseline, type ImportantChange, type Mdc } from "./reliability";
-import type { MetricDirection } from "./metric-catalog";
+import { resolveMetricKey, type MetricDirection } from "./metric-catalog";
 
 export interface TrendPointInput {
   sessionId: string;
@@ -51,7 +51,10 @@ export interface BandOut {
 export interface AnnotatedMetric {
   key: string;
   unit: string;
-  points: FlaggedPoint[];
+  /** Each point; speed-dependent metrics (PCI, stride-time CV) carry the session's `walkingSpeedMPerS` to read beside the value. */
+  points: (FlaggedPoint & { walkingSpeedMPerS?: number })[];
+  /** Why speed is shown beside this metric, with its source; absent for metrics that do not depend on speed. */
+  speedNote?: string;
   baseline: Baseline | null;
   mdc: Mdc | null;
   slopeFlag: SlopeFlag | null;
@@ -94,13 +97,21 @@ export function annotateTrends(input: AnnotateTrendsInput): AnnotatedTrends {
   // A mean relative phase is compared only where its session's coupling strength shows a real phase relation.
   // Variability from too few strides is shown but not compared (few-strides.ts).
   const gated = gateFewStrides(gatePhaseSeries(input.metrics));
+  const speedSeries = input.metrics.find((m) => resolveMetricKey(m.key)?.base === "walkingSpeedMPerS");
+  const speedBySession = new Map(speedSeries?.points.map((p) => [p.sessionId, p.value]) ?? []);
   const metrics = gated.map((m): AnnotatedMetric => {
     const change = flagMetricChanges(m.key, m.points, patient.condition, options);
+    const speedDependent = resolveMetricKey(m.key)?.info.speedDependent;
+    const withSpeed = (p: FlaggedPoint) => {
+      const speed = speedBySession.get(p.sessionId);
+      return speedDependent && speed !== undefined && Number.isFinite(speed) ? { ...p, walkingSpeedMPerS: speed } : p;
+    };
     return {
       key: m.key,
       unit: m.unit,
       ...change,
-      points: change.points.filter((p) => visible(p.recordedAt)),
+      points: change.points.filter((p) => visible(p.recordedAt)).map(withSpeed),
+      ...(speedDependent ? { speedNote: `Read beside walking speed: ${speedDependent.citation}.` } : {}),
       bands: bandsFor(m.key, { age, condition: patient.condition }).map(({ metric: _metric, ...band }) => ({
         ...band,
         citation: `${band.citation}, ${band.location}`,

@@ -59,6 +59,8 @@ export interface MetricInfo {
    * beyond the MDC is flagged `changed` (no better/worse direction).
    */
   circular?: boolean;
+  /** Changes with walking speed, so each point carries the session's speed to be read beside it. */
+  speedDependent?: { citation: string };
   /** Why this direction (or why none); shown in the contributor notes. */
   rationale: string;
 }
@@ -74,12 +76,14 @@ export const METRIC_INFO: Record<BaseMetric, MetricInfo> = {
     base: "strideTimeCvPct",
     family: "variability",
     direction: "higher-is-worse",
+    speedDependent: { citation: "stride-time variability falls as speed rises: Frenkel-Toledo et al. 2005, J NeuroEng Rehabil 2:23" },
     rationale: "Higher stride-to-stride variability (PD 2.24 % vs controls 1.94 %, Frenkel-Toledo 2005).",
   },
   phaseCoordinationIndexPct: {
     base: "phaseCoordinationIndexPct",
     family: "left-right-coordination",
     direction: "higher-is-worse",
+    speedDependent: { citation: "PCI rises as walking speed falls: Gimmon et al. 2018, J Aging Phys Act 26:382" },
     rationale: "Higher PCI = less consistent and less accurate left-right anti-phase (Plotnik 2007: PD > elderly > young).",
   },
   gaitAsymmetryPct: {

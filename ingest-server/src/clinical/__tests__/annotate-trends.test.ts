@@ -64,6 +64,21 @@ describe("annotateTrends", () => {
     expect(younger.metrics[0]!.bandNote).toMatch(/No published band for this patient/);
   });
 
+  it("puts the session's walking speed beside PCI and stride-time CV (speed-dependent: Gimmon 2018; Frenkel-Toledo 2005), not beside cadence", () => {
+    const r = annotateTrends({
+      patient,
+      metrics: [
+        { key: "phaseCoordinationIndexPct", unit: "%", points: weekly([4, 5]) },
+        { key: "cadenceStepsPerMin", unit: "/min", points: weekly([100, 101]) },
+        { key: "walkingSpeedMPerS", unit: "m/s", points: weekly([0.9, 1.1]) },
+      ],
+    });
+    expect(r.metrics[0]!.points.map((p) => p.walkingSpeedMPerS)).toEqual([0.9, 1.1]);
+    expect(r.metrics[0]!.speedNote).toMatch(/Gimmon et al\. 2018/);
+    expect(r.metrics[1]!.points.map((p) => p.walkingSpeedMPerS)).toEqual([undefined, undefined]);
+    expect(r.metrics[1]!.speedNote).toBeUndefined();
+  });
+
   it("filters the visible range without moving the baseline", () => {
     const points = weekly([2.1, 2.3, 2.2, 2.25, 3.5]);
     const r = annotateTrends({
