@@ -90,7 +90,8 @@ export const METRIC_INFO: Record<BaseMetric, MetricInfo> = {
     base: "gaitAsymmetryPct",
     family: "asymmetry",
     direction: "higher-is-worse",
-    rationale: "0 % is symmetric swing times; larger values are more asymmetric.",
+    rationale:
+      "GA = 100·|ln(short swing / long swing)| (formula confirmed against Yogev et al. 2007, Exp Brain Res 177:336); 0 % is symmetric swing times, larger values are more asymmetric.",
   },
   doubleSupportPct: {
     base: "doubleSupportPct",
