@@ -188,7 +188,8 @@ function detectBandExit(
   options: CoordinationOptions,
 ): CoordinationEvent[] {
   const n = options.baselineSessions ?? 3;
-  const ordered = orderSeries(points);
+  // Points shown but not compared (too few strides, weak coupling) take no part in events either.
+  const ordered = orderSeries(points).filter((p) => !p.excludedReason);
   const baseline = computeBaseline(ordered, n);
   const mdc = resolveMdc(metricKey, options.condition ?? "other", baseline);
   if (!baseline || !mdc) return [];
