@@ -10,6 +10,7 @@ export const walkSummarySchema = z.object({
   durationS: z.number().nullish(),
   cadenceStepsPerMin: z.number().nullish(),
   strideTimeCvPct: z.number().nullish(),
+  walkingSpeedMPerS: z.number().nullish(),
 });
 export type WalkSummary = z.infer<typeof walkSummarySchema>;
 

@@ -2,7 +2,7 @@ import { Link } from "react-router-dom";
 import { TimeSeriesChart } from "@/components/charts/time-series-chart";
 import { Badge, buttonClasses, EmptyState, PageHeader, Section, Table, Td, Th } from "@/components/ui";
 import { useMyWalks } from "../api/get-my-walks";
-import { progressWords } from "./progress-words";
+import { progressWords, SPEED_CAUTION } from "./progress-words";
 
 const dateWords = (iso: string) => new Date(iso).toLocaleDateString(undefined, { weekday: "short", day: "numeric", month: "long", year: "numeric" });
 
@@ -41,6 +41,8 @@ export function PatientProgress({ patientId }: { patientId: string }) {
               </p>
               {words.cadence ? <p>{words.cadence}</p> : null}
               {words.rhythm ? <p>{words.rhythm}</p> : null}
+              {words.speed ? <p>{words.speed}</p> : null}
+              {words.speed ? <p className="text-ink-soft">{SPEED_CAUTION}</p> : null}
               <p className="text-ink-soft">If anything about your walking worries you, talk to your care team. Numbers from one week alone can vary for many ordinary reasons.</p>
             </div>
           </Section>
@@ -65,6 +67,7 @@ export function PatientProgress({ patientId }: { patientId: string }) {
                 <tr>
                   <Th>Date</Th>
                   <Th>Steps per minute</Th>
+                  <Th>Walking speed</Th>
                   <Th>Status</Th>
                 </tr>
               </thead>
@@ -75,6 +78,7 @@ export function PatientProgress({ patientId }: { patientId: string }) {
                     <tr key={w.id}>
                       <Td>{dateWords(w.recordedAt)}</Td>
                       <Td className="tabular">{typeof w.cadenceStepsPerMin === "number" ? Math.round(w.cadenceStepsPerMin) : "—"}</Td>
+                      <Td className="tabular">{typeof w.walkingSpeedMPerS === "number" ? `${w.walkingSpeedMPerS.toFixed(1)} m/s` : "—"}</Td>
                       <Td>
                         {w.status === "done" ? (
                           <Badge tone="good">Measured</Badge>

@@ -11,7 +11,20 @@ export interface ProgressWords {
   walks: number;
   cadence: string | null;
   rhythm: string | null;
+  speed: string | null;
 }
+
+/** 1 m/s = 3.6 km/h (3600 s per hour, 1000 m per km). */
+const KMH_PER_MS = 3.6;
+
+/** "about 0.8 metres per second (about 2.9 km/h)": one decimal, everyday units beside the measured ones. */
+export function speedInWords(mPerS: number): string {
+  return `about ${mPerS.toFixed(1)} metres per second (about ${(mPerS * KMH_PER_MS).toFixed(1)} km/h)`;
+}
+
+/** Shown whenever speed is: the number informs the care team's view, it does not replace it. */
+export const SPEED_CAUTION =
+  "Walking speed is one of the things your care team looks at. It supports their judgement about your walking and does not replace it; ask them what it means for you.";
 
 /**
  * Everyday sentences about the person's own walks. No clinical terms, no judgement words such as
@@ -43,5 +56,14 @@ export function progressWords(done: WalkSummary[]): ProgressWords {
           ? "Your walking rhythm was a little less even than at the start. This often changes from week to week, with tiredness, shoes or the route."
           : "Your walking rhythm was about as steady as at the start.";
   }
-  return { walks: ordered.length, cadence, rhythm };
+  const spd = ordered.map((w) => w.walkingSpeedMPerS).filter((v): v is number => typeof v === "number" && v > 0);
+  let speed: string | null = null;
+  if (spd.length) {
+    const latest = speedInWords(spd[spd.length - 1]!);
+    speed =
+      spd.length > START_WALKS
+        ? `In your latest walk your walking speed was ${latest}. In your first walks it was ${speedInWords(mean(spd.slice(0, START_WALKS)))}.`
+        : `In your latest walk your walking speed was ${latest}.`;
+  }
+  return { walks: ordered.length, cadence, rhythm, speed };
 }
