@@ -1,8 +1,10 @@
 export type { LegEvents } from "./gait-events";
-export { detectShankEvents, SHANK_EVENT_LOW_PASS_HZ } from "./detect-shank-events";
+export { detectShankEvents, SHANK_EVENT_LOW_PASS_HZ, SHANK_LOBE_LOW_PASS_HZ, SHANK_SEARCH_FRACTION_OF_STRIDE } from "./detect-shank-events";
 export { detectFootEvents, FOOT_EVENT_LOW_PASS_HZ } from "./detect-foot-events";
 export {
   findPeaks,
+  mergeSwingsWithoutStance,
+  SAME_SWING_BACKWARD_ROTATION_FRACTION,
   signalRelativeThresholds,
   SALARIAN_MS_THRESHOLD_DEG_S,
   SALARIAN_MIN_PEAK_DISTANCE_S,
