@@ -32,7 +32,7 @@ import {
 } from "./types";
 
 /** Bumped whenever a change can alter any number in the output. */
-export const ALGORITHM_VERSION = "1.1.0";
+export const ALGORITHM_VERSION = "1.2.0";
 
 export interface AnalyzeOptions {
   /** Reserved for callers that want to skip the arm–leg step (e.g. a quick pre-check). */
@@ -192,7 +192,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   spatial.lengthsM.forEach((len, i) => {
     strides[i]!.strideLengthM = len;
   });
-  const speed = walkingSpeedFromStrides(strides, spatial.rejected);
+  const speed = walkingSpeedFromStrides(strides, spatial.rejected, spatial.notes);
   if (speed.walkingSpeedMPerS === null && strides.length > 0) {
     quality.push({ code: "speed-unavailable", severity: "info", message: `walking speed and stride length not computed: ${speed.reason}` });
   }
