@@ -118,10 +118,12 @@ export function buildBodyModel(p: BodyModelParams): BodyModel {
     stride: { left: clock(schedule.left.stridePhase), right: clock(schedule.right.stridePhase) },
     step: clock(schedule.stepPhase),
   };
-  const romAt = linear(schedule.rom);
-  const travelAt = linear(p.pelvisTravel);
-  const surgeAt = linear(p.surgeM);
-  const bobAt = linear(p.bobM);
+  const romAt = smooth(schedule.rom);
+  // Cubic, not linear, through the step knots: the pelvis velocity must not jump where one step is
+  // longer than the next.
+  const travelAt = smooth(p.pelvisTravel);
+  const surgeAt = smooth(p.surgeM);
+  const bobAt = smooth(p.bobM);
 
   const envelope = (t: number) => walkingEnvelope(schedule.spans, t);
   const sway = (s: Sway, t: number) => {
@@ -271,24 +273,12 @@ export function walkingEnvelope(spans: readonly WalkingSpan[], t: number): numbe
   return 0;
 }
 
-function clock(k: PhaseKnots): MonotoneCubic {
-  return monotoneCubic(k.t, k.v);
+function smooth(k: PhaseKnots): (x: number) => number {
+  if (k.t.length < 2) return () => k.v[0] ?? 0;
+  const c = monotoneCubic(k.t, k.v);
+  return (x) => c.value(x);
 }
 
-/** Linear interpolation through knots, holding the end values. */
-function linear(k: PhaseKnots): (x: number) => number {
-  return (x: number) => {
-    const n = k.t.length;
-    if (n === 0) return 0;
-    if (x <= k.t[0]!) return k.v[0]!;
-    if (x >= k.t[n - 1]!) return k.v[n - 1]!;
-    let lo = 0;
-    let hi = n - 1;
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >>> 1;
-      if (k.t[mid]! <= x) lo = mid;
-      else hi = mid;
-    }
-    return k.v[lo]! + ((k.v[hi]! - k.v[lo]!) * (x - k.t[lo]!)) / (k.t[hi]! - k.t[lo]!);
-  };
+function clock(k: PhaseKnots): MonotoneCubic {
+  return monotoneCubic(k.t, k.v);
 }

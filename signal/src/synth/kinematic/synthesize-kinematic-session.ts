@@ -234,7 +234,7 @@ function resolve(o: KinematicOptions) {
       secondHarmonic: (o.arms?.secondHarmonicPct ?? (coupling === "1:1" ? 40 : 0)) / 100,
       forwardFraction: o.arms?.forwardFraction ?? 0.4,
       heldStill: o.arms?.heldStill ?? [],
-      tremorDeg: o.arms?.tremor?.amplitudeDeg ?? 0.2,
+      tremorDeg: o.arms?.tremor?.amplitudeDeg ?? 0.05,
       tremorHz: o.arms?.tremor?.frequencyHz ?? 5,
       wear: { left: o.arms?.wear?.left ?? "standard", right: o.arms?.wear?.right ?? "standard" },
     },

@@ -88,7 +88,7 @@ export interface KinematicArmOptions {
   forwardFraction?: number;
   /** Arms held still (e.g. on a walking aid): no swing, a small tremor instead. */
   heldStill?: Side[];
-  /** Tremor of a still arm: amplitude (degrees) and frequency (Hz). Default 0.2° at 5 Hz. */
+  /** Tremor of a still arm: amplitude (degrees) and frequency (Hz). Default 0.05° at 5 Hz (≈ 0.5 m/s² at the wrist). */
   tremor?: { amplitudeDeg?: number; frequencyHz?: number };
   wear?: Partial<PerSide<WristWear>>;
 }

@@ -82,7 +82,12 @@ describe("synthesizeKinematicSession(options): physics of the model", () => {
   });
 
   it("reads 9.81 m/s² of specific force at rest, +y up on a standard mount, −y on an upside-down wrist", () => {
-    const s = session({ noise: { ...QUIET, standingSwayDegS: 0 }, arms: { wear: { right: "upside-down" } } });
+    const s = session({
+      noise: { ...QUIET, standingSwayDegS: 0 },
+      arms: { wear: { right: "upside-down" } },
+      placements: ["left_shank", "right_shank", "left_wrist", "right_wrist", "lower_back"],
+    });
+    expect(s.recordings).toHaveLength(5);
     for (const r of s.recordings) {
       let mag = 0;
       let y = 0;
@@ -195,6 +200,40 @@ describe("synthesizeKinematicSession(options): physics of the model", () => {
     let worst = 0;
     for (let i = 0; i < a.gyroZ.length; i++) worst = Math.max(worst, Math.abs(a.gyroZ[i]! + b.gyroZ[i]!));
     expect(worst).toBeLessThan(0.01);
+  });
+
+  it("carries the body's braking after each IC, propulsion before the next and the heel-strike transient to a still wrist", () => {
+    const still = { heldStill: ["left", "right"] as Side[], tremor: { amplitudeDeg: 0 } };
+    const calm = session({ noise: { ...QUIET, impactMs2: 0, rippleDegS: 0 }, arms: still });
+    const struck = session({ noise: { ...QUIET, rippleDegS: 0 }, arms: still });
+    const a = rec(calm, "left_wrist");
+    const b = rec(struck, "left_wrist");
+    const fs = calm.truth.sampleRateHz;
+    const mean = (r: SensorRecording, t0: number, t1: number) => {
+      let s = 0;
+      let n = 0;
+      for (let i = Math.ceil(t0 * fs); i <= Math.floor(t1 * fs); i++) {
+        s += r.accX[i]!;
+        n++;
+      }
+      return s / n;
+    };
+    const steps = [...calm.truth.left.ic, ...calm.truth.right.ic].sort((x, y) => x - y).slice(2, -2);
+    let braking = 0;
+    let propulsion = 0;
+    let impacts = 0;
+    for (let k = 0; k + 1 < steps.length; k++) {
+      const d = steps[k + 1]! - steps[k]!;
+      if (mean(a, steps[k]!, steps[k]! + 0.25 * d) < 0) braking++;
+      if (mean(a, steps[k]! + 0.75 * d, steps[k + 1]!) > 0) propulsion++;
+      let peak = 0;
+      for (let i = Math.ceil(steps[k]! * fs); i <= Math.floor((steps[k]! + 0.04) * fs); i++) peak = Math.max(peak, Math.abs(b.accY[i]! - a.accY[i]!));
+      // 25 m/s² at the striking shank × 0.08 at the wrist (project choice), sampled within 10 ms of its onset.
+      if (peak > 1 && peak < 2.5) impacts++;
+    }
+    expect(braking, "braking").toBe(steps.length - 1);
+    expect(propulsion, "propulsion").toBe(steps.length - 1);
+    expect(impacts, "impacts").toBe(steps.length - 1);
   });
 
   it("refuses impossible settings with a RangeError", () => {
