@@ -22,14 +22,22 @@ export const AGE_BAND_OPTIONS: readonly string[] = [
 ];
 
 export const METRIC_OPTIONS = [
+  { value: "walkingSpeedMPerS", label: "Walking speed (m/s)" },
+  { value: "strideLengthM", label: "Stride length (m)" },
   { value: "cadenceStepsPerMin", label: "Cadence (steps/min)" },
   { value: "strideTimeMeanS", label: "Stride time, mean (s)" },
   { value: "strideTimeCvPct", label: "Stride time variability, CV (%)" },
+  { value: "swingTimeCvPctLeft", label: "Swing time variability, CV, left (%)" },
+  { value: "swingTimeCvPctRight", label: "Swing time variability, CV, right (%)" },
+  { value: "stepTimeAsymmetryPct", label: "Step-time asymmetry (%)" },
   { value: "stancePctLeft", label: "Stance, left (% of stride)" },
   { value: "stancePctRight", label: "Stance, right (% of stride)" },
   { value: "doubleSupportPct", label: "Double support (% of stride)" },
   { value: "phaseCoordinationIndexPct", label: "Phase Coordination Index (%)" },
   { value: "gaitAsymmetryPct", label: "Gait asymmetry, swing (%)" },
+  { value: "armSwingAmplitudeDegLeft", label: "Arm swing amplitude, left (deg)" },
+  { value: "armSwingAmplitudeDegRight", label: "Arm swing amplitude, right (deg)" },
+  { value: "armSwingAsymmetryPct", label: "Arm swing asymmetry (%)" },
   { value: "armLegLeftArmRightLegFrequencyRatio", label: "Left arm–right leg frequency ratio" },
   { value: "armLegRightArmLeftLegFrequencyRatio", label: "Right arm–left leg frequency ratio" },
   { value: "armLegLeftArmRightLegCouplingStrength", label: "Left arm–right leg coupling strength (R)" },
