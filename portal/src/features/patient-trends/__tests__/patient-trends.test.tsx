@@ -20,12 +20,27 @@ function server() {
         metrics: [
           { key: "cadenceStepsPerMin", unit: "steps/min", points: pts([98, 99, 97, 104, 106], { 3: "within-error", 4: "improved" }), bands: [] },
           {
+            key: "phaseCoordinationIndexPct",
+            unit: "%",
+            points: pts([4, 5]),
+            bands: [],
+            bandNote: "No published band for this patient: the published cohorts for this measure differ in age or condition.",
+            speedNote: "Read beside walking speed: PCI rises as walking speed falls: Gimmon et al. 2018, J Aging Phys Act 26:382.",
+          },
+          {
             key: "strideTimeCvPct",
             unit: "%",
             points: pts([2.1, 2.3, 2.2, 3.4], { 3: "worsened" }),
             // Band values as in Frenkel-Toledo 2005 Table 2: controls 1.94 ± 0.36 %, PD 2.24 ± 0.74 %.
             bands: [
-              { low: 1.58, high: 2.3, label: "Control group, mean ± 1 SD (1.94 ± 0.36 %)", citation: FRENKEL, confirmed: true },
+              {
+                low: 1.58,
+                high: 2.3,
+                label: "Control group, mean ± 1 SD (1.94 ± 0.36 %)",
+                citation: FRENKEL,
+                population: { description: "healthy older adults, the age-matched controls of a Parkinson's disease study (n = 30)" },
+                walkingCondition: "overground, comfortable walking speed",
+              },
               { low: 1.5, high: 2.98, label: "Parkinson's disease group, mean ± 1 SD (2.24 ± 0.74 %)", citation: FRENKEL, confirmed: true },
             ],
             mdc: { value: 0.9, source: "patient-baseline", citation: "", confirmed: false },
@@ -61,12 +76,17 @@ describe("patient trend charts", () => {
     const cad = screen.getByRole("region", { name: /Cadence/ });
     expect(within(cad).getByText("Improved beyond MDC")).toBeTruthy();
     expect(within(cad).getByText(/No published band fits this measure/)).toBeTruthy();
+    // Who a band describes is shown with it; a patient outside every cohort reads why no band is drawn.
+    expect(within(cv).getByText(/Who: healthy older adults, the age-matched controls/)).toBeTruthy();
+    const pci = screen.getByRole("region", { name: /Phase Coordination Index/ });
+    expect(within(pci).getByText(/No published band for this patient/)).toBeTruthy();
+    expect(within(pci).getByText(/Read beside walking speed/)).toBeTruthy();
 
     expect(screen.getByRole("region", { name: /Stance and double support/ })).toBeTruthy();
     const ratio = screen.getByRole("region", { name: /Arm–leg frequency ratio/ });
     const eventItem = within(ratio).getAllByRole("listitem").find((li) => /locking changed from 2:1 to 1:1/.test(li.textContent ?? ""));
     expect(eventItem?.textContent).toMatch(/Coordination event/);
-    expect(screen.queryByRole("region", { name: /Phase Coordination Index/ })).toBeNull();
+
   });
 
   it("shows an empty state when nothing has been measured", async () => {

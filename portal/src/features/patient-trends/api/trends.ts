@@ -17,6 +17,10 @@ export const trendPointSchema = z.object({
   /** Strides/steps/arm cycles behind the value (metric's countNoun says which). */
   n: z.number().nullish(),
   walkingAid: z.string().nullish(),
+  /** The session's walking speed, on speed-dependent metrics (PCI, stride-time CV). */
+  walkingSpeedMPerS: z.number().optional(),
+  /** Shown but not compared (e.g. "few-strides", "weak-coupling"). */
+  excludedReason: z.string().optional(),
 });
 
 export const bandSchema = z.object({
@@ -24,7 +28,11 @@ export const bandSchema = z.object({
   high: z.number(),
   label: z.string(),
   citation: z.string().optional(),
-  confirmed: z.boolean().optional(),
+  /** Who the band describes, how they walked and with what system (clinical/reference-bands.ts). */
+  population: z.object({ description: z.string() }).catchall(z.unknown()).optional(),
+  walkingCondition: z.string().optional(),
+  measurementSystem: z.string().optional(),
+  note: z.string().optional(),
 });
 export type TrendBand = z.infer<typeof bandSchema>;
 
@@ -54,6 +62,10 @@ export const trendMetricSchema = z.object({
   mdc: mdcSchema.nullish(),
   slopeFlag: slopeFlagSchema.nullish(),
   direction: z.string().nullish(),
+  /** Why no band is drawn for this patient (e.g. "No published band for this patient…"). */
+  bandNote: z.string().nullish(),
+  /** Why speed is shown beside this metric, with its source. */
+  speedNote: z.string().optional(),
 });
 export type TrendMetric = z.infer<typeof trendMetricSchema>;
 

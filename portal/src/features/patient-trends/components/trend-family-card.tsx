@@ -120,18 +120,27 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
         <div>
           <h4 className="font-semibold">Reference bands</h4>
           {bands.length === 0 ? (
-            <p className="text-ink-soft">No published band fits this measure; none is drawn.</p>
+            <p className="text-ink-soft">{metrics.map((m) => m.bandNote).find(Boolean) ?? "No published band fits this measure; none is drawn."}</p>
           ) : (
             <ol className="mt-1 flex flex-col gap-1">
               {bands.map((b, i) => (
                 <li key={`${b.label}-${i}`}>
                   <span className="font-semibold">Band {i + 1}:</span> {b.label} ({fmt(b.low, "")}–{fmt(b.high, unit)}).{" "}
+                  {b.population ? <span>Who: {b.population.description}. </span> : null}
+                  {b.walkingCondition || b.measurementSystem ? (
+                    <span className="text-ink-soft">{[b.walkingCondition, b.measurementSystem].filter(Boolean).join("; ")}. </span>
+                  ) : null}
                   <span className="text-ink-soft">Source: {b.citation ?? "not given"}</span>
-                  {b.confirmed === false ? <span className="ml-1 font-semibold text-ochre">Unconfirmed: verify against the source before use.</span> : null}
+                  {b.note ? <span className="text-ink-soft"> {b.note}</span> : null}
                 </li>
               ))}
             </ol>
           )}
+          {[...new Set(metrics.map((m) => m.speedNote).filter(Boolean))].map((note) => (
+            <p key={note} className="mt-1 text-ink-soft">
+              {note}
+            </p>
+          ))}
           {metrics.map((m) =>
             m.mdc ? (
               <p key={m.key} className="mt-1 text-ink-soft">
