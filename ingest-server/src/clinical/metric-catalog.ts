@@ -1,5 +1,5 @@
 /**
- * The metrics of the analysis (signal issue names) and what a rise in each means clinically.
+ * The metrics of the analysis (the analysis contract's names) and what a rise in each means clinically.
  *
  * Trend keys arrive flattened by the trends route, and per-side / per-pair metrics may be spelled
  * `stancePct.left`, `stancePctLeft`, `left_stance_pct`, `armLeg.leftArmRightLeg.couplingStrength`
