@@ -16,7 +16,7 @@ function session(options: KinematicOptions, walkingAid?: "none" | "cane" | "crut
 }
 const codes = (a: Analysis, code: string) => a.quality.filter((q) => q.code === code);
 
-describe("analyze() arm section on kinematic sessions", () => {
+describe("analyze() arm section on kinematic sessions", { timeout: 60_000 }, () => {
   it("standard wear, 1:1 with a 40 % 2nd harmonic → ratio 1, ψ within 15° of the model's angle ψ, range within 10 %", () => {
     const { s, a } = session({ arms: { coupling: "1:1", secondHarmonicPct: 40 } });
     for (const [key, side] of [["leftArmRightLeg", "left"], ["rightArmLeftLeg", "right"]] as const) {
@@ -103,4 +103,27 @@ describe("analyze() arm section on kinematic sessions", () => {
     const shift = (360 * 0.1) / s.truth.summary.strideTimeMeanS;
     expect(angleErrorDeg(a.metrics.armLeg.leftArmRightLeg.meanRelativePhaseDeg!, s.truth.arms.left!.relativePhaseAngleDeg! + shift)).toBeLessThan(15);
   });
+
+  it("a wrist mounted 30° off its nominal axes and upside down → axis found, sign corrected, ψ within 15°", () => {
+    const { s, a } = session({ arms: { coupling: "1:1", wear: { left: "upside-down" } }, misalignmentDeg: { left_wrist: 30 } });
+    expect(codes(a, "inverted-sensor").map((q) => q.placement)).toEqual(["left_wrist"]);
+    expect(angleErrorDeg(a.metrics.armLeg.leftArmRightLeg.meanRelativePhaseDeg!, s.truth.arms.left!.relativePhaseAngleDeg!)).toBeLessThan(15);
+    expect(a.metrics.armSwing!.left.amplitudeDeg! / s.truth.arms.left!.swingRangeDeg).toBeGreaterThan(0.85);
+  });
+
+  it("signed ψ error and range error over 6 seeds and phases (standard wear): |bias| < 5°, mean |error| < 8°, range bias < 5 %", () => {
+    const psiErrors: number[] = [];
+    const rangeErrors: number[] = [];
+    for (let k = 0; k < 6; k++) {
+      const { s, a } = session({ seed: 20 + k, bouts: [{ durationS: 80 }], arms: { coupling: "1:1", relativePhaseDeg: -60 + 25 * k, secondHarmonicPct: 30 + 5 * k } });
+      const truth = s.truth.arms.left!;
+      const c = a.metrics.armLeg.leftArmRightLeg;
+      psiErrors.push((wrapPi(((c.meanRelativePhaseDeg! - truth.relativePhaseAngleDeg!) * Math.PI) / 180) * 180) / Math.PI);
+      rangeErrors.push(a.metrics.armSwing!.left.amplitudeDeg! / truth.swingRangeDeg - 1);
+    }
+    const mean = (x: number[]) => x.reduce((p, q) => p + q, 0) / x.length;
+    expect(Math.abs(mean(psiErrors))).toBeLessThan(5);
+    expect(mean(psiErrors.map(Math.abs))).toBeLessThan(8);
+    expect(Math.abs(mean(rangeErrors))).toBeLessThan(0.05);
+  }, 60_000);
 });
