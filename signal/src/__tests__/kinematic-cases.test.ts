@@ -256,3 +256,46 @@ describe("analyze(recordings) on kinematic sessions the detector does not handle
     it(`keeps events and cadence: ${name}`, () => expectKeeps(runCase(name, options).result));
   }
 });
+
+/**
+ * Arm–leg coordination against the model's arm truth (ψ on segment angles, swing range per arm cycle;
+ * conventions in signal/docs/kinematic-generator.md). Tolerances are project targets.
+ */
+describe("analyze(recordings) on kinematic sessions: arm–leg coordination and arm swing against the model", () => {
+  const ARM_CASES: Record<string, KinematicOptions> = {
+    "1:1, ψ −40°, ranges 40° / 15°": { seed: 41, bouts: [{ durationS: 80 }], arms: { relativePhaseDeg: -40, rangeDeg: { left: 40, right: 15 } } },
+    "1:1, mirrored right wrist, upside-down left wrist": {
+      seed: 42,
+      bouts: [{ durationS: 80 }],
+      arms: { relativePhaseDeg: 30, wear: { right: "mirrored", left: "upside-down" } },
+    },
+    "2:1 at 1.8 s strides, ψ 20°": { seed: 43, bouts: [{ durationS: 90, strideTimeS: 1.8, romScale: 0.7 }], arms: { coupling: "2:1", relativePhaseDeg: 20 } },
+  };
+  for (const [name, options] of Object.entries(ARM_CASES)) {
+    it(`recovers the ratio, ψ within 5° and the swing range within 5 %: ${name}`, () => {
+      const session = synthesizeKinematicSession(options);
+      const analysis = analyze(session.recordings, { heightCm: 172 });
+      const pairs = [
+        [session.truth.arms.left!, analysis.metrics.armLeg.leftArmRightLeg, analysis.metrics.armSwing?.left.amplitudeDeg],
+        [session.truth.arms.right!, analysis.metrics.armLeg.rightArmLeftLeg, analysis.metrics.armSwing?.right.amplitudeDeg],
+      ] as const;
+      for (const [truth, coupling, amplitude] of pairs) {
+        console.log(
+          `${name} | ${truth.side} arm: ratio ${truth.ratio} / ${coupling.frequencyRatio}, ψ model ${truth.relativePhaseDeg!.toFixed(1)}° (${truth.cycles} strides) analysis ${coupling.meanRelativePhaseDeg?.toFixed(1)}° (error ${(coupling.meanRelativePhaseDeg! - truth.relativePhaseDeg!).toFixed(1)}°), range model ${truth.swingRangeDeg.toFixed(1)}° analysis ${amplitude?.toFixed(1)}°`,
+        );
+        expect(coupling.frequencyRatio).toBe(truth.ratio);
+        const err = ((coupling.meanRelativePhaseDeg! - truth.relativePhaseDeg! + 540) % 360) - 180;
+        expect(Math.abs(err)).toBeLessThan(5);
+        expect(Math.abs(amplitude! - truth.swingRangeDeg)).toBeLessThan(0.05 * truth.swingRangeDeg);
+      }
+    });
+  }
+
+  it("reports no coupling for an arm held still on a walking aid", () => {
+    const session = synthesizeKinematicSession({ seed: 44, bouts: [{ durationS: 80 }], arms: { heldStill: ["left"] } });
+    const analysis = analyze(session.recordings, { heightCm: 172 });
+    expect(session.truth.arms.left!.ratio).toBeNull();
+    expect(analysis.metrics.armLeg.leftArmRightLeg.meanRelativePhaseDeg).toBeNull();
+    expect(analysis.metrics.armLeg.rightArmLeftLeg.meanRelativePhaseDeg).not.toBeNull();
+  });
+});

@@ -319,7 +319,7 @@ function setArmPhase(model: BodyModel, schedule: GaitSchedule, arm: ArmModelPara
   const s = strides[strides.length >> 1];
   if (!s) return;
   arm.phaseOffsetCycles = 0;
-  const now = strideRelativePhaseDeg(model, side, arm.ratio, s.icS, s.nextIcS).rate;
+  const now = strideRelativePhaseDeg(model, side, arm.ratio, s.icS, s.nextIcS).angle;
   // Harmonic n of the arm moves by 360°·offset per cycle of offset (pattern phase x = n·u + offset).
   arm.phaseOffsetCycles = wrapDeg(requestedDeg - now) / 360;
 }
@@ -353,8 +353,8 @@ function buildArmTruth(
   return {
     side,
     ratio: swinging ? (arm.ratio as 1 | 2) : null,
-    relativePhaseDeg: swinging && rate.length ? circularMeanDeg(rate) : null,
-    relativePhaseAngleDeg: swinging && angle.length ? circularMeanDeg(angle) : null,
+    relativePhaseDeg: swinging && angle.length ? circularMeanDeg(angle) : null,
+    relativePhaseRateDeg: swinging && rate.length ? circularMeanDeg(rate) : null,
     requestedRelativePhaseDeg: swinging ? requestedDeg : null,
     swingRangeDeg: ranges.length ? ranges.reduce((a, b) => a + b, 0) / ranges.length : 0,
     cycles: strides.length,

@@ -75,9 +75,9 @@ export interface KinematicArmOptions {
   /** Arm cycles per contralateral-leg stride. "none" = arms hang still. Default "1:1". */
   coupling?: "1:1" | "2:1" | "none";
   /**
-   * Requested relative phase ψ (degrees): the phase of the arm's angular-rate harmonic at n cycles per
-   * stride minus n × the phase of the contralateral shank rate's first harmonic, both over one
-   * contralateral stride (see the doc). Default 20. The truth reports the value the model realises.
+   * Requested relative phase ψ (degrees): the phase of the arm angle's harmonic at n cycles per stride
+   * minus n × the phase of the contralateral shank angle's first harmonic, both over one contralateral
+   * stride (see the doc). Default 20. The truth reports the value the model realises.
    */
   relativePhaseDeg?: number;
   /** Sagittal swing range per arm cycle (peak to peak, degrees). Default 30. A side with 0 hangs still. */
@@ -176,10 +176,10 @@ export interface KinematicArmTruth {
   side: Side;
   /** Arm cycles per contralateral stride, null when the arm does not swing. */
   ratio: 1 | 2 | null;
-  /** Circular mean of ψ (degrees, (−180, 180]) on angular rates, from the model; null without swing. */
+  /** Circular mean of ψ (degrees, (−180, 180]) on the model's segment angles; null without swing. */
   relativePhaseDeg: number | null;
-  /** Same on the angles themselves (equal to the rate value for 1:1; 90° apart for 2:1). */
-  relativePhaseAngleDeg: number | null;
+  /** Same on angular rates: ψ + 90°·(1 − n), equal for 1:1, 90° less for 2:1. */
+  relativePhaseRateDeg: number | null;
   requestedRelativePhaseDeg: number | null;
   /** Mean sagittal range of the arm angle per arm cycle, degrees (0 when held still). */
   swingRangeDeg: number;
