@@ -3,17 +3,11 @@ import type { PlaneVector } from "./integrate-sagittal-stride";
 
 /** Knee-to-ankle length as a fraction of standing height: Winter 2009, Fig. 4.1, after Drillis & Contini 1966. */
 export const SHANK_LENGTH_PER_HEIGHT = 0.246;
-/**
- * Where along the shank the sensor sits, as a fraction of shank length above the ankle joint: 0.5,
- * the middle of the lateral shank, which is where Pendula asks for the strap. Common practice (a
- * placement convention, not a measured value); see signal/README.md for the sensitivity.
- */
-export const SHANK_SENSOR_FRACTION_ABOVE_ANKLE = 0.5;
 
-/** Distance (m) from the ankle joint up to the shank sensor for a person of `heightCm`. */
-export function shankSensorAboveAnkleM(heightCm: number): number {
-  if (!(heightCm > 0)) throw new RangeError("shankSensorAboveAnkleM: heightCm must be positive");
-  return (heightCm / 100) * SHANK_LENGTH_PER_HEIGHT * SHANK_SENSOR_FRACTION_ABOVE_ANKLE;
+/** Shank length (m), knee to ankle, of a person of `heightCm`: the farthest a shank sensor can sit above the ankle. */
+export function shankLengthM(heightCm: number): number {
+  if (!(heightCm > 0)) throw new RangeError("shankLengthM: heightCm must be positive");
+  return (heightCm / 100) * SHANK_LENGTH_PER_HEIGHT;
 }
 
 export interface PendulumReset {

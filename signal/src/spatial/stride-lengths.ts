@@ -38,7 +38,7 @@ export interface StrideLengthOptions {
   sampleRateHz: number;
   /** Standing height (cm); bounds a plausible stride. */
   heightCm?: number;
-  /** Ankle-to-sensor distance (m); required for a shank (shankSensorAboveAnkleM(heightCm)). */
+  /** Ankle-to-sensor distance (m); required for a shank (shankSensorDistance(...), fitted per session). */
   shankSensorAboveAnkleM?: number;
 }
 

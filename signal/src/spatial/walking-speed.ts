@@ -8,6 +8,7 @@ export interface WalkingSpeed {
   strideLengthM: number | null;
   /** Steady strides whose length entered both numbers. */
   strideCount: number;
+  /** Why no speed was computed; or, with a speed, the caveats on it (e.g. an assumed sensor distance); null when none. */
   reason: string | null;
 }
 
@@ -16,9 +17,10 @@ export interface WalkingSpeed {
  * (the same as mean stride length / mean stride time over those strides, so a long slow stride weighs
  * by its duration, as a timed walk would); stride length = their mean. Stride times are the analysis's
  * own (IC to next IC), so speed stays consistent with cadence and stride time. `rejected` (from
- * sessionStrideLengths) only shapes the reason given when no speed can be reported.
+ * sessionStrideLengths) only shapes the reason given when no speed can be reported; `notes` (same
+ * source) become the reason when a speed is reported with a caveat.
  */
-export function walkingSpeedFromStrides(strides: readonly Stride[], rejected: Partial<Record<string, number>> = {}): WalkingSpeed {
+export function walkingSpeedFromStrides(strides: readonly Stride[], rejected: Partial<Record<string, number>> = {}, notes: readonly string[] = []): WalkingSpeed {
   const steady = strides.filter((s) => s.steady);
   let lengthSum = 0;
   let timeSum = 0;
@@ -39,5 +41,5 @@ export function walkingSpeedFromStrides(strides: readonly Stride[], rejected: Pa
           : `only ${count} of ${steady.length} steady strides had a measurable length (at least ${MIN_STRIDES_FOR_SPEED} needed)`;
     return { walkingSpeedMPerS: null, strideLengthM: null, strideCount: count, reason };
   }
-  return { walkingSpeedMPerS: lengthSum / timeSum, strideLengthM: lengthSum / count, strideCount: count, reason: null };
+  return { walkingSpeedMPerS: lengthSum / timeSum, strideLengthM: lengthSum / count, strideCount: count, reason: notes.length ? notes.join("; ") : null };
 }

@@ -6,8 +6,18 @@ import { wrapPi } from "../relative-phase";
 
 // Whole-pipeline checks on the kinematic generator (segment angles from a body model, wrists with
 // their own wear, body accelerations and heel-strike impacts). Truth: the model's angle-based ψ
-// (`relativePhaseAngleDeg`) and its swing range per arm cycle; the analysis sees only the files.
+// (its angle-based ψ) and its swing range per arm cycle; the analysis sees only the files.
 const angleErrorDeg = (a: number, b: number) => (Math.abs(wrapPi(((a - b) * Math.PI) / 180)) * 180) / Math.PI;
+
+// The generator's truth names its angle-based ψ `relativePhaseDeg` (rate-based: `relativePhaseRateDeg`);
+// earlier versions called them `relativePhaseAngleDeg` / `relativePhaseDeg`. Read either.
+function truthPsi(truth: object, on: "angle" | "rate"): number {
+  const t = truth as Record<string, number | null | undefined>;
+  const renamed = "relativePhaseRateDeg" in t;
+  const v = on === "angle" ? (renamed ? t.relativePhaseDeg : t.relativePhaseAngleDeg) : renamed ? t.relativePhaseRateDeg : t.relativePhaseDeg;
+  if (typeof v !== "number") throw new Error(`the generator's truth has no ${on}-based relative phase`);
+  return v;
+}
 
 function session(options: KinematicOptions, walkingAid?: "none" | "cane" | "crutches" | "rollator" | "other") {
   const s = synthesizeKinematicSession({ seed: 3, placements: ["left_shank", "right_shank", "left_wrist", "right_wrist"], bouts: [{ durationS: 120 }], ...options });
@@ -24,7 +34,7 @@ describe("analyze() arm section on kinematic sessions", { timeout: 60_000 }, () 
       const truth = s.truth.arms[side]!;
       expect(c.frequencyRatio).toBe(1);
       expect(c.couplingStrength!).toBeGreaterThan(0.9);
-      expect(angleErrorDeg(c.meanRelativePhaseDeg!, truth.relativePhaseAngleDeg!)).toBeLessThan(15);
+      expect(angleErrorDeg(c.meanRelativePhaseDeg!, truthPsi(truth, "angle"))).toBeLessThan(15);
       expect(a.metrics.armSwing![side].amplitudeDeg! / truth.swingRangeDeg).toBeGreaterThan(0.9);
       expect(a.metrics.armSwing![side].amplitudeDeg! / truth.swingRangeDeg).toBeLessThan(1.1);
     }
@@ -39,8 +49,8 @@ describe("analyze() arm section on kinematic sessions", { timeout: 60_000 }, () 
     expect(inverted.map((q) => q.placement).sort()).toEqual(["left_wrist", "right_wrist"]);
     expect(inverted.find((q) => q.placement === "left_wrist")!.message).toMatch(/turned around/);
     expect(inverted.find((q) => q.placement === "right_wrist")!.message).toMatch(/upside down/);
-    expect(angleErrorDeg(a.metrics.armLeg.leftArmRightLeg.meanRelativePhaseDeg!, s.truth.arms.left!.relativePhaseAngleDeg!)).toBeLessThan(15);
-    expect(angleErrorDeg(a.metrics.armLeg.rightArmLeftLeg.meanRelativePhaseDeg!, s.truth.arms.right!.relativePhaseAngleDeg!)).toBeLessThan(15);
+    expect(angleErrorDeg(a.metrics.armLeg.leftArmRightLeg.meanRelativePhaseDeg!, truthPsi(s.truth.arms.left!, "angle"))).toBeLessThan(15);
+    expect(angleErrorDeg(a.metrics.armLeg.rightArmLeftLeg.meanRelativePhaseDeg!, truthPsi(s.truth.arms.right!, "angle"))).toBeLessThan(15);
   });
 
   it("both wrists turned around → placement-swap, mean phases withheld with a reason, R kept", () => {
@@ -58,8 +68,8 @@ describe("analyze() arm section on kinematic sessions", { timeout: 60_000 }, () 
     const c = a.metrics.armLeg.leftArmRightLeg;
     const truth = s.truth.arms.left!;
     expect(c.frequencyRatio).toBe(2);
-    expect(angleErrorDeg(c.meanRelativePhaseDeg!, truth.relativePhaseAngleDeg!)).toBeLessThan(15);
-    expect(angleErrorDeg(c.meanRelativePhaseDeg!, truth.relativePhaseDeg!)).toBeGreaterThan(60);
+    expect(angleErrorDeg(c.meanRelativePhaseDeg!, truthPsi(truth, "angle"))).toBeLessThan(15);
+    expect(angleErrorDeg(c.meanRelativePhaseDeg!, truthPsi(truth, "rate"))).toBeGreaterThan(60);
   });
 
   it("reduced swing on one side → amplitudes follow the model and the asymmetry matches the symmetry-angle formula on the truth", () => {
@@ -81,7 +91,7 @@ describe("analyze() arm section on kinematic sessions", { timeout: 60_000 }, () 
     expect(a.metrics.armLeg.leftArmRightLeg).toMatchObject({ frequencyRatio: null, meanRelativePhaseDeg: null, couplingStrength: null });
     expect(a.metrics.armLeg.leftArmRightLeg.reason).toMatch(/no arm swing/);
     expect(a.metrics.armSwing!.left.amplitudeDeg!).toBeLessThan(5);
-    expect(angleErrorDeg(a.metrics.armLeg.rightArmLeftLeg.meanRelativePhaseDeg!, s.truth.arms.right!.relativePhaseAngleDeg!)).toBeLessThan(15);
+    expect(angleErrorDeg(a.metrics.armLeg.rightArmLeftLeg.meanRelativePhaseDeg!, truthPsi(s.truth.arms.right!, "angle"))).toBeLessThan(15);
   });
 
   it("walking aid recorded → both couplings null with 'walking aid used', a no-arm-swing item, amplitudes still shown", () => {
@@ -101,13 +111,13 @@ describe("analyze() arm section on kinematic sessions", { timeout: 60_000 }, () 
     const { s, a } = session({ arms: { coupling: "1:1" }, clockOffsetS: { left_wrist: 0.1 } });
     expect(codes(a, "inverted-sensor")).toHaveLength(0);
     const shift = (360 * 0.1) / s.truth.summary.strideTimeMeanS;
-    expect(angleErrorDeg(a.metrics.armLeg.leftArmRightLeg.meanRelativePhaseDeg!, s.truth.arms.left!.relativePhaseAngleDeg! + shift)).toBeLessThan(15);
+    expect(angleErrorDeg(a.metrics.armLeg.leftArmRightLeg.meanRelativePhaseDeg!, truthPsi(s.truth.arms.left!, "angle") + shift)).toBeLessThan(15);
   });
 
   it("a wrist mounted 30° off its nominal axes and upside down → axis found, sign corrected, ψ within 15°", () => {
     const { s, a } = session({ arms: { coupling: "1:1", wear: { left: "upside-down" } }, misalignmentDeg: { left_wrist: 30 } });
     expect(codes(a, "inverted-sensor").map((q) => q.placement)).toEqual(["left_wrist"]);
-    expect(angleErrorDeg(a.metrics.armLeg.leftArmRightLeg.meanRelativePhaseDeg!, s.truth.arms.left!.relativePhaseAngleDeg!)).toBeLessThan(15);
+    expect(angleErrorDeg(a.metrics.armLeg.leftArmRightLeg.meanRelativePhaseDeg!, truthPsi(s.truth.arms.left!, "angle"))).toBeLessThan(15);
     expect(a.metrics.armSwing!.left.amplitudeDeg! / s.truth.arms.left!.swingRangeDeg).toBeGreaterThan(0.85);
   });
 
@@ -118,7 +128,7 @@ describe("analyze() arm section on kinematic sessions", { timeout: 60_000 }, () 
       const { s, a } = session({ seed: 20 + k, bouts: [{ durationS: 80 }], arms: { coupling: "1:1", relativePhaseDeg: -60 + 25 * k, secondHarmonicPct: 30 + 5 * k } });
       const truth = s.truth.arms.left!;
       const c = a.metrics.armLeg.leftArmRightLeg;
-      psiErrors.push((wrapPi(((c.meanRelativePhaseDeg! - truth.relativePhaseAngleDeg!) * Math.PI) / 180) * 180) / Math.PI);
+      psiErrors.push((wrapPi(((c.meanRelativePhaseDeg! - truthPsi(truth, "angle")) * Math.PI) / 180) * 180) / Math.PI);
       rangeErrors.push(a.metrics.armSwing!.left.amplitudeDeg! / truth.swingRangeDeg - 1);
     }
     const mean = (x: number[]) => x.reduce((p, q) => p + q, 0) / x.length;

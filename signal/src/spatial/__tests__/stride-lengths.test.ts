@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import type { Stride } from "../../types";
 import { AT_REST, integrateSagittalStride } from "../integrate-sagittal-stride";
 import { sagittalPlaneSignals } from "../sagittal-plane";
-import { shankPendulumReset, shankSensorAboveAnkleM } from "../shank-pendulum";
+import { shankLengthM, shankPendulumReset } from "../shank-pendulum";
 import { strideLengthsForSide } from "../stride-lengths";
 import { walkingSpeedFromStrides } from "../walking-speed";
 import { planarLeg, type PlanarLegOptions } from "./support/planar-leg-model";
@@ -89,7 +89,7 @@ describe("strideLengthsForSide(signals, strides, fcs, options) on a planar kinem
   });
 });
 
-describe("shankPendulumReset(ω, α, r) and shankSensorAboveAnkleM(h)", () => {
+describe("shankPendulumReset(ω, α, r) and shankLengthM(h)", () => {
   it("gives the rigid-body velocity and reading of a point r above a fixed pivot (v = ω×r, a = α×r − ω²r)", () => {
     const s = shankPendulumReset(-1.5, -8, 0.2);
     expect(s.velocity.forward).toBeCloseTo(0.3, 12);
@@ -97,8 +97,9 @@ describe("shankPendulumReset(ω, α, r) and shankSensorAboveAnkleM(h)", () => {
     expect(s.specificForce.forward).toBeCloseTo(1.6, 12);
     expect(s.specificForce.up).toBeCloseTo(9.80665 - 2.25 * 0.2, 12);
   });
-  it("puts the sensor at half the shank length, 0.246·H (Winter 2009 after Drillis & Contini 1966)", () => {
-    expect(shankSensorAboveAnkleM(175)).toBeCloseTo(0.5 * 0.246 * 1.75, 12);
+  it("takes the shank as 0.246·H, knee to ankle (Winter 2009, Fig. 4.1, after Drillis & Contini 1966)", () => {
+    expect(shankLengthM(175)).toBeCloseTo(0.246 * 1.75, 12);
+    expect(() => shankLengthM(0)).toThrow(RangeError);
   });
 });
 

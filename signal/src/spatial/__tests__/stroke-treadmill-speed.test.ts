@@ -10,7 +10,8 @@ import type { Analysis } from "../../types";
 // the shank method is scored on the trials whose foot estimate is within 10 % of the listed speed, and
 // the table shows the foot method beside it. On a treadmill the belt frame is inertial, so a foot or
 // shank integration measures belt speed × stride time, as overground. Nothing here was used to set a
-// constant (the shank's ankle-to-sensor proportion is a placement convention; see signal/README.md).
+// constant: the shank's ankle-to-sensor distance is fitted per leg from each trial's own mid-stance
+// rotation (shank-sensor-distance.ts), with a documented default placement when the fit is refused.
 const SELECT_WITHIN = 0.1; // foot estimate within 10 % of the listed speed (the data README's own check)
 const MEDIAN_ABS_ERROR_MAX_M_S = 0.08; // target for the shank method over the selected trials
 const WORST_ABS_ERROR_MAX_M_S = 0.15;
@@ -26,6 +27,7 @@ interface Row {
   lrShank: [number | null, number | null];
   /** Per steady stride present in both runs (same shank events): shank − foot stride length (m). */
   strideDiffM: number[];
+  shankCaveat: string | null;
 }
 
 function pairedStrideDiffs(shank: Analysis, foot: Analysis): number[] {
@@ -61,6 +63,7 @@ describe.skipIf(!strokeTreadmillAvailable)("walking speed on the stroke treadmil
       strideTimeS: shank.metrics.strideTimeMeanS,
       lrShank: [sideMean(shank, "left"), sideMean(shank, "right")],
       strideDiffM: pairedStrideDiffs(shank, foot),
+      shankCaveat: shank.metrics.walkingSpeedMPerS === null ? null : shank.metrics.walkingSpeedReason,
     };
   });
 
@@ -77,6 +80,8 @@ describe.skipIf(!strokeTreadmillAvailable)("walking speed on the stroke treadmil
           ` | ${f(r.lrShank[0], 3)} / ${f(r.lrShank[1], 3)}`,
       ),
     ];
+    lines.push("shank caveats (sides that fell back to the default ankle-to-sensor distance):");
+    for (const r of rows) lines.push(`  ${r.trial} ${r.shankCaveat ?? "none"}`);
     lines.push("per stride, shank − foot stride length (same strides): trial n bias(m) median|diff|(m)");
     for (const r of rows) lines.push(`  ${r.trial} ${r.strideDiffM.length} ${mean(r.strideDiffM).toFixed(3)} ${median(r.strideDiffM.map(Math.abs)).toFixed(3)}`);
     const used = rows.filter((r) => r.used);
