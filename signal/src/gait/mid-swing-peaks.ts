@@ -67,18 +67,22 @@ export function allMasked(mask: Uint8Array, a: number, b: number): boolean {
 /**
  * Over one stride the shank's sagittal rotation returns to where it started: the swing rotates it
  * forward and the stance takes that back as the tibia advances over the planted foot (DOMAIN.md,
- * shank physics). Two mid-swing candidates with no stance between them — backward rotation
- * (∫ max(−ω, 0) dt over the masked samples) less than this fraction of the session's median between
- * consecutive candidates — belong to one swing (a hesitant limb's second forward bump, which at
- * very slow cadence lies more than the 0.5 s peak distance after the first): only the taller one is
- * kept. Half the typical stance rotation: common practice.
+ * shank physics). So between the mid-swings of consecutive strides there is a whole stance of
+ * backward rotation (∫ max(−ω, 0) dt), about as much as the forward rotation between them. Two
+ * mid-swing candidates without that stance between them are one swing (a hesitant limb's second
+ * forward push, or a rebound early in stance, which at very slow cadence lie more than the 0.5 s
+ * peak distance from the swing peak): only the taller is kept. Two tests, each with this fraction
+ * (half: common practice, stride gaps sit near 1, one-swing gaps near 0): backward rotation below
+ * the fraction of the forward rotation between the two candidates, or below the fraction of the
+ * median backward rotation of the gaps the first test left (the typical stance).
  */
 export const SAME_SWING_BACKWARD_ROTATION_FRACTION = 0.5;
 
 /**
  * Drops mid-swing candidates that share a swing with a taller neighbour (see the constant above).
- * Backward rotation is integrated on `omegaDegS`; "taller" is read on `heightDegS` (the smoothed copy
- * the peaks were found on, where a brief impact spike cannot outgrow the swing).
+ * Rotation is integrated on `omegaDegS`; "taller" is read on `heightDegS` (the smoothed copy the
+ * peaks were found on, where a brief impact spike cannot outgrow the swing). Candidates with a
+ * sample outside `mask` between them (a pause or a gap) are never joined.
  */
 export function mergeSwingsWithoutStance(
   peaks: number[],
@@ -87,37 +91,40 @@ export function mergeSwingsWithoutStance(
   mask: Uint8Array,
   sampleRateHz: number,
 ): number[] {
-  if (peaks.length < 3) return peaks;
-  const backwardDeg = (a: number, b: number): number | null => {
-    let sum = 0;
+  const rotation = (a: number, b: number): { backwardDeg: number; forwardDeg: number } | null => {
+    let backward = 0;
+    let forward = 0;
     for (let i = a; i < b; i++) {
-      if (!mask[i]) return null; // a pause or gap: different bouts, never merged
+      if (!mask[i]) return null;
       const v = omegaDegS[i]!;
-      if (v < 0) sum -= v;
+      if (v < 0) backward -= v;
+      else forward += v;
     }
-    return sum / sampleRateHz;
+    return { backwardDeg: backward / sampleRateHz, forwardDeg: forward / sampleRateHz };
   };
-  const gaps = peaks.slice(1).map((p, k) => backwardDeg(peaks[k]!, p));
-  const typical = quantileOf(gaps.filter((g): g is number => g !== null), 0.5);
-  if (typical === null || !(typical > 0)) return peaks;
-  const limit = SAME_SWING_BACKWARD_ROTATION_FRACTION * typical;
-  const kept: number[] = [peaks[0]!];
-  for (let k = 1; k < peaks.length; k++) {
-    const p = peaks[k]!;
-    const last = kept[kept.length - 1]!;
-    const back = backwardDeg(last, p);
-    if (back !== null && back < limit) {
-      if (heightDegS[p]! > heightDegS[last]!) kept[kept.length - 1] = p;
-    } else kept.push(p);
-  }
-  return kept;
-}
-
-function quantileOf(values: number[], q: number): number | null {
-  if (values.length === 0) return null;
-  const s = [...values].sort((a, b) => a - b);
-  const pos = q * (s.length - 1);
-  const lo = Math.floor(pos);
-  const hi = Math.min(s.length - 1, lo + 1);
-  return s[lo]! + (pos - lo) * (s[hi]! - s[lo]!);
+  const merge = (candidates: number[], sameSwing: (r: { backwardDeg: number; forwardDeg: number }) => boolean): number[] => {
+    if (candidates.length < 2) return candidates;
+    const kept: number[] = [candidates[0]!];
+    for (let k = 1; k < candidates.length; k++) {
+      const p = candidates[k]!;
+      const last = kept[kept.length - 1]!;
+      const r = rotation(last, p);
+      if (r !== null && sameSwing(r)) {
+        if (heightDegS[p]! > heightDegS[last]!) kept[kept.length - 1] = p;
+      } else kept.push(p);
+    }
+    return kept;
+  };
+  const f = SAME_SWING_BACKWARD_ROTATION_FRACTION;
+  const local = merge(peaks, (r) => r.backwardDeg < f * r.forwardDeg);
+  const stances = local
+    .slice(1)
+    .map((p, k) => rotation(local[k]!, p))
+    .filter((r): r is { backwardDeg: number; forwardDeg: number } => r !== null)
+    .map((r) => r.backwardDeg)
+    .sort((a, b) => a - b);
+  if (stances.length === 0) return local;
+  const h = stances.length >> 1;
+  const typicalDeg = stances.length % 2 ? stances[h]! : (stances[h - 1]! + stances[h]!) / 2;
+  return merge(local, (r) => r.backwardDeg < f * typicalDeg);
 }
