@@ -14,6 +14,8 @@ export interface ImpactParams {
   /** ICs of each side, session times (sorted). */
   contacts: Record<Side, number[]>;
   peakMs2: number;
+  /** First value of the jolt in the striking shank's sagittal rate, deg/s (applied negative). */
+  peakGyroDegS: number;
   /** Ringing frequency (Hz) and decay time constant (s) of the heel-strike transient (approximation). */
   frequencyHz: number;
   decayS: number;
@@ -177,7 +179,8 @@ function worldToSegment(anglesDeg: Vec3, f: Vec3): Vec3 {
  */
 function impactAt(p: SensorSynthesisParams, gain: SegmentKinematics["impactGain"], t: number): { acc: number; gyro: number } {
   const { peakMs2, frequencyHz: f, decayS: tau } = p.impacts;
-  if (peakMs2 === 0) return { acc: 0, gyro: 0 };
+  const { peakGyroDegS } = p.impacts;
+  if (peakMs2 === 0 && peakGyroDegS === 0) return { acc: 0, gyro: 0 };
   const w = 2 * Math.PI * f;
   let acc = 0;
   let gyro = 0;
@@ -191,9 +194,9 @@ function impactAt(p: SensorSynthesisParams, gain: SegmentKinematics["impactGain"
       const d2 = e * ((1 / (tau * tau) - w * w) * Math.sin(w * u) - ((2 * w) / tau) * Math.cos(w * u));
       const d2At0 = -(2 * w) / tau;
       acc += gain[side].acc * peakMs2 * (d2 / d2At0);
-      // Angular rate of an angle perturbation e^(−u/τ) sin(wu), first value −(30 °/s per 25 m/s²).
+      // Angular rate of an angle perturbation e^(−u/τ) sin(wu), first value −peakGyroDegS.
       const d1 = e * (w * Math.cos(w * u) - Math.sin(w * u) / tau);
-      gyro += -gain[side].gyro * (30 * peakMs2) / 25 * (d1 / w);
+      gyro += -gain[side].gyro * peakGyroDegS * (d1 / w);
     }
   }
   return { acc, gyro };

@@ -110,7 +110,7 @@ export const synthesizeKinematicSession: SynthesizeKinematicSession = (options: 
         clockS,
         clockOffsetS: o.clockOffsetS[placement] ?? 0,
         mount,
-        impacts: { contacts, peakMs2: o.noise.impactMs2, frequencyHz: 20, decayS: 0.015 },
+        impacts: { contacts, peakMs2: o.noise.impactMs2, peakGyroDegS: o.noise.impactGyroDegS, frequencyHz: 20, decayS: 0.015 },
         ripple,
         gyroNoiseDegS: o.noise.gyroDegS,
         accNoiseMs2: o.noise.accMs2,
@@ -246,6 +246,7 @@ function resolve(o: KinematicOptions) {
       accMs2: o.noise?.accMs2 ?? 0.05,
       gyroBiasDegS: o.noise?.gyroBiasDegS ?? 0.5,
       impactMs2: o.noise?.impactMs2 ?? 25,
+      impactGyroDegS: o.noise?.impactGyroDegS ?? 30,
       rippleDegS: o.noise?.rippleDegS ?? 12,
       standingSwayDegS: o.noise?.standingSwayDegS ?? 2,
     },
@@ -267,6 +268,7 @@ function resolve(o: KinematicOptions) {
   check(r.stepFraction > 0.3 && r.stepFraction < 0.7, `stepFraction must be 0.3–0.7, got ${r.stepFraction}`);
   check(r.standingBetweenS >= 2, `standingBetweenS must be ≥ 2 s, got ${r.standingBetweenS}`);
   check(r.leadInS >= 1 && r.leadOutS >= 0, "leadInS must be ≥ 1 s and leadOutS ≥ 0");
+  check(r.noise.impactGyroDegS >= 0 && r.noise.impactGyroDegS <= 300, `impactGyroDegS must be 0–300, got ${r.noise.impactGyroDegS}`);
   check(r.heightCm >= 100 && r.heightCm <= 230, `heightCm must be 100–230, got ${r.heightCm}`);
   for (const side of SIDES) {
     const l = r.legs[side];

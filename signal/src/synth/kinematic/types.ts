@@ -102,6 +102,8 @@ export interface KinematicNoiseOptions {
   gyroBiasDegS?: number;
   /** Heel-strike impact on the striking shank: peak specific-force change, m/s². Default 25 (0 = off). */
   impactMs2?: number;
+  /** First value of the heel-strike jolt in the striking shank's gyro_z, deg/s (negative: the lower end is kicked back). Default 30. */
+  impactGyroDegS?: number;
   /** Strap / soft-tissue ripple bursts (10–20 Hz) on the shanks: peak rate, deg/s. Default 12 (0 = off). */
   rippleDegS?: number;
   /** Postural sway while standing: SD of the slow segment rate, deg/s. Default 2 (0 = off). */

@@ -35,7 +35,7 @@ describe("synthesizeKinematicSession(options): physics of the model", () => {
   it("returns each shank to its starting angle over every steady stride (model within 0.5°, integrated gyro within 0.5°)", () => {
     // The sampled integral is checked without the 10–20 Hz transients, which a 100 Hz trapezoid
     // cannot integrate exactly; the transients are built with zero net rotation by construction.
-    const smooth = session({ noise: { ...QUIET, impactMs2: 0, rippleDegS: 0 } });
+    const smooth = session({ noise: { ...QUIET, impactMs2: 0, impactGyroDegS: 0, rippleDegS: 0 } });
     let strides = 0;
     for (const side of SIDES) {
       const r = rec(smooth, `${side}_shank`);
