@@ -10,12 +10,7 @@ const FS = 100;
 const STRIDE_S = 3.4;
 const STRIDES = 12;
 
-/** Raised-cosine step from 0 to 1 over [a, b]. */
-function ramp(t: number, a: number, b: number): number {
-  if (t <= a) return 0;
-  if (t >= b) return 1;
-  return 0.5 - 0.5 * Math.cos((Math.PI * (t - a)) / (b - a));
-}
+/** Rate of a raised-cosine step from 0 to 1 over [a, b] (its integral is exactly 1). */
 function rampRate(t: number, a: number, b: number): number {
   if (t <= a || t >= b) return 0;
   return ((0.5 * Math.PI) / (b - a)) * Math.sin((Math.PI * (t - a)) / (b - a));
