@@ -1,5 +1,6 @@
 export * from "./types";
 export { analyze, ALGORITHM_VERSION, type AnalyzeOptions } from "./analyze";
+export { WALKING_AIDS, type WalkingAid } from "./coordination/session-arms";
 export { formatAnalysisTable } from "./format-table";
 export * from "./io";
 export * from "./timebase";

@@ -10,4 +10,5 @@ export { frequencyRatio, RATIO_SNAP_TOLERANCE } from "./frequency-ratio";
 export { hilbert, hilbertPhase } from "./hilbert";
 export { relativePhase, wrapPi } from "./relative-phase";
 export { segmentAngleDeg, ANGLE_HIGH_PASS_STRIDE_FRACTION } from "./segment-angle";
+export { sessionArms, WALKING_AIDS, type WalkingAid, type SessionArms, type SessionArmsInput } from "./session-arms";
 export { welchPsd, type WelchOptions, type WelchResult } from "./welch-psd";
