@@ -359,6 +359,7 @@ function buildArmTruth(
     relativePhaseRateDeg: swinging && rate.length ? circularMeanDeg(rate) : null,
     requestedRelativePhaseDeg: swinging ? requestedDeg : null,
     swingRangeDeg: ranges.length ? ranges.reduce((a, b) => a + b, 0) / ranges.length : 0,
+    swingRangesDeg: ranges,
     cycles: strides.length,
     wear,
     sagittalSign,

@@ -185,6 +185,8 @@ export interface KinematicArmTruth {
   requestedRelativePhaseDeg: number | null;
   /** Mean sagittal range of the arm angle per arm cycle, degrees (0 when held still). */
   swingRangeDeg: number;
+  /** Range of each arm cycle in order (one per steady contralateral stride for 1:1, two for 2:1), degrees. */
+  swingRangesDeg: number[];
   /** Number of steady contralateral strides behind the phase and range. */
   cycles: number;
   wear: WristWear;

@@ -184,6 +184,7 @@ describe("synthesizeKinematicSession(options): physics of the model", () => {
         expect(Math.abs(arm.relativePhaseDeg! - -30)).toBeLessThan(3);
         expect(arm.swingRangeDeg).toBeCloseTo(side === "left" ? 36 : 12, 0);
         expect(arm.cycles).toBeGreaterThan(20);
+        expect(arm.swingRangesDeg).toHaveLength(arm.cycles * (coupling === "1:1" ? 1 : 2));
       }
     }
   });
