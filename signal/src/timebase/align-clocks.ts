@@ -2,7 +2,7 @@ import { detectWalkingMask } from "../activity/walking-bouts";
 import type { Placement, QualityItem, SensorRecording } from "../types";
 import { estimateLegClockOffset } from "./clock-offset";
 import { type ImpactEnvelope, impactEnvelope } from "./impact-signal";
-import { strideTimeFromImpacts } from "./own-impacts";
+import { strideTimeFromImpacts } from "./impact-stride-time";
 import { type ResampledSensor, resampleToGrid } from "./resample-to-grid";
 import type { SessionGrid } from "./session-grid";
 
@@ -51,24 +51,32 @@ export function alignLegClocks(
   const fs = grid.sampleRateHz;
   const left = sensors.get(leftP)!;
   const right = sensors.get(rightP)!;
-  const walking = detectWalkingMask(
-    [left, right].map((s) => ({ x: s.gyroX, y: s.gyroY, z: s.gyroZ, valid: s.valid })),
-    fs,
-    grid.length,
-  );
   const env = (s: ResampledSensor): ImpactEnvelope => impactEnvelope(s.accX, s.accY, s.accZ, s.valid, fs);
   const eL = env(left);
   const eR = env(right);
   const rate = eL.rateHz;
-  const active = new Uint8Array(eL.envelope.length);
-  for (let k = 0; k < active.length; k++) active[k] = walking[k * eL.factor]!;
+  const bins = eL.envelope.length;
+  // Walking, by the analysis's own rule (activity/walking-bouts.ts), on the bins' mean |ω|.
+  const magL = gyroMagnitudeBins(left, eL.factor, bins);
+  const magR = gyroMagnitudeBins(right, eL.factor, bins);
+  const zeros = new Float32Array(bins);
+  const validOf = (mag: Float32Array) => {
+    const v = new Uint8Array(bins);
+    for (let k = 0; k < bins; k++) v[k] = mag[k] === mag[k] ? 1 : 0; // NaN marks an invalid bin
+    return v;
+  };
+  const active = detectWalkingMask(
+    [magL, magR].map((mag) => ({ x: mag, y: zeros, z: zeros, valid: validOf(mag) })),
+    rate,
+    bins,
+  );
   const strideS = strideTimeFromImpacts(eL.envelope, eL.valid, active, rate) ?? strideTimeFromImpacts(eR.envelope, eR.valid, active, rate);
   if (strideS === null) return none("clock alignment between the legs could not be checked: no regular walking in the impact signals");
   const bridges = bridgePlacements.map((p) => env(sensors.get(p)!));
   const memo = new Map<number, number>();
   const alternation = (offsetS: number) => {
-    const k = Math.round(offsetS * fs);
-    if (!memo.has(k)) memo.set(k, legAlternation(left, right, walking, k / fs, fs));
+    const k = Math.round(offsetS * rate);
+    if (!memo.has(k)) memo.set(k, legAlternation(magL, magR, active, k, rate));
     return memo.get(k)!;
   };
   const est = estimateLegClockOffset(eL, eR, bridges, active, rate, strideS / 2, alternation);
@@ -103,39 +111,51 @@ export function alignLegClocks(
 }
 
 /**
- * Correlation of the two leg sensors' |ω| over walking with the right one's clock moved by offsetS.
+ * Correlation of the two leg sensors' |ω| (per envelope bin) over walking with the right one's clock
+ * moved by shiftBins.
  * Walking legs swing half a stride apart (Plotnik et al. 2007: left–right phase near 180° even in
  * impaired gait), so the true offset gives a negative value and an offset one step off a positive
  * one: a coarse, step-level check only (|ω| is independent of how the sensor is mounted).
  */
-export function legAlternation(left: ResampledSensor, right: ResampledSensor, walking: Uint8Array, offsetS: number, fs: number): number {
-  const shift = Math.round(offsetS * fs);
+export function legAlternation(left: Float32Array, right: Float32Array, walking: Uint8Array, shiftBins: number, rateHz: number): number {
   const n = walking.length;
-  const mag = (s: ResampledSensor, i: number) => Math.hypot(s.gyroX[i]!, s.gyroY[i]!, s.gyroZ[i]!);
-  let sl = 0;
-  let sr = 0;
-  let c = 0;
-  for (let i = 0; i < n; i++) {
-    const j = i - shift;
-    if (j < 0 || j >= n || !walking[i] || !left.valid[i] || !right.valid[j]) continue;
-    sl += mag(left, i);
-    sr += mag(right, j);
-    c++;
-  }
-  if (c < 2 * fs) return Number.NaN;
-  const ml = sl / c;
-  const mr = sr / c;
-  let sxy = 0;
+  let sx = 0;
+  let sy = 0;
   let sxx = 0;
   let syy = 0;
-  for (let i = 0; i < n; i++) {
-    const j = i - shift;
-    if (j < 0 || j >= n || !walking[i] || !left.valid[i] || !right.valid[j]) continue;
-    const x = mag(left, i) - ml;
-    const y = mag(right, j) - mr;
-    sxy += x * y;
+  let sxy = 0;
+  let c = 0;
+  for (let i = Math.max(0, shiftBins); i < Math.min(n, n + shiftBins); i++) {
+    const x = left[i]!;
+    const y = right[i - shiftBins]!;
+    if (!walking[i] || Number.isNaN(x) || Number.isNaN(y)) continue;
+    sx += x;
+    sy += y;
     sxx += x * x;
     syy += y * y;
+    sxy += x * y;
+    c++;
   }
-  return sxx > 0 && syy > 0 ? sxy / Math.sqrt(sxx * syy) : Number.NaN;
+  if (c < 2 * rateHz) return Number.NaN;
+  const vx = sxx - (sx * sx) / c;
+  const vy = syy - (sy * sy) / c;
+  return vx > 0 && vy > 0 ? (sxy - (sx * sy) / c) / Math.sqrt(vx * vy) : Number.NaN;
+}
+
+/** |ω| (°/s) averaged over `factor` grid samples per bin; NaN where any sample is invalid. */
+function gyroMagnitudeBins(s: ResampledSensor, factor: number, bins: number): Float32Array {
+  const out = new Float32Array(bins);
+  for (let k = 0; k < bins; k++) {
+    let sum = 0;
+    let ok = true;
+    for (let i = k * factor; i < (k + 1) * factor; i++) {
+      if (!s.valid[i]) ok = false;
+      const x = s.gyroX[i]!;
+      const y = s.gyroY[i]!;
+      const z = s.gyroZ[i]!;
+      sum += Math.sqrt(x * x + y * y + z * z);
+    }
+    out[k] = ok ? sum / factor : Number.NaN;
+  }
+  return out;
 }

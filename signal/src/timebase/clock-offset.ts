@@ -54,17 +54,107 @@ export interface LagEstimate {
   strong: boolean;
 }
 
-/** Lag (s) at which `b` best matches `a` (b(t + lag) ≈ a(t)), over bins [from, to). */
-export function impactLag(a: EnvelopeInput, b: EnvelopeInput, active: Uint8Array, rateHz: number, maxLagS: number, from = 0, to = active.length): LagEstimate | null {
-  const maxLagBins = Math.max(1, Math.floor(maxLagS * rateHz));
-  const { r, bins } = lagCorrelation(a.envelope, b.envelope, a.valid, b.valid, active, maxLagBins, from, to);
-  if (bins < 2 * rateHz) return null;
-  // Peaks closer than 60 ms are one broad peak, not two (common practice).
-  const p = lagPeak(r, Math.max(1, Math.round(0.06 * rateHz)));
+/** Longest stretch of the session (s) the whole-session lags are searched over: ten minutes hold several hundred strides, plenty for the lag, and bound the cost on long sessions (common practice). */
+export const WHOLE_SEARCH_MAX_S = 600;
+
+export interface Span {
+  from: number;
+  to: number;
+}
+
+/** At most WHOLE_SEARCH_MAX_S of bins, centred on the median walking bin. */
+export function searchSpan(active: Uint8Array, rateHz: number): Span {
+  const m = active.length;
+  const max = Math.round(WHOLE_SEARCH_MAX_S * rateHz);
+  if (m <= max) return { from: 0, to: m };
+  let total = 0;
+  for (let k = 0; k < m; k++) total += active[k]!;
+  let seen = 0;
+  let mid = m >> 1;
+  for (let k = 0; k < m; k++) {
+    seen += active[k]!;
+    if (2 * seen >= total && total > 0) {
+      mid = k;
+      break;
+    }
+  }
+  const from = Math.max(0, Math.min(m - max, mid - (max >> 1)));
+  return { from, to: from + max };
+}
+
+function coarseSpan(span: Span): Span {
+  return { from: Math.floor(span.from / COARSE_FACTOR), to: Math.ceil(span.to / COARSE_FACTOR) };
+}
+
+/** Bins of the coarse search: the lag range is scanned at half the envelope rate, then refined. */
+const COARSE_FACTOR = 2;
+/** Peaks closer than this are one broad peak, not two (s; common practice). */
+const PEAK_SEPARATION_S = 0.06;
+
+interface Coarse {
+  a: EnvelopeInput;
+  active: Uint8Array;
+}
+
+const coarseCache = new WeakMap<Float32Array, { active: Uint8Array; coarse: Coarse }>();
+
+/** Block maximum of an envelope (and AND of its masks) over COARSE_FACTOR bins (cached per envelope). */
+export function coarsen(x: EnvelopeInput, active: Uint8Array): Coarse {
+  const hit = coarseCache.get(x.envelope);
+  if (hit && hit.active === active) return hit.coarse;
+  const coarse = coarsenNow(x, active);
+  coarseCache.set(x.envelope, { active, coarse });
+  return coarse;
+}
+
+function coarsenNow(x: EnvelopeInput, active: Uint8Array): Coarse {
+  const m = Math.floor(x.envelope.length / COARSE_FACTOR);
+  const envelope = new Float32Array(m);
+  const valid = new Uint8Array(m);
+  const act = new Uint8Array(m);
+  for (let k = 0; k < m; k++) {
+    let v = 0;
+    let ok = 1;
+    let on = 1;
+    for (let i = k * COARSE_FACTOR; i < (k + 1) * COARSE_FACTOR; i++) {
+      if (x.envelope[i]! > v) v = x.envelope[i]!;
+      ok &= x.valid[i]!;
+      on &= active[i]!;
+    }
+    envelope[k] = v;
+    valid[k] = ok;
+    act[k] = on;
+  }
+  return { a: { envelope, valid }, active: act };
+}
+
+/** Sub-bin lag (bins) of the highest correlation within ±3 bins of `centreBins`, at the full rate. */
+function refineLag(a: EnvelopeInput, b: EnvelopeInput, active: Uint8Array, centreBins: number, span: Span): { lagBins: number; peak: number } | null {
+  const { r, bins } = lagCorrelation(a.envelope, b.envelope, a.valid, b.valid, active, 3, span.from, span.to, centreBins);
+  if (bins === 0) return null;
+  const p = lagPeak(r, 7);
+  return p ? { lagBins: centreBins + p.lagBins, peak: p.peak } : null;
+}
+
+/**
+ * Lag (s) at which `b` best matches `a` (b(t + lag) ≈ a(t)) within ±maxLagS over the whole session:
+ * scanned on coarse bins, then refined at the full rate around the best coarse lag.
+ */
+export function impactLag(a: EnvelopeInput, b: EnvelopeInput, active: Uint8Array, rateHz: number, maxLagS: number, span: Span = searchSpan(active, rateHz)): LagEstimate | null {
+  const ca = coarsen(a, active);
+  const cb = coarsen(b, active);
+  const coarseRate = rateHz / COARSE_FACTOR;
+  const maxLagBins = Math.max(1, Math.floor(maxLagS * coarseRate));
+  const cs = coarseSpan(span);
+  const { r, bins } = lagCorrelation(ca.a.envelope, cb.a.envelope, ca.a.valid, cb.a.valid, ca.active, maxLagBins, cs.from, cs.to);
+  if (bins < 2 * coarseRate) return null;
+  const p = lagPeak(r, Math.max(1, Math.round(PEAK_SEPARATION_S * coarseRate)));
   if (!p) return null;
   const edge = Math.abs(p.lagBins) >= maxLagBins - 0.5;
+  const fine = refineLag(a, b, active, Math.round(p.lagBins * COARSE_FACTOR), span);
+  if (!fine) return null;
   const strong = !edge && p.peak >= MIN_PEAK_CORRELATION && p.peak >= MIN_PEAK_TO_RUNNER_UP * Math.max(0, p.runnerUp);
-  return { lagS: p.lagBins / rateHz, peak: p.peak, runnerUp: p.runnerUp, strong };
+  return { lagS: fine.lagBins / rateHz, peak: fine.peak, runnerUp: p.runnerUp, strong };
 }
 
 /**
@@ -123,16 +213,23 @@ function offsetFromReference(
   alternation: Alternation,
 ): BridgeEstimate | null {
   const leftMaxS = Math.min(MAX_CLOCK_OFFSET_S, STEP_FRACTION_SEARCH * stepTimeS);
-  const l = impactLag(left, bridge, active, rateHz, leftMaxS);
+  const span = searchSpan(active, rateHz);
+  const l = impactLag(left, bridge, active, rateHz, leftMaxS, span);
   if (!l) return null;
-  const maxLagBins = Math.ceil((MAX_CLOCK_OFFSET_S + leftMaxS) * rateHz);
-  const { r, bins } = lagCorrelation(right.envelope, bridge.envelope, right.valid, bridge.valid, active, maxLagBins, 0, active.length);
-  if (bins < 2 * rateHz) return null;
-  const all = lagCandidates(r, Math.max(1, Math.round(0.06 * rateHz)));
+  const cr = coarsen(right, active);
+  const cb = coarsen(bridge, active);
+  const coarseRate = rateHz / COARSE_FACTOR;
+  const maxLagBins = Math.ceil((MAX_CLOCK_OFFSET_S + leftMaxS) * coarseRate);
+  const cs = coarseSpan(span);
+  const { r, bins } = lagCorrelation(cr.a.envelope, cb.a.envelope, cr.a.valid, cb.a.valid, cr.active, maxLagBins, cs.from, cs.to);
+  if (bins < 2 * coarseRate) return null;
+  const all = lagCandidates(r, Math.max(1, Math.round(PEAK_SEPARATION_S * coarseRate)));
   const best = all[0]?.peak ?? 0;
   // A candidate must be one of the train's main peaks (half the best: common practice), not a ripple.
   const candidates = all
     .filter((c) => c.peak >= MIN_PEAK_CORRELATION && c.peak >= 0.5 * best)
+    .map((c) => refineLag(right, bridge, active, Math.round(c.lagBins * COARSE_FACTOR), span))
+    .filter((c): c is { lagBins: number; peak: number } => c !== null)
     .map((c) => ({ ...c, rightLagS: c.lagBins / rateHz, offsetS: c.lagBins / rateHz - l.lagS }))
     .filter((c) => Math.abs(c.offsetS) <= MAX_CLOCK_OFFSET_S)
     .map((c) => ({ ...c, alternation: alternation(c.offsetS) }));
@@ -167,14 +264,19 @@ export function offsetNear(
   from: number,
   to: number,
 ): number | null {
+  const coarseRate = rateHz / COARSE_FACTOR;
+  const cb = coarsen(bridge, active);
+  const cs = coarseSpan({ from, to });
   const lag = (x: EnvelopeInput, centreS: number): number | null => {
-    const centre = Math.round(centreS * rateHz);
-    const half = Math.max(2, Math.ceil(toleranceS * rateHz));
-    const { r, bins } = lagCorrelation(x.envelope, bridge.envelope, x.valid, bridge.valid, active, half, from, to, null, null, centre);
-    if (bins < 10 * rateHz) return null;
-    const c = lagCandidates(r, Math.max(1, Math.round(0.06 * rateHz)))[0];
+    const cx = coarsen(x, active);
+    const centre = Math.round(centreS * coarseRate);
+    const half = Math.max(2, Math.ceil(toleranceS * coarseRate));
+    const { r, bins } = lagCorrelation(cx.a.envelope, cb.a.envelope, cx.a.valid, cb.a.valid, cx.active, half, cs.from, cs.to, centre);
+    if (bins < 10 * coarseRate) return null;
+    const c = lagCandidates(r, Math.max(1, Math.round(PEAK_SEPARATION_S * coarseRate)))[0];
     if (!c || c.peak < MIN_PEAK_CORRELATION) return null;
-    return (centre + c.lagBins) / rateHz;
+    const fine = refineLag(x, bridge, active, Math.round((centre + c.lagBins) * COARSE_FACTOR), { from, to });
+    return fine ? fine.lagBins / rateHz : null;
   };
   const l = lag(left, whole.leftLagS);
   const r = lag(right, whole.rightLagS);

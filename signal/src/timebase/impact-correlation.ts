@@ -3,9 +3,7 @@
  * range, computed directly (no FFT): cost is bins × lags, and the lag range is small.
  *
  * r(τ) = Σ a′(t)·b′(t+τ) / √(Σ a′² · Σ b′²), a′ and b′ the envelopes minus their mean over the
- * bins used, summed over bins where both are valid and `active`. When own-impact masks are given,
- * products where an own impact of `a` meets an own impact of `b` are left out (see clock-offset.ts
- * for why), so the lag that lines up the two legs' own heel strikes cannot win. Lags run over
+ * bins used, summed over bins where both are valid and `active`. Lags run over
  * lagCentreBins ± maxLagBins; r[i] is the lag lagCentreBins + i − maxLagBins.
  */
 export function lagCorrelation(
@@ -17,8 +15,6 @@ export function lagCorrelation(
   maxLagBins: number,
   fromBin: number,
   toBin: number,
-  ownA: Uint8Array | null = null,
-  ownB: Uint8Array | null = null,
   lagCentreBins = 0,
 ): { r: Float64Array; bins: number } {
   const m = Math.min(a.length, b.length, active.length);
@@ -52,24 +48,20 @@ export function lagCorrelation(
   }
   const norm = Math.sqrt(va * vb);
   if (!(norm > 0)) return { r: r.fill(Number.NaN), bins: 0 };
-  // Centred, zeroed where unusable, so the inner loop is one multiply–add per (t, τ).
-  const ca = new Float64Array(m);
-  const cb = new Float64Array(m);
-  for (let t = 0; t < m; t++) {
-    const inRange = t >= from && t < to && active[t] === 1;
-    ca[t] = inRange && validA[t] ? a[t]! - ma : 0;
-    cb[t] = validB[t] && active[t] ? b[t]! - mb : 0;
-  }
+  // Centred, zeroed where unusable, so the inner loop is one multiply–add per (t, τ); only the
+  // stretch each signal contributes is built (a window's correlation costs its own length).
+  const ca = new Float64Array(to - from);
+  for (let t = from; t < to; t++) ca[t - from] = active[t] && validA[t] ? a[t]! - ma : 0;
+  const bFrom = Math.max(0, from + lagCentreBins - maxLagBins);
+  const bTo = Math.min(m, to + lagCentreBins + maxLagBins + 1);
+  const cb = new Float64Array(Math.max(0, bTo - bFrom));
+  for (let t = bFrom; t < bTo; t++) cb[t - bFrom] = active[t] && validB[t] ? b[t]! - mb : 0;
   for (let li = 0; li < r.length; li++) {
     const lag = lagCentreBins + li - maxLagBins;
-    const t0 = Math.max(from, -lag);
-    const t1 = Math.min(to, m - lag);
+    const t0 = Math.max(from, bFrom - lag);
+    const t1 = Math.min(to, bTo - lag);
     let s = 0;
-    if (ownA && ownB) {
-      for (let t = t0; t < t1; t++) if (!(ownA[t] && ownB[t + lag])) s += ca[t]! * cb[t + lag]!;
-    } else {
-      for (let t = t0; t < t1; t++) s += ca[t]! * cb[t + lag]!;
-    }
+    for (let t = t0, u = t0 + lag - bFrom; t < t1; t++, u++) s += ca[t - from]! * cb[u]!;
     r[li] = s / norm;
   }
   return { r, bins: na };

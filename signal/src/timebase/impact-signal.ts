@@ -13,7 +13,7 @@ export const IMPACT_ENVELOPE_RATE_HZ = 100;
 const EDGE_GUARD_S = 0.1;
 
 export interface ImpactEnvelope {
-  /** |high-passed acceleration| (m/s²), block maximum per bin; 0 where not valid. */
+  /** |high-passed acceleration| (m/s²) per bin; 0 where not valid. */
   envelope: Float32Array;
   /** 1 where the bin is covered by valid data clear of its edges. */
   valid: Uint8Array;
@@ -25,8 +25,8 @@ export interface ImpactEnvelope {
 
 /**
  * The impact signal of one sensor on the session grid: magnitude of the zero-phase high-passed
- * acceleration vector (all three axes, so it does not depend on how the sensor is mounted), reduced
- * to ~100 Hz bins by the block maximum (a transient survives decimation; a mean would blur it).
+ * acceleration vector (all three axes, so it does not depend on how the sensor is mounted), on
+ * ~100 Hz bins (10 ms: the resolution the lag search starts from before sub-bin interpolation).
  */
 export function impactEnvelope(
   accX: ArrayLike<number>,
@@ -42,39 +42,49 @@ export function impactEnvelope(
   const envelope = new Float32Array(m);
   const binValid = new Uint8Array(m);
   // The high-pass needs a cut-off below Nyquist; at very low rates there is no impact band at all.
-  if (n < 16 || IMPACT_HIGH_PASS_HZ >= 0.45 * sampleRateHz) return { envelope, valid: binValid, rateHz, factor };
-  const sections = butterworthSections("highpass", 4, IMPACT_HIGH_PASS_HZ, sampleRateHz);
-  const hx = sosFiltFilt(sections, accX);
-  const hy = sosFiltFilt(sections, accY);
-  const hz = sosFiltFilt(sections, accZ);
-  // Valid samples at least EDGE_GUARD_S from any invalid one (forward and backward distance).
-  const guard = Math.round(EDGE_GUARD_S * sampleRateHz);
-  const clear = new Uint8Array(n);
-  let run = 0; // valid samples since the last invalid one (the array's start counts as an edge)
-  for (let i = 0; i < n; i++) {
-    run = valid[i] ? run + 1 : 0;
-    clear[i] = run > guard ? 1 : 0;
-  }
-  run = 0;
-  for (let i = n - 1; i >= 0; i--) {
-    run = valid[i] ? run + 1 : 0;
-    if (run <= guard) clear[i] = 0;
-  }
+  if (m < 16 || IMPACT_HIGH_PASS_HZ >= 0.45 * rateHz) return { envelope, valid: binValid, rateHz, factor };
+  // Bin means first (a fast recording's content above the bin rate's Nyquist folds into the band,
+  // where it is still impact energy), then one high-pass per axis at the bin rate: a jolt across
+  // the gravity direction barely moves |a|, so the axes are filtered, not the magnitude.
+  const binOk = new Uint8Array(m);
+  const mx = new Float64Array(m);
+  const my = new Float64Array(m);
+  const mz = new Float64Array(m);
+  let last = [0, 0, 0];
   for (let k = 0; k < m; k++) {
-    let peak = 0;
+    let sx = 0;
+    let sy = 0;
+    let sz = 0;
     let ok = 1;
     for (let i = k * factor; i < (k + 1) * factor; i++) {
-      if (!clear[i]) {
-        ok = 0;
-        break;
-      }
-      const v = Math.hypot(hx[i]!, hy[i]!, hz[i]!);
-      if (v > peak) peak = v;
+      ok &= valid[i]!;
+      sx += accX[i]!;
+      sy += accY[i]!;
+      sz += accZ[i]!;
     }
-    if (ok) {
-      envelope[k] = peak;
-      binValid[k] = 1;
-    }
+    binOk[k] = ok;
+    // Invalid bins hold the last valid value, so the filter sees no step there (they are dropped anyway).
+    if (ok) last = [sx / factor, sy / factor, sz / factor];
+    mx[k] = last[0]!;
+    my[k] = last[1]!;
+    mz[k] = last[2]!;
+  }
+  const sections = butterworthSections("highpass", 4, IMPACT_HIGH_PASS_HZ, rateHz);
+  const hx = sosFiltFilt(sections, mx);
+  const hy = sosFiltFilt(sections, my);
+  const hz = sosFiltFilt(sections, mz);
+  // Bins at least EDGE_GUARD_S from any invalid one (forward and backward distance).
+  const guard = Math.round(EDGE_GUARD_S * rateHz);
+  let run = 0; // valid bins since the last invalid one (the array's start counts as an edge)
+  for (let k = 0; k < m; k++) {
+    run = binOk[k] ? run + 1 : 0;
+    binValid[k] = run > guard ? 1 : 0;
+  }
+  run = 0;
+  for (let k = m - 1; k >= 0; k--) {
+    run = binOk[k] ? run + 1 : 0;
+    if (run <= guard) binValid[k] = 0;
+    if (binValid[k]) envelope[k] = Math.sqrt(hx[k]! ** 2 + hy[k]! ** 2 + hz[k]! ** 2);
   }
   return { envelope, valid: binValid, rateHz, factor };
 }

@@ -1,11 +1,5 @@
-/**
- * A leg sensor feels its own heel strike far more strongly than the other leg's (it is on the
- * segment that hits the ground); the other leg's strike reaches it attenuated through the pelvis.
- * So, per stride, the largest impact of a leg sensor is its own heel strike.
- */
+// Stride time from one leg sensor's impact train, used to size the clock-offset search.
 
-/** Own-impact bins are masked this far either side: a heel-strike transient with its ringing lasts well under 100 ms (common practice). */
-export const OWN_IMPACT_HALF_WIDTH_S = 0.1;
 /** Stride-time search range for the envelope autocorrelation (s): 0.5 s is a fast run-like stride, 3 s a very slow impaired one (common practice). */
 export const STRIDE_SEARCH_S: readonly [number, number] = [0.5, 3];
 
@@ -58,47 +52,4 @@ export function strideTimeFromImpacts(envelope: Float32Array, valid: Uint8Array,
   // A clearly periodic train has r well above 0 at one stride (0.2: common practice).
   if (best < 0 || bestR < 0.2) return null;
   return best * blockS;
-}
-
-/**
- * Own heel strikes of a leg sensor: bins holding the largest envelope value within ±0.6 stride
- * (the other leg's strike, half a stride away, then always has a larger own strike within reach),
- * marked ±OWN_IMPACT_HALF_WIDTH_S. Returns the mask and the number of strikes.
- */
-export function ownImpactMask(
-  envelope: Float32Array,
-  valid: Uint8Array,
-  active: Uint8Array,
-  rateHz: number,
-  strideTimeS: number,
-): { mask: Uint8Array; count: number; binsAt: number[] } {
-  const m = envelope.length;
-  const mask = new Uint8Array(m);
-  const reach = Math.max(1, Math.round(0.6 * strideTimeS * rateHz));
-  const half = Math.max(1, Math.round(OWN_IMPACT_HALF_WIDTH_S * rateHz));
-  const binsAt: number[] = [];
-  // Sliding maximum over [t − reach, t + reach] by a monotone deque: O(m).
-  const dq = new Int32Array(m);
-  let head = 0;
-  let tail = 0;
-  let next = 0;
-  for (let t = 0; t < m; t++) {
-    const hi = Math.min(m - 1, t + reach);
-    while (next <= hi) {
-      const v = valid[next] && active[next] ? envelope[next]! : 0;
-      while (tail > head) {
-        const j = dq[tail - 1]!;
-        const vj = valid[j] && active[j] ? envelope[j]! : 0;
-        if (vj <= v) tail--;
-        else break;
-      }
-      dq[tail++] = next;
-      next++;
-    }
-    while (dq[head]! < t - reach) head++;
-    if (!valid[t] || !active[t] || !(envelope[t]! > 0)) continue;
-    if (dq[head] === t) binsAt.push(t);
-  }
-  for (const t of binsAt) mask.fill(1, Math.max(0, t - half), Math.min(m, t + half + 1));
-  return { mask, count: binsAt.length, binsAt };
 }

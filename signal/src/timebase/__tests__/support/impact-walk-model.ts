@@ -93,8 +93,9 @@ export function modelRecordings(o: WalkModelOptions): SensorRecording[] {
     };
     if (isLeg) {
       // Sagittal shank rotation: a forward burst at mid-swing (0.2 stride before each own strike), a
-      // brief backward rotation as the heel strikes, and a deeper one at push-off (toe-off at 62 %
-      // of the stride, the textbook stance fraction).
+      // brief backward rotation as the heel strikes, the slow backward rotation of stance (the shank
+      // tilts forward over the planted foot by roughly 30–40° in about 0.6 s), and a deeper one at
+      // push-off (toe-off at 62 % of the stride, the textbook stance fraction).
       const bump = (centre: number, w: number, amp: number) =>
         span(centre - 4 * w, centre + 4 * w, (i, tm) => {
           g[i] = g[i]! + amp * Math.exp(-0.5 * ((tm - centre) / w) ** 2);
@@ -102,6 +103,7 @@ export function modelRecordings(o: WalkModelOptions): SensorRecording[] {
       for (const ic of own) {
         bump(ic - 0.2 * o.strideS, 0.08 * o.strideS, 250);
         bump(ic + 0.02, 0.02 * o.strideS, -60);
+        bump(ic + 0.3 * o.strideS, 0.12 * o.strideS, -50);
         bump(ic + 0.62 * o.strideS, 0.04 * o.strideS, -100);
       }
     }
