@@ -59,6 +59,9 @@ export const synthesizeKinematicSession: SynthesizeKinematicSession = (options: 
     },
     prng,
   );
+  if (schedule.left.strides.every((s) => s.boutEdge || s.containsPause)) {
+    throw new RangeError("no stride away from a bout's edges or pauses: make a bout longer");
+  }
   const durationS = schedule.endS + o.leadOutS;
   const patterns = {
     left: legPattern(o.legs.left),
@@ -281,9 +284,13 @@ function resolve(o: KinematicOptions) {
   }
   check(r.arms.forwardFraction >= 0 && r.arms.forwardFraction <= 1, `forwardFraction must be 0–1, got ${r.arms.forwardFraction}`);
   check(r.arms.secondHarmonic >= 0 && r.arms.secondHarmonic <= 0.8, "secondHarmonicPct must be 0–80");
-  for (const h of o.hesitations ?? []) check(h.durationS >= 0.2 && h.durationS <= 5, `hesitation durationS must be 0.2–5 s, got ${h.durationS}`);
+  for (const h of o.hesitations ?? []) {
+    check(h.durationS >= 0.2 && h.durationS <= 5, `hesitation durationS must be 0.2–5 s, got ${h.durationS}`);
+    check((h.boutIndex ?? 0) >= 0 && (h.boutIndex ?? 0) < r.bouts.length, `hesitation boutIndex ${h.boutIndex} names no bout`);
+  }
   for (const e of o.shortStrideEpisodes ?? []) {
     check(e.durationS > 0, "episode durationS must be positive");
+    check((e.boutIndex ?? 0) >= 0 && (e.boutIndex ?? 0) < r.bouts.length, `episode boutIndex ${e.boutIndex} names no bout`);
     check((e.strideTimeScale ?? 0.6) >= 0.4 && (e.strideTimeScale ?? 0.6) <= 1, "episode strideTimeScale must be 0.4–1");
     check((e.romScale ?? 0.5) >= 0.2 && (e.romScale ?? 0.5) <= 1, "episode romScale must be 0.2–1");
   }

@@ -243,5 +243,8 @@ describe("synthesizeKinematicSession(options): physics of the model", () => {
     expect(() => session({ legs: { left: { stanceFraction: 0.4 } } })).toThrow(RangeError);
     expect(() => session({ stepFraction: 0.35, legs: { left: { stanceFraction: 0.5 } }, stanceFraction: 0.5 })).toThrow(RangeError);
     expect(() => session({ bouts: [{ durationS: 1 }] })).toThrow(RangeError);
+    expect(() => session({ bouts: [{ durationS: 3.5 }] })).toThrow(/bout longer/);
+    expect(() => session({ hesitations: [{ atS: 5, durationS: 1, boutIndex: 2 }] })).toThrow(RangeError);
+    expect(() => session({ hesitations: [{ atS: 5, durationS: 9 }] })).toThrow(RangeError);
   });
 });
