@@ -81,6 +81,22 @@ describe("synthesizeKinematicSession(options): physics of the model", () => {
     }
   });
 
+  it("sets contacts by the schedule, not at minima of ω: the nearest local minimum of the model's shank rate is ≥ 20 ms from most ICs", () => {
+    const distancesMs: number[] = [];
+    for (const side of SIDES) {
+      for (const st of steady(normal, side)) {
+        const rate = (t: number) => normal.model.shankRateDegS(side, t);
+        let nearest = Infinity;
+        for (let t = st.icS - 0.2; t <= st.icS + 0.2; t += 0.001) {
+          if (rate(t) < rate(t - 0.001) && rate(t) <= rate(t + 0.001)) nearest = Math.min(nearest, Math.abs(t - st.icS));
+        }
+        distancesMs.push(1000 * nearest);
+      }
+    }
+    distancesMs.sort((a, b) => a - b);
+    expect(distancesMs[distancesMs.length >> 1]!).toBeGreaterThanOrEqual(20);
+  });
+
   it("reads 9.81 m/s² of specific force at rest, +y up on a standard mount, −y on an upside-down wrist", () => {
     const s = session({
       noise: { ...QUIET, standingSwayDegS: 0 },
