@@ -44,6 +44,9 @@ export const mdcSchema = z.object({
   sem: z.number().optional(),
 });
 
+// The mean may be missing (an angle spread evenly has no mean); the summary then shows no change.
+export const baselineSchema = z.object({ mean: z.number().nullable(), n: z.number().nullish() });
+
 export const slopeFlagSchema = z.object({
   flag: flagEnum,
   slopePerWeek: z.number(),
@@ -60,6 +63,8 @@ export const trendMetricSchema = z.object({
   points: z.array(trendPointSchema),
   bands: z.array(bandSchema).optional(),
   mdc: mdcSchema.nullish(),
+  /** The patient's baseline (first compared sessions) the flags measure from; null until there are enough. */
+  baseline: baselineSchema.nullish(),
   slopeFlag: slopeFlagSchema.nullish(),
   direction: z.string().nullish(),
   /** Why no band is drawn for this patient (e.g. "No published band for this patient…"). */

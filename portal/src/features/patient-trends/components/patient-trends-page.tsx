@@ -7,6 +7,7 @@ import { FAMILIES, familyOf } from "../api/metric-families";
 import { usePatientDetail, usePatientSessions, useTrends, type CoordinationEvent, type TrendMetric } from "../api/trends";
 import { DEFAULT_CAUTIONS, SHORT_CAUTION } from "./flag-badge";
 import { TrendFamilyCard } from "./trend-family-card";
+import { TrendSummary } from "./trend-summary";
 import { PatientHeightForm } from "./patient-height-form";
 import { WalkingAidStrip, walkingAidMarkers, walkingAidRuns } from "./walking-aid-strip";
 import { walkingAidLabel } from "@/lib/walking-aid";
@@ -64,6 +65,8 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
           .filter(Boolean)
           .join(" · ")}
       </PageHeader>
+      {/* First on screen: the page is long, so the latest state of every measure is readable before any chart. */}
+      {byFamily.length > 0 && domain ? <TrendSummary metrics={trends.metrics} /> : null}
       <p className="print-only mb-2 text-sm">Height: {patient.heightCm != null ? `${patient.heightCm} cm` : "not entered"}.</p>
       <div className="card mb-6 p-4">
         <PatientHeightForm key={String(patient.heightCm ?? "")} patientId={patientId} heightCm={patient.heightCm} />

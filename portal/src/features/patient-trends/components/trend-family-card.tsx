@@ -3,14 +3,15 @@ import { TimeSeriesChart, type ChartMarker, type ChartSeries, type PointFlag } f
 import type { CoordinationEvent, TrendBand, TrendMetric } from "../api/trends";
 import { metricLabel, seriesColor, type FamilyInfo } from "../api/metric-families";
 import { FlagBadge } from "./flag-badge";
+import { familyBands, trendCardId } from "./trend-summary-model";
 import { walkingAidLabel } from "@/lib/walking-aid";
 
 const asFlag = (f: string | undefined): PointFlag | undefined => (f === "improved" || f === "worsened" || f === "within-error" ? f : undefined);
 const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: "numeric", month: "short", year: "numeric" });
 
-const displayUnit = (rawUnit: string) => (rawUnit === "/min" ? "steps/min" : rawUnit === "deg" ? "°" : rawUnit);
+export const displayUnit = (rawUnit: string) => (rawUnit === "/min" ? "steps/min" : rawUnit === "deg" ? "°" : rawUnit);
 
-function fmt(v: number, rawUnit: string) {
+export function fmt(v: number, rawUnit: string) {
   const unit = displayUnit(rawUnit);
   const digits = Math.abs(v) >= 20 ? 1 : 2;
   if (unit === "°") return `${v.toFixed(digits)}°`;
@@ -52,8 +53,7 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
       .sort((a, b) => a.t.getTime() - b.t.getTime()),
   }));
   // Bands are shown once even when several series (left/right) share them.
-  const bands: TrendBand[] = [];
-  for (const m of metrics) for (const b of m.bands ?? []) if (!bands.some((x) => x.label === b.label && x.low === b.low)) bands.push(b);
+  const bands: TrendBand[] = familyBands(metrics);
   // Flags compare each session with the baseline, so a steady change flags every later session:
   // list the latest flagged session per metric and count the earlier ones.
   const flagged = metrics.flatMap((m) => {
@@ -67,7 +67,7 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
   const sessionOf = new Map(series.flatMap((s) => s.points.map((p) => [p.key, (p as { sessionId?: string }).sessionId ?? ""])));
 
   return (
-    <section aria-labelledby={`fam-${family.id}`} className="card break-inside-avoid p-4 sm:p-5">
+    <section id={trendCardId(family.id)} aria-labelledby={`fam-${family.id}`} className="card scroll-mt-4 break-inside-avoid p-4 sm:p-5">
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
         <h3 id={`fam-${family.id}`} className="text-base font-bold">
           {family.title} {unit && unit !== "1" ? <span className="font-normal text-ink-soft">({unit})</span> : null}
