@@ -26,6 +26,10 @@ export const IMPACT_HIGH_PASS_HZ = 8;
 export const MIN_IMPACT_LAG_CONTRAST = 1.5;
 /** Low-pass (Hz, zero phase) for the forward-cue regression: above the step rhythm's main harmonics, below impact ringing (common practice). */
 export const CUE_LOW_PASS_HZ = 5;
+/** Straight walking (s) the orientation is estimated from, at most: ~130 strides, ample for |t| ≥ 3 (common practice). */
+export const MAX_ORIENTATION_WALKING_S = 150;
+/** Data kept on each side of that span for the filters' edges (s). */
+const ORIENTATION_MARGIN_S = 3;
 const DEG = Math.PI / 180;
 const G_M_S2 = 9.81;
 
@@ -98,11 +102,42 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
   const fs = input.sampleRateHz;
   assertPositiveFinite(fs, "sampleRateHz");
   assertPositiveFinite(input.strideFrequencyHz, "strideFrequencyHz");
-  const n = input.mask.length;
-  const mask = input.mask;
-  const clean = (x: ArrayLike<number>): Float64Array => Float64Array.from({ length: n }, (_, i) => (Number.isFinite(x[i]!) ? x[i]! : 0));
+  // Only the first MAX_ORIENTATION_WALKING_S of straight walking (plus filter margins) is used, so
+  // the cost does not grow with the session; the wear does not change within a session.
+  const total = input.mask.length;
+  const margin = Math.round(ORIENTATION_MARGIN_S * fs);
+  let first = -1;
+  let last = total;
+  let seen = 0;
+  for (let i = 0; i < total; i++) {
+    if (!input.mask[i]) continue;
+    if (first < 0) first = i;
+    if (++seen >= MAX_ORIENTATION_WALKING_S * fs) {
+      last = i + 1;
+      break;
+    }
+  }
+  if (first < 0) return null;
+  const from = Math.max(0, first - margin);
+  const to = Math.min(total, last + margin);
+  const n = to - from;
+  const mask = input.mask.subarray(from, to);
+  const clean = (x: ArrayLike<number>): Float64Array => {
+    const out = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      const v = x[from + i]!;
+      out[i] = Number.isFinite(v) ? v : 0;
+    }
+    return out;
+  };
   const gyro = [clean(input.gyroX), clean(input.gyroY), clean(input.gyroZ)] as const;
   const acc = [clean(input.accX), clean(input.accY), clean(input.accZ)] as const;
+  const shiftS = from / fs;
+  const window: WristSignInput = {
+    ...input,
+    mask: input.mask.subarray(from, to),
+    initialContactsS: input.initialContactsS.filter((t) => t >= shiftS && t < to / fs).map((t) => t - shiftS),
+  };
 
   // Up: mean specific force over straight walking.
   const up: Vec3 = [0, 0, 0];
@@ -139,9 +174,9 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
   // Time the cue by the wrist's own heel-strike impacts: the leg ICs are detected on the shanks (with
   // their own latency) and the wrist clock may be off; a timing error beyond a quarter step would
   // reverse the before/after contrast. The lag is defined modulo one step, as is the cue.
-  const impactLagS = impactLag(acc, input);
-  const contacts = impactLagS === null ? input.initialContactsS : input.initialContactsS.map((t) => t + impactLagS);
-  const forwardCue = bodyForwardCue(gyro, acc, right, forward, up, { ...input, initialContactsS: contacts });
+  const impactLagS = impactLag(acc, window);
+  const contacts = impactLagS === null ? window.initialContactsS : window.initialContactsS.map((t) => t + impactLagS);
+  const forwardCue = bodyForwardCue(gyro, acc, right, forward, up, { ...window, initialContactsS: contacts });
   const nominalX: Vec3 = [1, 0, 0];
   const upsideDown = up[1] >= AXIS_CALL_COS ? false : up[1] <= -AXIS_CALL_COS ? true : null;
   let sign: 1 | -1;
