@@ -30,6 +30,12 @@ export const MAX_CLOCK_OFFSET_S = 0.5;
 export const STEP_FRACTION_SEARCH = 0.45;
 /** A peak must exceed the next-best peak at another lag by this factor to count (common practice). */
 export const MIN_PEAK_TO_RUNNER_UP = 1.2;
+/**
+ * Longest plausible delay (s) between a heel strike felt by the leg and by a bridge sensor: the
+ * transient crosses the body in well under 20 ms and the segments' responses peak within tens of
+ * ms (common practice bound).
+ */
+export const MAX_IMPACT_DELAY_S = 0.1;
 /** Minimum normalised correlation of a usable peak (common practice). */
 export const MIN_PEAK_CORRELATION = 0.1;
 /** Window for drift (s of session time) and the fewest strong windows for a drift fit (common practice). */
@@ -216,6 +222,9 @@ function offsetFromReference(
   const span = searchSpan(active, rateHz);
   const l = impactLag(left, bridge, active, rateHz, leftMaxS, span);
   if (!l) return null;
+  // The reference leg's lag is only the physical delay to the bridge: anything longer means its
+  // strongest coincidence with the bridge is not its heel strike.
+  const referenceOk = l.strong && Math.abs(l.lagS) <= MAX_IMPACT_DELAY_S;
   const cr = coarsen(right, active);
   const cb = coarsen(bridge, active);
   const coarseRate = rateHz / COARSE_FACTOR;
@@ -225,9 +234,11 @@ function offsetFromReference(
   if (bins < 2 * coarseRate) return null;
   const all = lagCandidates(r, Math.max(1, Math.round(PEAK_SEPARATION_S * coarseRate)));
   const best = all[0]?.peak ?? 0;
-  // A candidate must be one of the train's main peaks (half the best: common practice), not a ripple.
+  // A candidate must be one of the train's main peaks (half the best: common practice), not a
+  // ripple, and the other leg's strikes must reach the bridge comparably to the reference leg's
+  // (at least half as well: both legs strike the same body; common practice).
   const candidates = all
-    .filter((c) => c.peak >= MIN_PEAK_CORRELATION && c.peak >= 0.5 * best)
+    .filter((c) => c.peak >= MIN_PEAK_CORRELATION && c.peak >= 0.5 * best && c.peak >= 0.5 * l.peak)
     .map((c) => refineLag(right, bridge, active, Math.round(c.lagBins * COARSE_FACTOR), span))
     .filter((c): c is { lagBins: number; peak: number } => c !== null)
     .map((c) => ({ ...c, rightLagS: c.lagBins / rateHz, offsetS: c.lagBins / rateHz - l.lagS }))
@@ -242,7 +253,7 @@ function offsetFromReference(
     rightLagS: c?.rightLagS ?? Number.NaN,
     reason,
   });
-  if (!l.strong) return weak(REFERENCE_WEAK);
+  if (!referenceOk) return weak(REFERENCE_WEAK);
   if (alternating.length === 0) return weak("no impact lag keeps the legs alternating");
   if (alternating.length > 1) return weak("more than one impact lag keeps the legs alternating");
   const c = alternating[0]!;

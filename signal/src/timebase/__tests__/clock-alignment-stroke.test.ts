@@ -110,6 +110,20 @@ describe.skipIf(!strokeTreadmillAvailable)("clock alignment on real stroke recor
     }
   });
 
+  it.each(trials.map((t) => [t.trial, t] as const))("%s: the feet pair (no shanks) follows a shifted right foot the same way", (_name, trial) => {
+    const recs = trial.recordings(["left_foot", "right_foot", "lower_back"]);
+    const base = estimate(recs);
+    const moved = estimate(withShift(recs, "right_foot", 0.1));
+    if (base.offsetS === null) {
+      expect(moved.offsetS).toBeNull();
+      expect(moved.quality.map((q) => q.code)).toEqual(["clock-unverified"]);
+      return;
+    }
+    console.log(`${trial.trial} feet: unshifted estimate ${(1000 * base.offsetS).toFixed(1)} ms`);
+    expect(base.placement).toBe("right_foot");
+    expect(Math.abs(1000 * (moved.offsetS! - base.offsetS - 0.1))).toBeLessThanOrEqual(10);
+  });
+
   it.each(trials.map((t) => [t.trial, t] as const))("%s: with the shanks alone the offset cannot be told and is reported as unverified", (_name, trial) => {
     for (const s of [0, 0.05, -0.12, 0.3]) {
       const est = estimate(withShift(trial.recordings(SHANKS), "right_shank", s));
