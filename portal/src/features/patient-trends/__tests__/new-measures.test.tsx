@@ -45,7 +45,27 @@ describe("new measures on the patient's trends", () => {
     ["armSwingAmplitudeDegRight", "armSwing"],
     ["armSwingAsymmetryPct", "armSwingAsymmetry"],
     ["stepTimeMeanSLeft", null],
+    // A relative phase has no chart of its own: on its own, without R beside each point, it would be over-read.
+    ["armLegLeftArmRightLegMeanRelativePhaseDeg", null],
+    ["armLegRightArmLeftLegCircularSdDeg", null],
   ])("%s → %s", (key, family) => expect(familyOf(key)).toBe(family));
+
+  it("draws no relative phase even when the server sends one", async () => {
+    server({
+      [`GET /api/patients/${PID}/trends`]: {
+        body: {
+          patientId: PID,
+          metrics: [
+            { key: "walkingSpeedMPerS", unit: "m/s", points: speed },
+            { key: "armLegLeftArmRightLegMeanRelativePhaseDeg", unit: "deg", label: "Left arm–right leg mean relative phase", points: speed.map((p) => ({ ...p, value: -25 })) },
+          ],
+        },
+      },
+    });
+    const { container } = renderWithProviders(<PatientTrendsPage patientId={PID} />, { queryClient: createTestQueryClient() });
+    await screen.findByRole("region", { name: /Walking speed/ });
+    expect(container.textContent).not.toMatch(/relative phase|-25/i);
+  });
 
   it("draws walking speed with the strides behind each point and the latest value", async () => {
     server();
@@ -65,7 +85,7 @@ describe("new measures on the patient's trends", () => {
     const strip = await screen.findByRole("list", { name: "Walking aid by session" });
     expect(within(strip).getAllByRole("listitem").map((li) => li.textContent)).toEqual([expect.stringMatching(/^Cane 2 sessions/), expect.stringMatching(/^No aid 2 sessions/)]);
     expect(walkingAidMarkers(walkingAidRuns(sessions))).toEqual([{ t: new Date(at(2)), glyph: "A", label: "Walking aid: Cane → No aid" }]);
-    const table = screen.getByRole("table");
+    const table = within(screen.getByRole("heading", { name: "Sessions" }).closest("section")!).getByRole("table");
     expect(within(table).getByText("0.81 m/s")).toBeTruthy();
     expect(within(table).getAllByText("Cane")).toHaveLength(2);
   });
