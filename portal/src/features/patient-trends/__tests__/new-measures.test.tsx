@@ -90,14 +90,30 @@ describe("new measures on the patient's trends", () => {
     expect(within(table).getAllByText("Cane")).toHaveLength(2);
   });
 
-  it("saves the patient's height", async () => {
+  it("saves the patient's height and offers to reprocess the sessions analysed before", async () => {
     const { default: userEvent } = await import("@testing-library/user-event");
-    const api = server({ [`PATCH /api/patients/${PID}`]: { body: { id: PID, displayName: "Odile Marchetti", heightCm: 168.5 } } });
+    const reprocessed: string[] = [];
+    const api = server({
+      [`PATCH /api/patients/${PID}`]: { body: { id: PID, displayName: "Odile Marchetti", heightCm: 168.5 } },
+      ...Object.fromEntries(
+        sessions.map((s) => [
+          `POST /api/sessions/${s.id}/reprocess`,
+          () => {
+            reprocessed.push(s.id);
+            return { status: 202, body: { id: "00000000-0000-4000-8000-00000000000" + s.id.slice(1), status: "queued" } };
+          },
+        ]),
+      ),
+    });
     renderWithProviders(<PatientTrendsPage patientId={PID} />, { queryClient: createTestQueryClient() });
     const user = userEvent.setup();
     await user.type(await screen.findByLabelText("Height (cm)"), "168,5");
     await user.click(screen.getByRole("button", { name: "Save height" }));
     await waitFor(() => expect(api.calls.find((c) => c.method === "PATCH")?.body).toEqual({ heightCm: 168.5 }));
+    expect(await screen.findByText(/Height saved\. The 4 sessions analysed before keep their results until reprocessed\./)).toBeTruthy();
+    await user.click(screen.getByRole("button", { name: "Reprocess the 4 sessions with this height" }));
+    expect(await screen.findByText("4 sessions queued; the values update when processing ends.")).toBeTruthy();
+    expect(reprocessed).toEqual(["s0", "s1", "s2", "s3"]);
   });
 
   it("refuses a height outside 100–230 cm or not a number beside the field, before sending it (same contract as the server)", async () => {

@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from "@tanstack/react-query";
 import { z } from "zod";
-import { HEIGHT_CM_RANGE, patientUpdate, type PatientUpdate } from "@pendula/ingest-server/contracts";
+import { HEIGHT_CM_RANGE, patientUpdate, reprocessResponse, type PatientUpdate } from "@pendula/ingest-server/contracts";
 import { api, request } from "@/lib/api-client";
 
 // GET /api/patients/:id/trends (ingest-server/src/contracts/trends.ts) with the clinical-change
@@ -159,5 +159,22 @@ export function useUpdatePatient(id: string) {
     mutationFn: (input: PatientUpdate) => updatePatient(id, input),
     onSuccess: (detail) => queryClient.setQueryData(trendsKeys.detail(id), detail),
     onSettled: () => queryClient.invalidateQueries({ queryKey: trendsKeys.detail(id) }),
+  });
+}
+
+/**
+ * Re-runs the analysis of sessions from their stored raw files (POST /api/sessions/:id/reprocess,
+ * one at a time), e.g. after the height was entered so their walking speed can be computed.
+ */
+export async function reprocessSessions(ids: readonly string[]): Promise<number> {
+  for (const id of ids) await request(`/sessions/${enc(id)}/reprocess`, { method: "POST", schema: reprocessResponse });
+  return ids.length;
+}
+
+export function useReprocessSessions(patientId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (ids: readonly string[]) => reprocessSessions(ids),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: trendsKeys.patient(patientId) }),
   });
 }

@@ -69,7 +69,11 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
       {byFamily.length > 0 && domain ? <TrendSummary metrics={trends.metrics} /> : null}
       <p className="print-only mb-2 text-sm">Height: {patient.heightCm != null ? `${patient.heightCm} cm` : "not entered"}.</p>
       <div className="card mb-6 p-4">
-        <PatientHeightForm key={String(patient.heightCm ?? "")} patientId={patientId} heightCm={patient.heightCm} />
+        <PatientHeightForm
+          patientId={patientId}
+          heightCm={patient.heightCm}
+          processedSessionIds={sessions.items.filter((s) => s.status === "done").map((s) => s.id)}
+        />
       </div>
       <p className="print-only mb-4 text-sm">Trend report printed {new Date().toLocaleString()}. Pendula supports clinical judgement; it does not diagnose.</p>
 
