@@ -84,7 +84,7 @@ export function impactEnvelope(
   for (let k = m - 1; k >= 0; k--) {
     run = binOk[k] ? run + 1 : 0;
     if (run <= guard) binValid[k] = 0;
-    if (binValid[k]) envelope[k] = Math.sqrt(hx[k]! ** 2 + hy[k]! ** 2 + hz[k]! ** 2);
+    if (binValid[k]) envelope[k] = Math.sqrt(hx[k]! * hx[k]! + hy[k]! * hy[k]! + hz[k]! * hz[k]!);
   }
   return { envelope, valid: binValid, rateHz, factor };
 }
