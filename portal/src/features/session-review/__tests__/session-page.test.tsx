@@ -53,21 +53,23 @@ function analysis(): Analysis {
   };
 }
 
+function detailBody(walkingAid: string | null = null) {
+  return {
+    id: SID,
+    patientId: PID,
+    status: "done",
+    recordedAt: "2026-10-06T09:00:00.000Z",
+    durationS: 100,
+    algorithmVersion: "1.1.0",
+    walkingAid,
+    analysis: analysis(),
+    metricCounts: { walkingSpeedMPerS: { n: 36, countNoun: "strides" }, strideLengthM: { n: 36, countNoun: "strides" }, armSwingAmplitudeDegLeft: { n: 30, countNoun: "arm cycles" } },
+  };
+}
+
 function server(extra: Parameters<typeof mockApi>[0] = {}) {
   return mockApi({
-    [`GET /api/sessions/${SID}`]: {
-      body: {
-        id: SID,
-        patientId: PID,
-        status: "done",
-        recordedAt: "2026-10-06T09:00:00.000Z",
-        durationS: 100,
-        algorithmVersion: "1.1.0",
-        walkingAid: null,
-        analysis: analysis(),
-        metricCounts: { walkingSpeedMPerS: { n: 36, countNoun: "strides" }, strideLengthM: { n: 36, countNoun: "strides" }, armSwingAmplitudeDegLeft: { n: 30, countNoun: "arm cycles" } },
-      },
-    },
+    [`GET /api/sessions/${SID}`]: { body: detailBody() },
     [`GET /api/sessions/${SID}/signal`]: { body: { sessionId: SID, unit: "deg/s", fromS: 0, toS: 100, traces: [] } },
     ...extra,
   });
@@ -132,6 +134,27 @@ describe("session page", () => {
     await user.click(screen.getByRole("button", { name: "Save walking aid" }));
     await waitFor(() => expect(onSaved).toHaveBeenCalledWith(PID));
     expect(api.calls.find((c) => c.method === "PATCH")?.body).toEqual({ walkingAid: "cane" });
+  });
+
+  it("after saving, offers to reprocess the session so the analysis is told about the aid", async () => {
+    const { default: userEvent } = await import("@testing-library/user-event");
+    let aid: string | null = null;
+    const api = server({
+      [`GET /api/sessions/${SID}`]: () => ({ body: detailBody(aid) }),
+      [`PATCH /api/sessions/${SID}`]: ({ body }) => {
+        aid = (body as { walkingAid: string }).walkingAid;
+        return { body: { id: SID, walkingAid: aid } };
+      },
+      [`POST /api/sessions/${SID}/reprocess`]: { status: 202, body: { id: SID, status: "queued" } },
+    });
+    const onSaved = vi.fn();
+    renderPage(onSaved);
+    const user = userEvent.setup();
+    await user.selectOptions(await screen.findByLabelText("Walking aid in this test"), "crutches");
+    await user.click(screen.getByRole("button", { name: "Save walking aid" }));
+    await user.click(await screen.findByRole("button", { name: "Reprocess this session" }));
+    await waitFor(() => expect(api.calls.some((c) => c.method === "POST" && c.path === `/api/sessions/${SID}/reprocess`)).toBe(true));
+    await waitFor(() => expect(onSaved).toHaveBeenCalledTimes(2));
   });
 
   it("shows the server's reason when the walking aid is refused", async () => {

@@ -2,7 +2,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient, useSuspenseQuery }
 import { z } from "zod";
 import type { Analysis } from "@pendula/signal";
 import { api, request } from "@/lib/api-client";
-import { WALKING_AIDS, sessionUpdate, sessionUpdateResponse, type SessionUpdate } from "@pendula/ingest-server/contracts";
+import { WALKING_AIDS, reprocessResponse, sessionUpdate, sessionUpdateResponse, type SessionUpdate } from "@pendula/ingest-server/contracts";
 
 // ingest-server/src/contracts/sessions.ts (`sessionDetail`, `signalResponse`), copied because the
 // contracts index does not re-export them yet. The analysis is signal's own `Analysis` object.
@@ -50,7 +50,12 @@ export const sessionKeys = {
 const enc = encodeURIComponent;
 
 export const sessionQueryOptions = (id: string) =>
-  queryOptions({ queryKey: sessionKeys.detail(id), queryFn: ({ signal }) => api.get(`/sessions/${enc(id)}`, { schema: sessionDetailSchema, signal }) });
+  queryOptions({
+    queryKey: sessionKeys.detail(id),
+    queryFn: ({ signal }) => api.get(`/sessions/${enc(id)}`, { schema: sessionDetailSchema, signal }),
+    // While the worker has it (after an upload or a reprocess), look again every few seconds.
+    refetchInterval: (q) => (q.state.data?.status === "queued" || q.state.data?.status === "processing" ? 3000 : false),
+  });
 
 export const signalQueryOptions = (id: string, placement: string) =>
   queryOptions({
@@ -77,3 +82,13 @@ export function useUpdateSession(id: string, onSaved?: () => void) {
   });
 }
 export const useSignal = (id: string, placement: string, enabled: boolean) => useQuery({ ...signalQueryOptions(id, placement), enabled });
+
+/** POST /api/sessions/:id/reprocess: analyse again from the stored raw files (e.g. with the walking aid just recorded). */
+export function useReprocessSession(id: string, onQueued?: () => void) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: () => request(`/sessions/${enc(id)}/reprocess`, { method: "POST", schema: reprocessResponse }),
+    onSuccess: () => onQueued?.(),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: sessionKeys.detail(id) }),
+  });
+}

@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { Button, FormMessage, SelectField } from "@/components/ui";
 import { ApiError } from "@/lib/api-client";
-import { sessionUpdate, useUpdateSession } from "../api/session";
+import { sessionUpdate, useReprocessSession, useUpdateSession } from "../api/session";
 import { WALKING_AID_LABEL, WALKING_AIDS } from "@/lib/walking-aid";
 
 /** The clinician records which walking aid the person used in this test (an aid changes speed and arm swing). */
@@ -10,6 +10,7 @@ export function WalkingAidEditor({ sessionId, current, onSaved }: { sessionId: s
   const [error, setError] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
   const mutation = useUpdateSession(sessionId, onSaved);
+  const reprocess = useReprocessSession(sessionId, onSaved);
   const unchanged = value === (current ?? "");
 
   return (
@@ -44,7 +45,15 @@ export function WalkingAidEditor({ sessionId, current, onSaved }: { sessionId: s
       <Button type="submit" variant="secondary" busy={mutation.isPending} disabled={unchanged}>
         Save walking aid
       </Button>
-      {saved && unchanged ? <FormMessage tone="success">Walking aid saved.</FormMessage> : null}
+      {saved && unchanged ? (
+        <>
+          <FormMessage tone="success">Walking aid saved. The numbers below were analysed before; reprocess to analyse the walk with it.</FormMessage>
+          <Button variant="quiet" size="sm" busy={reprocess.isPending} onClick={() => reprocess.mutate(undefined, { onSuccess: () => setSaved(false) })}>
+            Reprocess this session
+          </Button>
+        </>
+      ) : null}
+      {reprocess.isError ? <FormMessage tone="error">Reprocessing could not be started; try again.</FormMessage> : null}
     </form>
   );
 }
