@@ -190,7 +190,7 @@ describe("trend summary at the top of the patient's trends", () => {
     expect(cadence.cells[2]).toBe("Within MDC");
 
     // No improved/worsened flag exists for stance (no agreed direction): the summary says so rather than guessing.
-    expect(rowOf(table, "Stance, left").cells[2]).toBe("Not compared (no agreed better or worse direction)");
+    expect(rowOf(table, "Stance, left").cells[2]).toBe("Not compared (no agreed direction)");
   });
 
   it("places the latest value against each published band shown for this patient (Frenkel-Toledo et al. 2005, Table 2)", async () => {
@@ -249,7 +249,7 @@ describe("trend summary at the top of the patient's trends", () => {
     const right = rowOf(table, "Right arm–left leg mean relative phase");
     expect(right.cells[0]).toBe("40.0° (R = 0.12)");
     expect(right.cells[1]).toBe("—");
-    expect(right.cells[2]).toBe("Not compared (coupling too weak for a phase)");
+    expect(right.cells[2]).toBe("Not compared (coupling too weak)");
   });
 
   it("withholds a phase whose session has no R", async () => {
@@ -308,9 +308,9 @@ describe("summary rules", () => {
     const p = (extra: Pt) => ({ sessionId: "s9", recordedAt: at(9), value: 100, ...extra });
     const verdict = (metric: TrendMetric) => summaryGroups([metric])[0]!.rows[0]!.change;
     expect(verdict({ ...base, points: [p({})] })).toEqual({ kind: "not-compared", reason: "no baseline yet" });
-    expect(verdict({ ...base, points: [p({ baseline: true })], baseline: { mean: 100 } })).toEqual({ kind: "not-compared", reason: "part of the baseline" });
+    expect(verdict({ ...base, points: [p({ baseline: true })], baseline: { mean: 100 } })).toEqual({ kind: "not-compared", reason: "baseline session" });
     expect(verdict({ ...base, points: [p({ excludedReason: "few-strides" })], baseline: { mean: 90 } })).toEqual({ kind: "not-compared", reason: "too few strides" });
     expect(summaryGroups([{ ...base, points: [p({ excludedReason: "few-strides" })], baseline: { mean: 90 } }])[0]!.rows[0]!.delta).toBeNull();
-    expect(verdict({ ...base, points: [p({})], baseline: { mean: 90 } })).toEqual({ kind: "not-compared", reason: "no MDC for this measure" });
+    expect(verdict({ ...base, points: [p({})], baseline: { mean: 90 } })).toEqual({ kind: "not-compared", reason: "no MDC" });
   });
 });

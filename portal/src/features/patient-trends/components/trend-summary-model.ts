@@ -68,23 +68,24 @@ export function wrapDeg(d: number): number {
 
 const EXCLUSION_WORDS: Record<string, string> = {
   "few-strides": "too few strides",
-  "weak-coupling": "coupling too weak for a phase",
-  "no-coupling-strength": "no coupling strength R",
+  "weak-coupling": "coupling too weak",
+  "no-coupling-strength": "no R",
 };
 
 /**
  * The MDC verdict of the latest session as the server flagged it. Without a flag the reason is
  * read from the same fields the server used (baseline session, excluded point, no baseline, no
  * MDC, no agreed direction), so the summary never claims a comparison the server did not make.
+ * The words are kept short so each row stays on one line; the card below gives the detail.
  */
 export function changeVerdict(metric: TrendMetric, p: TrendPoint): ChangeVerdict {
   if (p.flag === "improved" || p.flag === "worsened" || p.flag === "changed") return { kind: p.flag };
   if (p.flag === "within-error") return { kind: "within" };
   if (p.excludedReason) return { kind: "not-compared", reason: EXCLUSION_WORDS[p.excludedReason] ?? p.excludedReason.replace(/-/g, " ") };
-  if (p.baseline) return { kind: "not-compared", reason: "part of the baseline" };
+  if (p.baseline) return { kind: "not-compared", reason: "baseline session" };
   if (metric.baseline === null) return { kind: "not-compared", reason: "no baseline yet" };
-  if (!metric.mdc) return { kind: "not-compared", reason: "no MDC for this measure" };
-  if (metric.direction === null && !isPhaseKey(metric.key)) return { kind: "not-compared", reason: "no agreed better or worse direction" };
+  if (!metric.mdc) return { kind: "not-compared", reason: "no MDC" };
+  if (metric.direction === null && !isPhaseKey(metric.key)) return { kind: "not-compared", reason: "no agreed direction" };
   return { kind: "not-compared", reason: "not flagged" };
 }
 
