@@ -29,6 +29,7 @@ import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
 const SUMMARY_KEYS = ["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct", "walkingSpeedMPerS", "strideLengthM"];
 /** Metrics whose change flags and coordination events the caseload table summarises. */
 const CASELOAD_FLAG_KEYS = [
+  "walkingSpeedMPerS",
   "cadenceStepsPerMin",
   "strideTimeCvPct",
   "doubleSupportPct",
