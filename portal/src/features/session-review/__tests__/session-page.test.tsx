@@ -93,7 +93,28 @@ describe("session page", () => {
     expect(speed.textContent).toContain("1.10 m/s");
     expect(speed.textContent).toContain("n = 36 strides");
     expect(within(measures).getByText("Stride length").parentElement!.textContent).toContain("1.21 m");
+    expect(within(measures).queryByText(/^Note:/)).toBeNull();
     expect(within(measures).getByText("Swing-time CV L / R").parentElement!.textContent).toContain("3.10 % / 3.90 %");
+  });
+
+  it("gives the analysis' reason when speed is missing, and its remark beside a speed it computed", async () => {
+    const missing = analysis();
+    missing.metrics.walkingSpeedMPerS = null;
+    missing.metrics.strideLengthM = null;
+    missing.metrics.walkingSpeedReason = "no height entered for this patient";
+    server({ [`GET /api/sessions/${SID}`]: { body: { ...detailBody(), analysis: missing, metricCounts: {} } } });
+    const first = renderPage();
+    const measures = await screen.findByLabelText("Gait measures");
+    expect(within(measures).getByText("Walking speed").parentElement!.textContent).toBe("Walking speed—no height entered for this patient");
+    first.unmount();
+    vi.unstubAllGlobals();
+
+    const assumed = analysis();
+    assumed.metrics.walkingSpeedReason = "sensor height above the ankle assumed (10 cm)";
+    server({ [`GET /api/sessions/${SID}`]: { body: { ...detailBody(), analysis: assumed } } });
+    renderPage();
+    const again = await screen.findByLabelText("Gait measures");
+    expect(within(again).getByText("Walking speed").parentElement!.textContent).toBe("Walking speed1.10 m/sn = 36 stridesNote: sensor height above the ankle assumed (10 cm)");
   });
 
   it("shows arm swing per arm and its asymmetry", async () => {

@@ -17,6 +17,8 @@ interface Item {
   counts?: Array<string | null>;
   /** Why the value is missing, from the analysis. */
   reason?: string | null;
+  /** The analysis' remark on a value it did compute (e.g. an assumption that makes it less certain). */
+  note?: string | null;
 }
 
 function Grid({ items, label }: { items: Item[]; label: string }) {
@@ -30,6 +32,7 @@ function Grid({ items, label }: { items: Item[]; label: string }) {
             <dd className="tabular font-bold">{it.value}</dd>
             {counts.length ? <dd className="text-xs text-ink-soft">{[...new Set(counts)].join(" / ")}</dd> : null}
             {it.value.includes("—") && it.reason ? <dd className="text-xs text-ink-soft">{it.reason}</dd> : null}
+            {!it.value.includes("—") && it.note ? <dd className="text-xs text-ochre">Note: {it.note}</dd> : null}
           </div>
         );
       })}
@@ -42,7 +45,7 @@ export function MetricsGrid({ a, counts }: { a: Analysis; counts?: MetricCounts 
   const m = a.metrics;
   const c = (key: string) => countText(counts, key);
   const items: Item[] = [
-    { label: "Walking speed", value: f(m.walkingSpeedMPerS, 2, " m/s"), counts: [c("walkingSpeedMPerS")], reason: m.walkingSpeedReason },
+    { label: "Walking speed", value: f(m.walkingSpeedMPerS, 2, " m/s"), counts: [c("walkingSpeedMPerS")], reason: m.walkingSpeedReason, note: m.walkingSpeedReason },
     { label: "Stride length", value: f(m.strideLengthM, 2, " m"), counts: [c("strideLengthM")], reason: m.walkingSpeedReason },
     { label: "Cadence", value: f(m.cadenceStepsPerMin, 1, " steps/min"), counts: [c("cadenceStepsPerMin")] },
     { label: "Stride time (mean)", value: f(m.strideTimeMeanS, 3, " s"), counts: [c("strideTimeMeanS")] },
