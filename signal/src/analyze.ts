@@ -32,7 +32,7 @@ import {
 } from "./types";
 
 /** Bumped whenever a change can alter any number in the output. */
-export const ALGORITHM_VERSION = "1.2.0";
+export const ALGORITHM_VERSION = "1.3.0";
 
 export interface AnalyzeOptions {
   /** Reserved for callers that want to skip the arm–leg step (e.g. a quick pre-check). */
@@ -143,7 +143,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
       for (let i = 0; i < omega.length; i++) omega[i] = -omega[i]!;
       quality.push({ code: "inverted-sensor", severity: "warning", placement, message: `${placement} appears to be worn upside down or back to front (swing rotation has the wrong sign); the signal was inverted before analysis` });
     }
-    const events = isFoot ? detectFootEvents(omega, mask, fs) : detectShankEvents(omega, mask, fs);
+    const events = isFoot ? detectFootEvents(omega, mask, fs) : detectShankEvents(omega, mask, fs, s);
     legs[side] = { side, placement, omega, events };
   }
 

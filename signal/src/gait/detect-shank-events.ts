@@ -8,6 +8,7 @@ import {
   mergeSwingsWithoutStance,
   signalRelativeThresholds,
 } from "./mid-swing-peaks";
+import { type ShankAcceleration, refineContactsToImpact, shankImpactMagnitude } from "./shank-impact";
 
 /**
  * IC/FC minima are read on ω low-passed at this cut-off (Hz): strap and soft-tissue vibration and
@@ -46,10 +47,18 @@ export const SHANK_SEARCH_FRACTION_OF_STRIDE = 0.5;
  *   the 5 Hz copy: the lobe is the last local minimum of the 5 Hz copy below the threshold, and the
  *   15 Hz minimum is taken within half a 5 Hz period of it, so a ripple on the rise into swing
  *   cannot be taken for push-off. Falls back to Salarian's rule when the 5 Hz copy has no lobe.
+ * - With the shank's accelerometer (`acceleration`), each IC is then moved to the heel-strike impact
+ *   the same shank feels (shank-impact.ts): the ω minimum is the loading response, which follows the
+ *   contact by up to 10 % of the cycle; without a clear impact the ω minimum is kept.
  * Searches run between neighbouring mid-swings (SHANK_SEARCH_FRACTION_OF_STRIDE) and never cross a
  * sample outside `mask` (walking and valid).
  */
-export function detectShankEvents(omegaDegS: ArrayLike<number>, mask: Uint8Array, sampleRateHz: number): LegEvents {
+export function detectShankEvents(
+  omegaDegS: ArrayLike<number>,
+  mask: Uint8Array,
+  sampleRateHz: number,
+  acceleration?: ShankAcceleration,
+): LegEvents {
   const fs = sampleRateHz;
   const msSignal = lowPassZeroPhaseSegments(omegaDegS, mask, fs, MS_LOW_PASS_HZ, 4);
   const ev = lowPassZeroPhaseSegments(omegaDegS, mask, fs, Math.min(SHANK_EVENT_LOW_PASS_HZ, 0.4 * fs), 4);
@@ -67,17 +76,25 @@ export function detectShankEvents(omegaDegS: ArrayLike<number>, mask: Uint8Array
   const typical = median(intervals) ?? Math.round(1.1 * fs);
   // Half a period of the 5 Hz lobe copy: how far its minimum can sit from the 15 Hz one.
   const reach = Math.max(1, Math.round(fs / (2 * SHANK_LOBE_LOW_PASS_HZ)));
-  const ic: number[] = [];
+  let ic: number[] = [];
+  const icMidSwing: number[] = [];
+  const icStride: number[] = [];
   const fc: number[] = [];
   for (let k = 0; k < ms.length; k++) {
     const m = ms[k]!;
     const after = k + 1 < ms.length ? ms[k + 1]! - m : typical;
     const before = k > 0 ? m - ms[k - 1]! : typical;
     const i = initialContact(ev, mask, m, Math.round(SHANK_SEARCH_FRACTION_OF_STRIDE * after), thr.initialContactDegS, thr.midSwingDegS);
-    if (i !== null) ic.push(i);
+    if (i !== null) {
+      ic.push(i);
+      icMidSwing.push(m);
+      icStride.push(after);
+    }
     const f = finalContact(ev, lobe, mask, m, Math.round(SHANK_SEARCH_FRACTION_OF_STRIDE * before), thr.finalContactDegS, reach);
     if (f !== null) fc.push(f);
   }
+  const impact = acceleration ? shankImpactMagnitude(acceleration, mask, fs) : null;
+  if (impact) ic = refineContactsToImpact(ic, icMidSwing, icStride, impact, mask, fs);
   return {
     initialContactsS: ic.map((i) => i / fs),
     finalContactsS: fc.map((i) => i / fs),
