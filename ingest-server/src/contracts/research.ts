@@ -50,11 +50,13 @@ export const researchRow = z.object({
   weeksSinceEnrolment: z.number().int(),
   algorithmVersion: z.string().nullable(),
   metrics: z.record(z.string(), z.number().nullable()),
+  /** Strides/steps/arm cycles behind each value (null when unknown). */
+  counts: z.record(z.string(), z.number().int().nullable()).optional(),
 });
 
 export const cohortMetricsJson = z.object({
   k: z.number().int(),
-  metrics: z.array(z.object({ key: z.string(), unit: z.string() })),
+  metrics: z.array(z.object({ key: z.string(), unit: z.string(), countNoun: z.string().optional() })),
   rows: z.array(researchRow),
   suppressedCells: z.number().int(),
 });

@@ -15,6 +15,8 @@ export const SUBJECT_ID_SYSTEM = `${FHIR_BASE}/NamingSystem/research-subject`;
 export const EXT_WEEKS = `${FHIR_BASE}/StructureDefinition/weeks-since-enrolment`;
 export const EXT_AGE_BAND = `${FHIR_BASE}/StructureDefinition/age-band`;
 export const EXT_CONDITION = `${FHIR_BASE}/StructureDefinition/study-condition`;
+/** On a component: how many strides/steps/arm cycles the value rests on (UCUM annotation unit). */
+export const EXT_COUNT = `${FHIR_BASE}/StructureDefinition/count-behind-value`;
 export const SESSION_PANEL_CODE = "walk-session-gait-panel";
 const UCUM = "http://unitsofmeasure.org";
 
@@ -27,6 +29,8 @@ export interface ResearchSessionRow {
   weeksSinceEnrolment: number;
   algorithmVersion: string | null;
   metrics: Record<string, number | null>;
+  /** Strides/steps/arm cycles behind each metric value (session_metrics.n); null or absent when unknown. */
+  counts?: Record<string, number | null>;
 }
 
 /** UCUM's human-readable unit strings for the codes we use. */
@@ -69,8 +73,12 @@ export function sessionObservation(row: ResearchSessionRow, keys: readonly strin
     const value = row.metrics[key];
     const def = metricDefinition(key);
     if (value === null || value === undefined || !Number.isFinite(value) || !def) return [];
+    const n = row.counts?.[key];
     return [
       {
+        ...(typeof n === "number"
+          ? { extension: [{ url: EXT_COUNT, valueQuantity: { value: n, unit: def.countNoun, system: UCUM, code: `{${def.countNoun.replace(/ /g, "_")}}` } }] }
+          : {}),
         code: { coding: [{ system: METRIC_CODE_SYSTEM, code: key, display: def.label }] },
         valueQuantity: { value, unit: UNIT_DISPLAY[def.unit] ?? def.unit, system: UCUM, code: def.unit },
       },

@@ -86,17 +86,24 @@ async function cohortRows(deps: AppDeps, def: CohortDefinition, keys: string[]):
     .where("p.research_consent", true)
     .whereIn("m.metric_key", keys)
     .whereIn("m.session_id", source.map((s) => s.session_id))
-    .select("m.session_id", "m.metric_key", "m.value");
+    .select("m.session_id", "m.metric_key", "m.value", "m.n");
   const bySession = new Map<string, Record<string, number | null>>();
+  const countsBySession = new Map<string, Record<string, number | null>>();
   for (const m of metricRows) {
     const v = bySession.get(m.session_id) ?? {};
     v[m.metric_key] = Number(m.value);
     bySession.set(m.session_id, v);
+    const c = countsBySession.get(m.session_id) ?? {};
+    c[m.metric_key] = m.n === null || m.n === undefined ? null : Number(m.n);
+    countsBySession.set(m.session_id, c);
   }
   const refs = new Map(source.map((s) => [sessionRefOf(key, s.session_id), s.session_id]));
   for (const row of rows) {
-    const values = bySession.get(refs.get(row.sessionRef)!) ?? {};
+    const id = refs.get(row.sessionRef)!;
+    const values = bySession.get(id) ?? {};
+    const counts = countsBySession.get(id) ?? {};
     row.metrics = Object.fromEntries(keys.map((k) => [k, values[k] ?? null]));
+    row.counts = Object.fromEntries(keys.map((k) => [k, counts[k] ?? null]));
   }
   return rows;
 }
@@ -144,12 +151,26 @@ export async function exportCohort(deps: AppDeps, req: Request, def: CohortDefin
   });
   if (format === "fhir") return { kind: "fhir" as const, body: observationBundle(kept, keys) };
   if (format === "csv") {
-    const header = ["subject_id", "session_ref", "condition", "age_band", "weeks_since_enrolment", "algorithm_version", ...keys];
-    const rows: CsvCell[][] = kept.map((r) => [r.subjectId, r.sessionRef, r.condition, r.ageBand, r.weeksSinceEnrolment, r.algorithmVersion, ...keys.map((k) => r.metrics[k])]);
+    // Each metric is followed by `<key>_n`, the strides/steps/arm cycles its value rests on (empty when unknown).
+    const header = ["subject_id", "session_ref", "condition", "age_band", "weeks_since_enrolment", "algorithm_version", ...keys.flatMap((k) => [k, `${k}_n`])];
+    const rows: CsvCell[][] = kept.map((r) => [
+      r.subjectId,
+      r.sessionRef,
+      r.condition,
+      r.ageBand,
+      r.weeksSinceEnrolment,
+      r.algorithmVersion,
+      ...keys.flatMap((k) => [r.metrics[k], r.counts?.[k] ?? null]),
+    ]);
     return { kind: "csv" as const, body: toCsv(header, rows) };
   }
   return {
     kind: "json" as const,
-    body: { k: MIN_CELL_SUBJECTS, metrics: keys.map((k) => ({ key: k, unit: metricDefinition(k)!.unit })), rows: kept, suppressedCells },
+    body: {
+      k: MIN_CELL_SUBJECTS,
+      metrics: keys.map((k) => ({ key: k, unit: metricDefinition(k)!.unit, countNoun: metricDefinition(k)!.countNoun })),
+      rows: kept,
+      suppressedCells,
+    },
   };
 }

@@ -118,12 +118,14 @@ describe("GET /api/research/cohort-metrics", () => {
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toMatch(/^text\/csv/);
     const lines = res.text.trim().split("\r\n");
-    expect(lines[0]).toBe("subject_id,session_ref,condition,age_band,weeks_since_enrolment,algorithm_version,cadenceStepsPerMin,armLegLeftArmRightLegMeanRelativePhaseDeg");
+    expect(lines[0]).toBe(
+      "subject_id,session_ref,condition,age_band,weeks_since_enrolment,algorithm_version,cadenceStepsPerMin,cadenceStepsPerMin_n,armLegLeftArmRightLegMeanRelativePhaseDeg,armLegLeftArmRightLegMeanRelativePhaseDeg_n",
+    );
     expect(lines).toHaveLength(13);
     expect(res.text).toContain(`"'=HYPERLINK(""http://x"")"`);
     expect(lines.some((l) => /,=/.test(l))).toBe(false);
     // Numbers are not text: a negative phase stays a plain negative number.
-    expect(lines[1]!.endsWith(",-12.5")).toBe(true);
+    expect(lines[1]!.endsWith(",-12.5,")).toBe(true);
     assertNoIdentifiers(res.text);
   });
 
@@ -170,9 +172,10 @@ describe("walking speed and stride length in the research export", () => {
     const csv = await request(ctx.app).get("/api/research/cohort-metrics?format=csv&metrics=walkingSpeedMPerS,strideLengthM").set(as(researcher));
     expect(csv.status).toBe(200);
     const lines = csv.text.trim().split("\r\n");
-    expect(lines[0]!.endsWith(",walkingSpeedMPerS,strideLengthM")).toBe(true);
+    expect(lines[0]!.endsWith(",walkingSpeedMPerS,walkingSpeedMPerS_n,strideLengthM,strideLengthM_n")).toBe(true);
     expect(lines).toHaveLength(13);
-    for (const l of lines.slice(1)) expect(l).toMatch(/,0\.\d+,0\.9$/);
+    // Each value is followed by the strides it rests on (session_metrics.n).
+    for (const l of lines.slice(1)) expect(l).toMatch(/,0\.\d+,20,0\.9,20$/);
 
     const fhir = await request(ctx.app).get("/api/research/cohort-metrics?format=fhir&metrics=walkingSpeedMPerS,strideLengthM").set(as(researcher));
     expect(fhir.status).toBe(200);
@@ -183,6 +186,13 @@ describe("walking speed and stride length in the research export", () => {
       ["walkingSpeedMPerS", "m/s"],
       ["strideLengthM", "m"],
     ]);
+    expect(obs.component[0].extension).toEqual([
+      { url: "https://pendula.example/fhir/StructureDefinition/count-behind-value", valueQuantity: { value: 20, unit: "strides", system: "http://unitsofmeasure.org", code: "{strides}" } },
+    ]);
+
+    const json = await request(ctx.app).get("/api/research/cohort-metrics?format=json&metrics=walkingSpeedMPerS").set(as(researcher));
+    expect(json.body.metrics).toEqual([{ key: "walkingSpeedMPerS", unit: "m/s", countNoun: "strides" }]);
+    expect(json.body.rows[0].counts).toEqual({ walkingSpeedMPerS: 20 });
     assertNoIdentifiers(csv.text);
   });
 });
