@@ -52,14 +52,14 @@ export async function processSession(deps: ProcessDeps, sessionId: string): Prom
 
 /**
  * What the analysis is told about the person and the test: the patient's standing height (spatial
- * estimates scale with it) and the walking aid the clinician recorded for this session. The aid is
- * passed under `walkingAid`; an analysis version that does not read it ignores it.
+ * estimates scale with it) and the walking aid the clinician recorded for this session (with an aid
+ * the arms do not swing freely, so the analysis withholds arm–leg coupling).
  */
 export async function analysisOptions(
   db: Knex,
   patientId: string,
   walkingAid: WalkingAid | null,
-): Promise<AnalyzeOptions & { walkingAid?: WalkingAid }> {
+): Promise<AnalyzeOptions> {
   const patient = await db("patients").where({ id: patientId }).first("height_cm");
   const heightCm = patient?.height_cm === null || patient?.height_cm === undefined ? undefined : Number(patient.height_cm);
   return {

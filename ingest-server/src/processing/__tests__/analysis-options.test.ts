@@ -1,5 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { AnalyzeOptions, SensorRecording } from "@pendula/signal";
+import { WALKING_AIDS as SIGNAL_WALKING_AIDS } from "../../../../signal/src/coordination/session-arms";
+import { WALKING_AIDS } from "../../contracts/enums";
 import { createTestContext, type SeededUser, type TestContext } from "../../testing/harness";
 import { seedDevices, synthFor, upload } from "../../testing/session-fixtures";
 import { processSession } from "../process-session";
@@ -33,6 +35,12 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await ctx?.close();
+});
+
+describe("walking aids", () => {
+  it("are the same list in the schema enums (what the clinician records) and in the analysis", () => {
+    expect([...WALKING_AIDS]).toEqual([...SIGNAL_WALKING_AIDS]);
+  });
 });
 
 describe("processSession → analyze(recordings, options)", () => {
