@@ -1,7 +1,7 @@
 import { parseArgs } from "node:util";
 import type { Request } from "express";
 import type { Knex } from "knex";
-import { synthesizeSession, type SynthOptions } from "@pendula/signal";
+import { type KinematicOptions, type SensorRecording, sensorCsvText, synthesizeKinematicSession } from "@pendula/signal";
 import {
   DEMO_CLINIC,
   DEMO_DEVICE_FIRMWARE,
@@ -28,10 +28,10 @@ import { createRuntime } from "../runtime";
  *
  * Builds the invented demo scenario (db/seeds/demo-scenario.ts): staff, patients, caseloads,
  * devices and their assignments, then for every patient and week synthesises that week's four
- * sensor files with the project's gait generator, sends them through the same upload service a
- * patient's browser uses (sniffing, device → placement mapping, object storage) and processes them
- * with the worker's own processSession(). No metric number is typed in by hand: every value the
- * demo shows comes out of analyze().
+ * sensor files with the kinematic gait generator (signal/src/synth/kinematic), sends them through
+ * the same upload service a patient's browser uses (sniffing, device → placement mapping, object
+ * storage) and processes them with the worker's own processSession(). No metric number is typed
+ * in by hand: every value the demo shows comes out of analyze().
  */
 
 const PLACEMENTS = ["left_shank", "right_shank", "left_wrist", "right_wrist"] as const;
@@ -76,59 +76,164 @@ function wobble(seed: number): number {
   return (x - Math.floor(x)) * 2 - 1;
 }
 
-export function weekSynthOptions(patient: DemoPatient, index: number, week: number, serials: Record<string, string>, startUtc: string): SynthOptions {
+/** Placements of the weekly test, in the order the files are written. */
+type DemoPlacement = (typeof PLACEMENTS)[number];
+
+/**
+ * How the body carries the week's walking aid (`demoWalkingAid`; a week with no record is walked
+ * without one). A cane is held in the hand opposite the weaker leg (common
+ * practice), so that arm does not swing; both hands rest on a rollator. With crutches the arms move
+ * them forward, each crutch with the opposite foot (four-point crutch gait, common practice): the
+ * generator's nearest pattern is a 1:1 arm rhythm with the contralateral leg. The analysis reports
+ * no arm–leg coupling for any recorded aid.
+ */
+function armsWithAid(aid: string | null, affected: "left" | "right"): { heldStill: ("left" | "right")[]; forceOneToOne: boolean } {
+  if (aid === "rollator") return { heldStill: ["left", "right"], forceOneToOne: false };
+  if (aid === "cane") return { heldStill: [affected === "left" ? "right" : "left"], forceOneToOne: false };
+  return { heldStill: [], forceOneToOne: aid === "crutches" };
+}
+
+/**
+ * File-level imperfections of a home recording that the generator's model leaves to the devices:
+ * each device starts a few milliseconds after the first (its start_utc says so), a shank strapped on
+ * upside down (180° about the forward axis), a short dropout of samples, gyro units.
+ */
+export interface DemoFileOptions {
+  serials: Record<string, string>;
+  gyroUnits: "deg/s" | "rad/s";
+  startOffsetsS: Partial<Record<DemoPlacement, number>>;
+  upsideDownShank: DemoPlacement | null;
+  gaps: { placement: DemoPlacement; startS: number; durationS: number }[];
+}
+
+export interface DemoWeek {
+  options: KinematicOptions;
+  files: DemoFileOptions;
+}
+
+/**
+ * One patient-week of the invented scenario as settings of the kinematic generator
+ * (signal/docs/kinematic-generator.md). The trajectory's numbers map as follows:
+ * - cadence → stride time; stride CV → the generator's stride-time CV;
+ * - asymmetry → a longer swing (shorter stance) of the affected leg, steps timed so both double
+ *   supports stay equal, smaller excursions of that leg, and after a stroke some circumduction and a
+ *   slightly stiff swing knee;
+ * - slower walkers take shorter steps (bout excursions scale with cadence), and in Parkinson's
+ *   disease steps are shorter at the same cadence, so speed follows from the body model and height;
+ * - arms: 2:1 below the trajectory's cadence threshold and 1:1 above it, a range that grows with
+ *   recovery and is smaller on the affected side; an arm on a cane or rollator is held still.
+ * Two things of the plan the generator cannot express. Its arms are locked to the contralateral leg,
+ * so coupling strength is not a setting: every swinging arm comes out strongly coupled (R near 1)
+ * whatever the week's planned coupling, and arms that drift on their own rhythm cannot be made.
+ * It also models no turns: the hallway test (walk, turn, walk back) becomes three straight passes
+ * with a short stand at each end, which the analysis sees as separate bouts.
+ * The factors below are choices of this invented scenario, not reference values.
+ */
+export function weekKinematicOptions(patient: DemoPatient, index: number, week: number, serials: Record<string, string>, startUtc: string): DemoWeek {
   const t = patient.trajectory;
   const f = recoveryFraction(t, week);
   const seed = index * 1000 + week + 1;
   const cadence = lerp(t.cadenceStart, t.cadenceEnd, f) + 2 * wobble(seed);
   const cv = Math.max(1.2, lerp(t.strideCvStartPct, t.strideCvEndPct, f) + 0.35 * wobble(seed + 7));
   const asym = Math.max(0, lerp(t.asymmetryStart, t.asymmetryEnd, f));
-  const coupling = lerp(t.couplingStart, t.couplingEnd, f);
+  const affected = t.affectedSide;
   // Slower walking spends longer in stance (common practice: stance ≈ 60 % at comfortable speed).
-  const stanceBase = Math.min(0.7, 0.6 + Math.max(0, 105 - cadence) * 0.002);
-  const swingSound = 1 - stanceBase;
-  const swingAffected = Math.min(0.55, swingSound * (1 + asym));
-  const affectedLeft = t.affectedSide === "left";
-  const stanceFraction = {
-    left: affectedLeft ? 1 - swingAffected : 1 - swingSound,
-    right: affectedLeft ? 1 - swingSound : 1 - swingAffected,
-  };
-  const strideTimeS = 120 / cadence;
-  const peakSound = Math.min(420, Math.max(140, (350 * 1.1) / strideTimeS));
-  const midSwingPeakDegS = {
-    left: affectedLeft ? peakSound * (1 - 0.8 * asym) : peakSound,
-    right: affectedLeft ? peakSound : peakSound * (1 - 0.8 * asym),
-  };
-  // Below ~0.32 the arms are treated as swinging on their own; above it they lock with a phase
-  // wander whose size gives the planned coupling strength (R ≈ exp(−σ²/2)).
-  const phaseJitterDeg = (Math.sqrt(-2 * Math.log(Math.min(0.97, coupling))) * 180) / Math.PI;
-  const armMode = coupling < 0.32 ? "uncoupled" : t.armOneToOneAboveCadence !== null && cadence < t.armOneToOneAboveCadence ? "2:1" : "1:1";
-  return {
+  const stanceSound = Math.min(0.7, 0.6 + Math.max(0, 105 - cadence) * 0.002);
+  // The affected leg's swing is `asym` longer than the sound leg's (the trajectory's definition).
+  const stanceAffected = Math.max(0.52, 1 - (1 - stanceSound) * (1 + asym));
+  const bySide = <T>(onAffected: T, onSound: T): { left: T; right: T } => (affected === "left" ? { left: onAffected, right: onSound } : { left: onSound, right: onAffected });
+  const stance = bySide(stanceAffected, stanceSound);
+  // Right IC at this fraction of the left stride: equal double supports on both sides.
+  const stepFraction = 0.5 + (stance.left - stance.right) / 2;
+  const stroke = patient.condition === "stroke";
+  // Scenario choice: step excursions from 0.55 at 55 steps/min to 1 at 105 steps/min.
+  const stepScale = Math.min(1, Math.max(0.55, 0.55 + (0.45 * (cadence - 55)) / 50)) * (patient.condition === "parkinsons" ? 0.88 : 1);
+  const aid = demoWalkingAid(patient, week);
+  const { heldStill, forceOneToOne } = armsWithAid(aid, affected);
+  const range = 14 + 24 * f + 2 * wobble(seed + 5);
+  const coupling: "1:1" | "2:1" = !forceOneToOne && t.armOneToOneAboveCadence !== null && cadence < t.armOneToOneAboveCadence ? "2:1" : "1:1";
+  // Freezing of gait: standing pauses inside the walk, fewer as the patient improves.
+  const freezes = /freezing/i.test(patient.conditionDetail) ? (f < 0.5 ? [{ atS: 9, durationS: 2.4, boutIndex: 0 }, { atS: 14, durationS: 1.6, boutIndex: 2 }] : [{ atS: 12, durationS: 1.2, boutIndex: 1 }]) : [];
+  const misalignment = 8 + 4 * Math.abs(wobble(seed + 3));
+  const options: KinematicOptions = {
     seed,
-    durationS: 100,
     sampleRateHz: index % 3 === 0 ? 128 : 100,
-    gyroUnits: index % 4 === 1 ? "rad/s" : "deg/s",
     startUtc,
-    deviceSerials: serials,
-    writePlacement: false,
-    startOffsetsS: { left_shank: 0, right_shank: 0.012, left_wrist: 0.031, right_wrist: 0.047 },
-    timestampJitterS: 0.0008,
-    misalignmentDeg: 8 + 4 * Math.abs(wobble(seed + 3)),
-    // A hallway walk: out and back with a 180° turn every ~30 s.
-    turns: [
-      { startS: 33, durationS: 2.6, angleDeg: 180 },
-      { startS: 66, durationS: 2.6, angleDeg: 180 },
-    ],
-    strideTimeS,
+    heightCm: DEMO_HEIGHTS_CM[patient.key] ?? 170,
+    leadInS: 4,
+    leadOutS: 3,
+    bouts: [0, 1, 2].map(() => ({ durationS: 27, romScale: stepScale })),
+    standingBetweenS: 3,
+    strideTimeS: 120 / cadence,
     strideTimeCvPct: cv,
-    stanceFraction,
-    stepFraction: 0.5 + (affectedLeft ? 1 : -1) * asym * 0.08,
-    midSwingPeakDegS,
-    arm: { coupling: armMode, phaseDeg: 15 + 10 * wobble(seed + 11), amplitudeDegS: 40 + 90 * f, uncoupledRatio: 1.45, phaseJitterDeg },
+    stepFraction,
+    legs: bySide(
+      { stanceFraction: stanceAffected, romScale: 1 - 0.5 * asym, swingKneeScale: stroke ? 1 - 0.6 * asym : 1, circumductionDeg: stroke ? 25 * asym : 0 },
+      { stanceFraction: stanceSound },
+    ),
+    hesitations: freezes,
+    arms: {
+      coupling,
+      relativePhaseDeg: 15 + 10 * wobble(seed + 11),
+      // The affected side swings less (common practice in hemiparesis and Parkinson's disease).
+      rangeDeg: bySide(range * (1 - 1.5 * asym), range),
+      heldStill,
+      // Once in a while a wrist band is put on end for end.
+      wear: week === 2 && index % 5 === 4 ? { left: "upside-down" } : {},
+    },
+    misalignmentDeg: Object.fromEntries(PLACEMENTS.map((p, k) => [p, misalignment + k])),
+    // One week a shank device's clock is 60 ms off the others' (the analysis aligns the legs).
+    clockOffsetS: week === 3 && index % 4 === 2 ? { right_shank: 0.06 } : {},
+  };
+  const files: DemoFileOptions = {
+    serials,
+    gyroUnits: index % 4 === 1 ? "rad/s" : "deg/s",
+    startOffsetsS: { left_shank: 0, right_shank: 0.012, left_wrist: 0.031, right_wrist: 0.047 },
     // Home recordings are not perfect: one week with an upside-down shank, one with a dropout.
-    invertedPlacement: week === 4 && index % 5 === 2 ? "right_shank" : null,
+    upsideDownShank: week === 4 && index % 5 === 2 ? "right_shank" : null,
     gaps: week === 6 && index % 4 === 0 ? [{ placement: "left_wrist", startS: 50, durationS: 0.09 }] : [],
   };
+  return { options, files };
+}
+
+/**
+ * The sensor CSV files of a generated session as the devices would write them: the session base
+ * is the first device's start; a device starting `offset` later loses the samples before it and
+ * carries a later start_utc (rounded to the header's millisecond), with its own clock from 0.
+ */
+export function demoSessionFiles(recordings: readonly SensorRecording[], o: DemoFileOptions): { fileName: string; text: string }[] {
+  const RAD_PER_DEG = Math.PI / 180;
+  return recordings.map((r) => {
+    const placement = r.placement as DemoPlacement;
+    const fs = r.nominalSampleRateHz;
+    const skip = Math.round((o.startOffsetsS[placement] ?? 0) * fs);
+    const gaps = o.gaps.filter((g) => g.placement === placement);
+    const kept = new Uint32Array(r.timeS.length);
+    let n = 0;
+    for (let j = skip; j < r.timeS.length; j++) {
+      const tS = r.timeS[j]!;
+      if (gaps.length === 0 || !gaps.some((g) => tS >= g.startS && tS < g.startS + g.durationS)) kept[n++] = j;
+    }
+    const keep = kept.subarray(0, n);
+    const t0 = r.timeS[skip]!;
+    const column = (x: ArrayLike<number>, scale = 1) => {
+      const out = new Float64Array(n);
+      for (let k = 0; k < n; k++) out[k] = x[keep[k]!]! * scale;
+      return out;
+    };
+    // Upside down: 180° about the forward axis, so y and z change sign on both sensors.
+    const flip = o.upsideDownShank === placement ? -1 : 1;
+    const g = o.gyroUnits === "rad/s" ? RAD_PER_DEG : 1;
+    const serial = o.serials[placement] ?? r.deviceSerial;
+    const startUtc = new Date(Date.parse(r.startUtc) + Math.round(t0 * 1000)).toISOString();
+    const text = sensorCsvText(
+      { deviceSerial: serial, placement: null, sampleRateHz: fs, startUtc, gyroUnits: o.gyroUnits },
+      column(r.timeS).map((tS) => Math.round((tS - t0) * 1e5) / 1e5),
+      [column(r.accX), column(r.accY, flip), column(r.accZ, flip)],
+      [column(r.gyroX, g), column(r.gyroY, g * flip), column(r.gyroZ, g * flip)],
+    );
+    return { fileName: `walk-${placement.replace("_", "-")}-${serial}.csv`, text };
+  });
 }
 
 function noQueue(): JobQueue {
@@ -211,12 +316,13 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
       if (p.missedWeeks.includes(week)) continue;
       // Tuesday to Thursday mornings, local clinic time ≈ UTC.
       const at = new Date(enrolledAt.getTime() + week * 7 * DAY_MS + (1 + (week % 3)) * DAY_MS + (9 * 60 + ((index * 7 + week * 13) % 50)) * 60_000);
-      const synth = synthesizeSession(weekSynthOptions(p, index, week, serials, at.toISOString()));
+      const plan = weekKinematicOptions(p, index, week, serials, at.toISOString());
+      const files = demoSessionFiles(synthesizeKinematicSession(plan.options).recordings, plan.files);
       const req = { ip: "127.0.0.1", headers: { "user-agent": "pendula-demo-seed" }, get: () => "pendula-demo-seed" } as unknown as Request;
       const result = await uploadSession(deps, req, {
         auth: uploader,
         patientId,
-        files: synth.files.map((f) => ({ originalName: f.fileName, buffer: Buffer.from(f.text, "utf8") })),
+        files: files.map((f) => ({ originalName: f.fileName, buffer: Buffer.from(f.text, "utf8") })),
       });
       // Recorded before processing, as a clinician would at the visit, so the analysis is told about it.
       await db("walk_sessions").where({ id: result.id }).update({ walking_aid: demoWalkingAid(p, week) });
