@@ -16,6 +16,7 @@ import { SATURATION_FLOOR_ACC_M_S2, SATURATION_FLOOR_GYRO_DEG_S, countSaturatedS
 import { shankSwingAxisCheck } from "./quality/shank-swing-axis";
 import { MIN_STEADY_STRIDES_FOR_VARIABILITY, MISALIGNMENT_INFO_DEG, RATE_MISMATCH_FRACTION } from "./quality/thresholds";
 import { alignLegClocks } from "./timebase/align-clocks";
+import { alignWristClocks } from "./timebase/align-wrist-clocks";
 import { type ResampledSensor, resampleToGrid } from "./timebase/resample-to-grid";
 import { sessionGrid } from "./timebase/session-grid";
 import { sessionStrideLengths } from "./spatial/session-stride-lengths";
@@ -84,8 +85,11 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
     sensors.set(r.placement!, s);
     reportRecordingQuality(r, s, quality);
   }
-  // Clock alignment of the right leg sensor to the left one (impacts felt by the trunk or wrists).
-  quality.push(...alignLegClocks(placed, grid, sensors, recordings).quality);
+  // Clock alignment of the right leg sensor to the left one (impacts felt by the trunk or wrists),
+  // then of each wrist to the legs (the impacts it feels against the legs' combined train).
+  const legClocks = alignLegClocks(placed, grid, sensors, recordings);
+  quality.push(...legClocks.quality);
+  quality.push(...alignWristClocks(placed, grid, sensors, recordings, legClocks).quality);
 
   const legPlacement = (side: Side): Placement | null => {
     const shank = `${side}_shank` as Placement;
@@ -172,7 +176,16 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   if (excludedItem) quality.push({ code: "strides-excluded", severity: "info", message: excludedItem });
   const order = strides.filter((s) => s.excludedReason === "event-order").length;
   if (order > 0) {
-    quality.push({ code: "event-order", severity: "info", message: `${order} stride(s) left out because their events were not in the order IC < FC(other) < IC(other) < FC < next IC` });
+    quality.push({ code: "event-order", severity: "info", message: `${order} stride(s) left out because their initial contacts did not alternate plausibly between the legs (opening step outside 15–85 % of the stride)` });
+  }
+  const fcRejected = strides.filter((s) => s.steady && s.finalContactRejected);
+  if (fcRejected.length > 0) {
+    const steadyCount = strides.filter((s) => s.steady).length;
+    quality.push({
+      code: "event-order",
+      severity: fcRejected.length > 0.5 * steadyCount ? "warning" : "info",
+      message: `${fcRejected.length} of ${steadyCount} steady stride(s) have no usable final contact (missing, or not in the order IC < FC(other) < IC(other) < FC < next IC): they count for cadence, stride time and PCI but not for stance, swing or double support`,
+    });
   }
 
   const base = strideMetrics(strides);

@@ -17,6 +17,22 @@ export interface ClockAlignment {
   driftMsPerMin: number | null;
   corrected: boolean;
   quality: QualityItem[];
+  /** The legs' impact signals for the wrist alignment (align-wrist-clocks.ts); null without walking in them. */
+  impacts: LegImpacts | null;
+}
+
+export interface LegImpacts {
+  left: ImpactEnvelope;
+  /** The right leg's envelope on the left leg's clock (computed on first use after a correction). */
+  readonly right: ImpactEnvelope;
+  /** True when the right leg was put on the left leg's clock (or found on it) from strong evidence. */
+  legsAligned: boolean;
+  /** Walking bins (the analysis's walking rule on the legs' |ω|), bin rate, stride time. */
+  active: Uint8Array;
+  rateHz: number;
+  strideS: number;
+  /** Envelopes already computed for the bridge sensors (unchanged by the leg alignment). */
+  bridges: Map<Placement, ImpactEnvelope>;
 }
 
 const BRIDGES: readonly Placement[] = ["lower_back", "left_wrist", "right_wrist"];
@@ -34,12 +50,13 @@ export function alignLegClocks(
   sensors: Map<Placement, ResampledSensor>,
   allRecordings: readonly SensorRecording[],
 ): ClockAlignment {
-  const none = (message: string): ClockAlignment => ({
+  const none = (message: string, impacts: LegImpacts | null = null): ClockAlignment => ({
     placement: null,
     offsetS: null,
     driftMsPerMin: null,
     corrected: false,
     quality: [{ code: "clock-unverified", severity: "info", message }],
+    impacts,
   });
   const pair = (["shank", "foot"] as const).map((seg) => [`left_${seg}`, `right_${seg}`] as [Placement, Placement]).find(([l, r]) => sensors.has(l) && sensors.has(r));
   if (!pair) return none("clock alignment between the legs not checked: it needs a left and a right leg sensor");
@@ -73,6 +90,21 @@ export function alignLegClocks(
   const strideS = strideTimeFromImpacts(eL.envelope, eL.valid, active, rate) ?? strideTimeFromImpacts(eR.envelope, eR.valid, active, rate);
   if (strideS === null) return none("clock alignment between the legs could not be checked: no regular walking in the impact signals");
   const bridges = bridgePlacements.map((p) => env(sensors.get(p)!));
+  const bridgeMap = new Map(bridgePlacements.map((p, i) => [p, bridges[i]!] as const));
+  const impactsWith = (legsAligned: boolean, rightEnvelope: () => ImpactEnvelope): LegImpacts => {
+    let cached: ImpactEnvelope | null = null;
+    return {
+      left: eL,
+      get right() {
+        return (cached ??= rightEnvelope());
+      },
+      legsAligned,
+      active,
+      rateHz: rate,
+      strideS,
+      bridges: bridgeMap,
+    };
+  };
   const memo = new Map<number, number>();
   const alternation = (offsetS: number) => {
     const k = Math.round(offsetS * rate);
@@ -80,7 +112,7 @@ export function alignLegClocks(
     return memo.get(k)!;
   };
   const est = estimateLegClockOffset(eL, eR, bridges, active, rate, strideS / 2, alternation);
-  if (!est.fit) return none(`clock alignment between the legs could not be checked: ${est.reason} (start times were trusted)`);
+  if (!est.fit) return none(`clock alignment between the legs could not be checked: ${est.reason} (start times were trusted)`, impactsWith(false, () => eR));
   const { offsetS, driftSPerS, centreS, corrected: driftCorrected } = est.fit;
   const driftMsPerMin = driftSPerS * 60_000;
   // Strong evidence is applied even below the report threshold (a few ms still move PCI); only
@@ -99,6 +131,7 @@ export function alignLegClocks(
     offsetS,
     driftMsPerMin,
     corrected: true,
+    impacts: impactsWith(true, () => env(sensors.get(rightP)!)),
     quality: !big ? [] : [
       {
         code: "clock-offset",
