@@ -1,5 +1,4 @@
-import fili from "fili";
-import { butterworthBandPassSections } from "./butterworth-band-pass-sections";
+import { type BandPassSection, butterworthBandPassSections } from "./butterworth-band-pass-sections";
 
 /** Band edges as multiples of the fundamental (issue 3: 0.7–1.3 × the segment's own fundamental). */
 export const BAND_LOW_FACTOR = 0.7;
@@ -9,7 +8,7 @@ export const BAND_PASS_ORDER = 4;
 
 /**
  * Zero-phase Butterworth band-pass around a fundamental: edges 0.7·f₀ and 1.3·f₀, order 4 (SciPy
- * convention), run forward and backward through fili's `IirFilter.filtfilt`, so the magnitude is
+ * convention), run forward and backward as fili's `IirFilter.filtfilt` does, so the magnitude is
  * squared and the phase is zero — which the Hilbert phase downstream relies on.
  *
  * Edge policy (differs from SciPy's `sosfiltfilt`, so compare away from the ends): the mean is
@@ -51,8 +50,46 @@ export function zeroPhaseBandPass(
   for (let i = 0; i < n; i++) ext[padLen + i] = x[i]! - mean;
   for (let i = 0; i < padLen; i++) ext[padLen + n + i] = 2 * last - (x[n - 2 - i]! - mean);
 
-  // A new IirFilter per call: fili keeps the section state between calls on one instance.
-  const filter = new fili.IirFilter(sections);
-  filter.filtfilt(ext, true);
+  cascadeFiltFilt(sections, ext);
   return ext.slice(padLen, padLen + n);
+}
+
+/**
+ * In place, the arithmetic of fili 2.0.3's `IirFilter.filtfilt` on a fresh filter (`runStage` per
+ * section, same operation order, so the same numbers): each biquad's registers start at zero and
+ * are NOT cleared between the forward and the backward pass. fili's per-sample calls through
+ * coefficient objects cost more than the filter itself on a 30-minute signal.
+ */
+function cascadeFiltFilt(sections: readonly BandPassSection[], y: Float64Array): void {
+  const count = sections.length;
+  const k = new Float64Array(count);
+  const a1 = new Float64Array(count);
+  const a2 = new Float64Array(count);
+  const b0 = new Float64Array(count);
+  const b1 = new Float64Array(count);
+  const b2 = new Float64Array(count);
+  for (let s = 0; s < count; s++) {
+    const c = sections[s]!;
+    k[s] = c.k;
+    a1[s] = c.a[0]!;
+    a2[s] = c.a[1]!;
+    b0[s] = c.b[0]!;
+    b1[s] = c.b[1]!;
+    b2[s] = c.b[2]!;
+  }
+  const z0 = new Float64Array(count);
+  const z1 = new Float64Array(count);
+  const m = y.length;
+  const stepAt = (i: number): void => {
+    let out = y[i]!;
+    for (let s = 0; s < count; s++) {
+      const temp = out * k[s]! - a1[s]! * z0[s]! - a2[s]! * z1[s]!;
+      out = b0[s]! * temp + b1[s]! * z0[s]! + b2[s]! * z1[s]!;
+      z1[s] = z0[s]!;
+      z0[s] = temp;
+    }
+    y[i] = out;
+  };
+  for (let i = 0; i < m; i++) stepAt(i);
+  for (let i = m - 1; i >= 0; i--) stepAt(i);
 }

@@ -43,12 +43,22 @@ function sosFiltFiltRange(
   const x0 = x[from]!;
   const xn = x[to - 1]!;
   for (let i = 0; i < padLen; i++) ext[i] = 2 * x0 - x[from + padLen - i]!;
-  for (let i = 0; i < n; i++) ext[padLen + i] = x[from + i]!;
+  copyInto(ext, padLen, x, from, to);
   for (let i = 0; i < padLen; i++) ext[padLen + n + i] = 2 * xn - x[to - 2 - i]!;
 
   filterInPlace(sections, ext, false);
   filterInPlace(sections, ext, true);
-  for (let i = 0; i < n; i++) out[from + i] = ext[padLen + i]!;
+  out.set(ext.subarray(padLen, padLen + n), from);
+}
+
+/**
+ * dst[at…] = src[from, to). Typed sources go through the native `set` (Float32 → Float64 is exact,
+ * so the values are the same); an element loop over `ArrayLike` sees several array kinds across the
+ * pipeline and its indexed load becomes the slow generic one on every 30-minute channel.
+ */
+function copyInto(dst: Float64Array, at: number, src: ArrayLike<number>, from: number, to: number): void {
+  if (src instanceof Float64Array || src instanceof Float32Array) dst.set(src.subarray(from, to), at);
+  else for (let i = from; i < to; i++) dst[at + i - from] = src[i]!;
 }
 
 /** Direct form II transposed, each section started at its steady state for a constant input. */
@@ -123,8 +133,10 @@ export function lowPassZeroPhaseSegments(
   let longest = 0;
   for (let i = 0; i < n; ) {
     if (!valid[i]) {
-      out[i] = x[i]!;
-      i++;
+      let j = i + 1;
+      while (j < n && !valid[j]) j++;
+      copyInto(out, i, x, i, j);
+      i = j;
       continue;
     }
     let j = i;

@@ -50,7 +50,9 @@ export function impactEnvelope(
   const mx = new Float64Array(m);
   const my = new Float64Array(m);
   const mz = new Float64Array(m);
-  let last = [0, 0, 0];
+  let lastX = 0;
+  let lastY = 0;
+  let lastZ = 0;
   for (let k = 0; k < m; k++) {
     let sx = 0;
     let sy = 0;
@@ -64,10 +66,14 @@ export function impactEnvelope(
     }
     binOk[k] = ok;
     // Invalid bins hold the last valid value, so the filter sees no step there (they are dropped anyway).
-    if (ok) last = [sx / factor, sy / factor, sz / factor];
-    mx[k] = last[0]!;
-    my[k] = last[1]!;
-    mz[k] = last[2]!;
+    if (ok) {
+      lastX = sx / factor;
+      lastY = sy / factor;
+      lastZ = sz / factor;
+    }
+    mx[k] = lastX;
+    my[k] = lastY;
+    mz[k] = lastZ;
   }
   const sections = butterworthSections("highpass", 4, IMPACT_HIGH_PASS_HZ, rateHz);
   const hx = sosFiltFilt(sections, mx);
