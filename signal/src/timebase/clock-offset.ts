@@ -18,9 +18,10 @@ import { lagCandidates, lagCorrelation, lagPeak } from "./impact-correlation";
  *
  * Why the candidates are told apart by the legs' alternation: the bridge's train repeats every step,
  * so its correlation with a leg has a peak every step, all about as high. The left (reference) leg's
- * lag is only the physical delay, so it is searched within ±0.45 step, where there is one peak. The
- * right leg's lag also holds the offset: each of its peaks within MAX_CLOCK_OFFSET_S is a candidate,
- * and only the true one keeps the legs swinging in alternation (the others put them in step). Two
+ * lag is the physical delay plus the bridge's own clock error, and is searched within ±0.45 step, where
+ * there is one peak. The right leg's lag also holds the offset: each of its peaks within
+ * MAX_CLOCK_OFFSET_S is a candidate, and only the true one keeps the legs swinging in alternation (the
+ * others put them in step). Two
  * alternating candidates (one stride apart, strides under 1 s) leave the offset unverified.
  */
 
@@ -222,9 +223,12 @@ function offsetFromReference(
   const span = searchSpan(active, rateHz);
   const l = impactLag(left, bridge, active, rateHz, leftMaxS, span);
   if (!l) return null;
-  // The reference leg's lag is only the physical delay to the bridge: anything longer means its
-  // strongest coincidence with the bridge is not its heel strike.
-  const referenceOk = l.strong && Math.abs(l.lagS) <= MAX_IMPACT_DELAY_S;
+  // The reference leg's lag is the physical delay to the bridge plus the bridge's own clock error,
+  // which may be as large as the right leg's (a wrist's clock is no better than a shank's): anything
+  // longer means its strongest coincidence with the bridge is not its heel strike. A bridge more than
+  // the search range off is seen a step away; the alternation test below still picks the right leg's
+  // offset, because the candidates are differences of the two lags.
+  const referenceOk = l.strong && Math.abs(l.lagS) <= MAX_IMPACT_DELAY_S + MAX_CLOCK_OFFSET_S;
   const cr = coarsen(right, active);
   const cb = coarsen(bridge, active);
   const coarseRate = rateHz / COARSE_FACTOR;

@@ -82,6 +82,15 @@ describe("leg clock alignment on the walking model", () => {
     expect(Math.abs(est.offsetS! + 0.12)).toBeLessThan(0.005);
   });
 
+  it("recovers +60 ms through two wrists whose own clocks are off by +200 and −200 ms (a bridge's clock is no better than a leg's)", () => {
+    const recs = modelRecordings(
+      walk([shank("left"), shank("right", { offsetS: 0.06 }), own("left_wrist", 0.8, 0.8, 0.02, { offsetS: 0.2 }), own("right_wrist", 0.8, 0.8, 0.02, { offsetS: -0.2 })]),
+    );
+    const est = align(recs);
+    expect(Math.abs(est.offsetS! - 0.06)).toBeLessThan(0.005);
+    expect(est.quality.map((q) => q.code)).toEqual(["clock-offset"]);
+  });
+
   it("agrees with a zero offset on synchronous clocks (no clock-offset item)", () => {
     const est = align(modelRecordings(walk([shank("left"), shank("right"), own("lower_back", 2, 2, 0.01)], { stepFraction: 0.45 })));
     expect(Math.abs(est.offsetS!)).toBeLessThan(0.005);

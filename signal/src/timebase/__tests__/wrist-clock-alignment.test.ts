@@ -29,8 +29,8 @@ describe("wrist clock alignment on the kinematic model", () => {
   const cases: Array<[string, KinematicOptions]> = [
     ["1:1 at 1.1 s strides, left wrist +100 ms, right wrist −150 ms", { seed: 51, bouts: [{ durationS: 90 }], clockOffsetS: { left_wrist: 0.1, right_wrist: -0.15 } }],
     [
-      "2:1 at 1.8 s strides, mirrored right wrist, left wrist −150 ms, right wrist +100 ms, right shank +40 ms",
-      { seed: 52, bouts: [{ durationS: 90, strideTimeS: 1.8, romScale: 0.7 }], arms: { coupling: "2:1", wear: { right: "mirrored" } }, clockOffsetS: { left_wrist: -0.15, right_wrist: 0.1, right_shank: 0.04 } },
+      "2:1 at 1.8 s strides, 200 Hz, mirrored right wrist, left wrist −150 ms, right wrist +100 ms, right shank +40 ms",
+      { seed: 52, sampleRateHz: 200, bouts: [{ durationS: 90, strideTimeS: 1.8, romScale: 0.7 }], arms: { coupling: "2:1", wear: { right: "mirrored" } }, clockOffsetS: { left_wrist: -0.15, right_wrist: 0.1, right_shank: 0.04 } },
     ],
   ];
   for (const [name, options] of cases) {
