@@ -3,6 +3,7 @@ import type { Placement, QualityItem, SensorRecording } from "../types";
 import { estimateLegClockOffset } from "./clock-offset";
 import { type ImpactEnvelope, impactEnvelope } from "./impact-signal";
 import { strideTimeFromImpacts } from "./impact-stride-time";
+import { shiftImpactEnvelope } from "./shift-envelope";
 import { type ResampledSensor, resampleToGrid } from "./resample-to-grid";
 import type { SessionGrid } from "./session-grid";
 
@@ -131,7 +132,7 @@ export function alignLegClocks(
     offsetS,
     driftMsPerMin,
     corrected: true,
-    impacts: impactsWith(true, () => env(sensors.get(rightP)!)),
+    impacts: impactsWith(true, () => shiftImpactEnvelope(eR, (t) => offsetS + slope * (t - centreS))),
     quality: !big ? [] : [
       {
         code: "clock-offset",
