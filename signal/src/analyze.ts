@@ -33,7 +33,7 @@ import {
 } from "./types";
 
 /** Bumped whenever a change can alter any number in the output. */
-export const ALGORITHM_VERSION = "1.3.0";
+export const ALGORITHM_VERSION = "1.4.0";
 
 export interface AnalyzeOptions {
   /** Reserved for callers that want to skip the arm–leg step (e.g. a quick pre-check). */
