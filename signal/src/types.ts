@@ -92,6 +92,11 @@ export interface Stride {
   steady: boolean;
   /** Why a stride was left out of the steady-state set, when it was. */
   excludedReason?: "bout-edge" | "turn" | "invalid-span" | "out-of-range" | "event-order" | "gap" | "unsteady" | "unreliable-sensor";
+  /**
+   * True when the stride's ICs alternate plausibly but its FC was missing or out of order: the
+   * stride keeps its timing (cadence, stride time, PCI) and has no stance, swing or double support.
+   */
+  finalContactRejected?: boolean;
   /** Stride length (m) for this stride when a spatial method could compute it. */
   strideLengthM?: number | null;
   /** Index of the continuous walking bout (0-based) the stride lies in; -1 when in none. */

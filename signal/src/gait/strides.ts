@@ -40,9 +40,10 @@ const overlaps = (a0: number, a1: number, b: Bout, margin = 0) => a0 < b.endS + 
  * Strides of one side from its events (IC to next IC), with stance/swing, double support against the
  * contralateral events, and the first part of the steady-state decision. Exclusion, in order:
  * stride time outside the physiological limits (0.25–6 s); any overlap with an invalid span; any
- * overlap with an interpolated gap; within TURN_MARGIN_S of a turn; event order not
- * IC < FC_contra < IC_contra < FC < next IC (or no FC), or an implausible opening step (outside
- * 15–85 % of the stride); first or last stride of its walking bout. The session-relative gate
+ * overlap with an interpolated gap; within TURN_MARGIN_S of a turn; an implausible opening step
+ * (outside 15–85 % of the stride); first or last stride of its walking bout. A stride whose FC is
+ * missing or breaks the order IC < FC_contra < IC_contra < FC < next IC keeps its timing but no
+ * FC-derived values (`finalContactRejected`). The session-relative gate
  * (acceleration, deceleration, outliers) needs both legs: `gateSteadyStateInPlace`.
  */
 export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | null, ctx: StrideContext): Stride[] {
@@ -54,17 +55,21 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
     const b = ic[k + 1]!;
     const strideTimeS = b - a;
     const inside = openRange(fcs, a, b);
-    const fcS = inside.count === 1 ? fcs[inside.from]! : null;
-    const stanceTimeS = fcS === null ? null : fcS - a;
-    const swingTimeS = fcS === null ? null : b - fcS;
+    let fcS = inside.count === 1 ? fcs[inside.from]! : null;
     let doubleSupportPct: number | null = null;
-    let orderOk = fcS !== null;
+    // Initial contacts decide the stride (timing, cadence, variability, PCI); the final contact only
+    // adds stance, swing and double support. So a stride whose ICs alternate plausibly but whose FC
+    // is missing or out of order keeps its timing and loses only its FC-derived values: initial
+    // contacts are the more robust shank event in impaired gait (Trojaniello et al. 2014), and a
+    // pre-swing without a clear minimum (stiff-knee gait) must not remove the walk's cadence.
+    let icOrderOk = true;
+    let fcOk = fcS !== null;
     let stepTimeS: number | null = null;
     if (contra) {
       const prevContra = lastBefore(contra.initialContactsS, a);
       if (prevContra !== null && a - prevContra < strideTimeS) stepTimeS = a - prevContra;
       if (stepTimeS === null || stepTimeS < MIN_STEP_FRACTION * strideTimeS || stepTimeS > MAX_STEP_FRACTION * strideTimeS) {
-        orderOk = false;
+        icOrderOk = false;
       }
       if (fcS !== null) {
         const fcR = openRange(contra.finalContactsS, a, fcS);
@@ -73,9 +78,17 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
         const icC = contra.initialContactsS[icR.from]!;
         if (fcR.count === 1 && icR.count === 1 && fcC < icC && icC < fcS) {
           doubleSupportPct = (100 * (fcC - a + (fcS - icC))) / strideTimeS;
-        } else orderOk = false;
+        } else fcOk = false;
       }
     }
+    const finalContactRejected = icOrderOk && !fcOk;
+    if (finalContactRejected) {
+      fcS = null;
+      doubleSupportPct = null;
+    }
+    const orderOk = icOrderOk;
+    const stanceTimeS = fcS === null ? null : fcS - a;
+    const swingTimeS = fcS === null ? null : b - fcS;
     let excludedReason: Stride["excludedReason"];
     if (strideTimeS < MIN_STRIDE_TIME_S || strideTimeS > MAX_STRIDE_TIME_S) excludedReason = "out-of-range";
     else if (ctx.invalidSpans.some((s) => overlaps(a, b, s))) excludedReason = "invalid-span";
@@ -96,6 +109,7 @@ export function buildStrides(side: Side, own: LegEvents, contra: LegEvents | nul
       stepTimeS,
       steady: excludedReason === undefined,
       ...(excludedReason ? { excludedReason } : {}),
+      ...(finalContactRejected ? { finalContactRejected } : {}),
     });
   }
   // Each leg's first and last stride of a bout (and strides outside any bout) are bout edges. A

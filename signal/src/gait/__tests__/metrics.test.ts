@@ -117,8 +117,18 @@ describe("buildStrides + strideMetrics — temporal worked example (DOMAIN.md)",
     expect(tooShort[0]!.excludedReason).toBe("out-of-range");
     const stray = buildStrides("left", left, { ...right, initialContactsS: [...right.initialContactsS, 3.25].sort((a, b) => a - b) }, ctx);
     expect(stray.find((s) => Math.abs(s.icS - 3.3) < 1e-9)!.excludedReason).toBe("event-order");
+    // Without final contacts the ICs still time the strides: they stay steady for cadence and stride
+    // time and carry no stance, swing or double support.
     const noFc = buildStrides("left", { ...left, finalContactsS: [] }, right, ctx);
-    expect(noFc.every((s) => s.excludedReason === "event-order" || s.excludedReason === "bout-edge")).toBe(true);
+    const kept = noFc.filter((s) => s.steady);
+    expect(kept.length).toBeGreaterThan(0);
+    expect(kept.every((s) => s.finalContactRejected === true && s.stancePct === null && s.swingPct === null && s.doubleSupportPct === null)).toBe(true);
+    const m = strideMetrics(noFc);
+    expect(m.strideTimeMeanS).toBeCloseTo(1.1, 9);
+    expect(m.stancePct.left).toBeNull();
+    // An FC that falls before the other leg's IC breaks the order: same treatment.
+    const earlyFc = buildStrides("left", { ...left, finalContactsS: left.finalContactsS.map((t) => t - 0.3) }, right, ctx);
+    expect(earlyFc.filter((s) => s.steady).every((s) => s.finalContactRejected === true && s.stanceTimeS === null)).toBe(true);
   });
 });
 
