@@ -25,11 +25,62 @@ export function quantilesOfMasked(values: ArrayLike<number>, mask: Uint8Array | 
     if (seen % step === 0 && m < buf.length) buf[m++] = values[i]!;
     seen++;
   }
-  const sorted = buf.subarray(0, m).sort();
+  const kept = buf.subarray(0, m);
+  let hasNaN = false;
+  for (let i = 0; i < m; i++) if (kept[i] !== kept[i]) hasNaN = true;
+  // Only two order statistics per quantile are read, so selecting them (O(m)) gives the same values
+  // as sorting (O(m log m)); with NaN present the sort's ordering (NaN last) is kept instead.
+  if (hasNaN) kept.sort();
   return qs.map((q) => {
     const pos = q * (m - 1);
     const lo = Math.floor(pos);
     const hi = Math.min(m - 1, lo + 1);
-    return sorted[lo]! + (sorted[hi]! - sorted[lo]!) * (pos - lo);
+    const a = hasNaN ? kept[lo]! : selectOrderStatistic(kept, lo);
+    const b = hasNaN || hi === lo ? kept[hi]! : minFrom(kept, hi);
+    return a + (b - a) * (pos - lo);
   });
+}
+
+/**
+ * Rearranges x so that x[k] holds the value it would hold if x were sorted ascending, everything
+ * before it ≤ and everything after it ≥ (Hoare's selection with a median-of-three pivot); returns
+ * x[k]. x must hold no NaN.
+ */
+function selectOrderStatistic(x: Float64Array, k: number): number {
+  let lo = 0;
+  let hi = x.length - 1;
+  while (hi > lo) {
+    const mid = (lo + hi) >> 1;
+    // Median of three as the pivot: sorted or reversed input stays O(m).
+    let a = x[lo]!;
+    let b = x[mid]!;
+    let c = x[hi]!;
+    if (a > b) [a, b] = [b, a];
+    if (b > c) b = c < a ? a : c;
+    const pivot = b;
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (x[i]! < pivot) i++;
+      while (x[j]! > pivot) j--;
+      if (i <= j) {
+        const t = x[i]!;
+        x[i] = x[j]!;
+        x[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else break;
+  }
+  return x[k]!;
+}
+
+/** Smallest of x[from…]: after selectOrderStatistic(x, from − 1) that is the next order statistic. */
+function minFrom(x: Float64Array, from: number): number {
+  let v = x[from]!;
+  for (let i = from + 1; i < x.length; i++) if (x[i]! < v) v = x[i]!;
+  return v;
 }

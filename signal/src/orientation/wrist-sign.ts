@@ -289,9 +289,11 @@ function bodyForwardCue(
     for (let k = 0; k < cols.length; k++) row[k + 1] = cols[k]![i]!;
     for (let r = 0; r < m; r++) {
       atb[r] = atb[r]! + row[r]! * target[i]!;
-      for (let c = 0; c < m; c++) ata[m * r + c] = ata[m * r + c]! + row[r]! * row[c]!;
+      for (let c = r; c < m; c++) ata[m * r + c] = ata[m * r + c]! + row[r]! * row[c]!;
     }
   }
+  // AᵀA is symmetric (row[r]·row[c] = row[c]·row[r] exactly), so only its upper half was summed.
+  for (let r = 1; r < m; r++) for (let c = 0; c < r; c++) ata[m * r + c] = ata[m * c + r]!;
   const coef = solveSymmetric(ata, atb, m);
   if (!coef) return null;
   // Per-step evidence on the signal with the arm's own terms removed (template kept in).
