@@ -8,6 +8,7 @@ import {
 } from "../../gait/__tests__/support/stroke-treadmill-trials";
 import type { Analysis, Placement, SensorRecording } from "../../types";
 import { alignLegClocks } from "../align-clocks";
+import { impactLag, MAX_IMPACT_DELAY_S, STEP_FRACTION_SEARCH } from "../clock-offset";
 import { resampleToGrid, type ResampledSensor } from "../resample-to-grid";
 import { sessionGrid } from "../session-grid";
 
@@ -122,6 +123,27 @@ describe.skipIf(!strokeTreadmillAvailable)("clock alignment on real stroke recor
     console.log(`${trial.trial} feet: unshifted estimate ${(1000 * base.offsetS).toFixed(1)} ms`);
     expect(base.placement).toBe("right_foot");
     expect(Math.abs(1000 * (moved.offsetS! - base.offsetS - 0.1))).toBeLessThanOrEqual(10);
+  });
+
+  // The wrist alignment (align-wrist-clocks.ts) reads the whole lag of the impact at the wrist as clock
+  // offset. These recordings have no wrists, but the lower back on the same clock shows how late an
+  // impact envelope peaks away from the leg: that delay is what the wrist estimate would carry as bias.
+  // Physics only is asserted: the trunk cannot feel a strike before the shank, and both legs' strikes
+  // arrive within a plausible impact delay (MAX_IMPACT_DELAY_S).
+  it.each(trials.map((t) => [t.trial, t] as const))("%s: the impact reaches the lower back after the shank, within a plausible delay", (_name, trial) => {
+    const est = estimate(trial.recordings(ALL_FIVE));
+    if (!est.impacts?.legsAligned) return; // covered above (unverified)
+    const back = est.impacts.bridges.get("lower_back")!;
+    const { active, rateHz, strideS } = est.impacts;
+    const lag = (leg: typeof back) => impactLag(leg, back, active, rateHz, STEP_FRACTION_SEARCH * (strideS / 2));
+    const l = lag(est.impacts.left);
+    const r = lag(est.impacts.right);
+    console.log(`${trial.trial}: shank → lower back impact delay left ${(1000 * l!.lagS).toFixed(1)} ms, right ${(1000 * r!.lagS).toFixed(1)} ms`);
+    for (const x of [l, r]) {
+      expect(x?.strong).toBe(true);
+      expect(x!.lagS).toBeGreaterThanOrEqual(0);
+      expect(x!.lagS).toBeLessThanOrEqual(MAX_IMPACT_DELAY_S);
+    }
   });
 
   it.each(trials.map((t) => [t.trial, t] as const))("%s: with the shanks alone the offset cannot be told and is reported as unverified", (_name, trial) => {
