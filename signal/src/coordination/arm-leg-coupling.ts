@@ -3,7 +3,7 @@ import type { ArmLegCoupling } from "../types";
 import { type ArmRhythm, armRhythm } from "./arm-rhythm";
 import { BAND_HIGH_FACTOR, bandPassAroundFundamental } from "./band-pass";
 import { circularStats } from "./circular-stats";
-import { hilbertPhase } from "./hilbert";
+import { hilbertPhasePair } from "./hilbert";
 import { relativePhase } from "./relative-phase";
 import { ANGLE_HIGH_PASS_STRIDE_FRACTION, segmentAngleDeg } from "./segment-angle";
 
@@ -100,7 +100,8 @@ export function armLegCouplingDetail(
     return { ...none("arm rhythm below the measurable amplitude", strideCount, rhythm), frequencyRatio: rhythm.frequencyRatio };
   }
 
-  const psi = relativePhase(hilbertPhase(armBand), hilbertPhase(legBand), n);
+  const [armPhase, legPhase] = hilbertPhasePair(armBand, legBand);
+  const psi = relativePhase(armPhase, legPhase, n);
   const stats = circularStats(psi, mask);
   if (!stats) return none("no steady samples", strideCount, rhythm);
   const deg = 180 / Math.PI;

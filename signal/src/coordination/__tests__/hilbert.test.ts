@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { dft, inverseDft } from "../dft";
-import { hilbert, hilbertPhase } from "../hilbert";
+import { hilbert, hilbertPhase, hilbertPhasePair } from "../hilbert";
 import { relativePhase } from "../relative-phase";
 import { scipyReference } from "./scipy-reference";
 
@@ -95,5 +95,32 @@ describe("hilbert(x)", () => {
     const one = hilbert([3.5]);
     expect(one.re[0]).toBe(3.5);
     expect(one.im[0]).toBe(0);
+  });
+});
+
+describe("hilbertPhasePair(x, y)", () => {
+  // H is linear and real-to-real, so one transform of x + i·y must give both phases of hilbertPhase.
+  for (const n of [2, 7, 12, 1001, 1024, 22500]) {
+    it(`equals hilbertPhase of each signal for N = ${n} (wrapped difference < 1e-9 rad)`, () => {
+      const x = Float64Array.from({ length: n }, (_, i) => 2 * Math.cos(0.31 * i) + 0.5 * Math.sin(0.05 * i * (1 + i / n)) + 0.1);
+      const y = Float64Array.from({ length: n }, (_, i) => 1.5 * Math.sin(0.17 * i + 1) - 0.4 * Math.cos(0.9 * i));
+      const [px, py] = hilbertPhasePair(x, y);
+      const wrapped = (a: number, b: number) => Math.abs(Math.atan2(Math.sin(a - b), Math.cos(a - b)));
+      const ex = hilbertPhase(x);
+      const ey = hilbertPhase(y);
+      let err = 0;
+      for (let i = 0; i < n; i++) err = Math.max(err, wrapped(px[i]!, ex[i]!), wrapped(py[i]!, ey[i]!));
+      expect(err).toBeLessThan(1e-9);
+    });
+  }
+
+  it("gives the quarter-cycle relative phase of two cosines and rejects unequal lengths", () => {
+    const n = 1200;
+    const k = 12;
+    const lead = Float64Array.from({ length: n }, (_, i) => Math.cos((2 * Math.PI * k * i) / n + Math.PI / 2));
+    const lag = Float64Array.from({ length: n }, (_, i) => Math.cos((2 * Math.PI * k * i) / n));
+    const [a, b] = hilbertPhasePair(lead, lag);
+    for (const v of relativePhase(a, b, 1)) expect((v * 180) / Math.PI).toBeCloseTo(90, 9);
+    expect(() => hilbertPhasePair([1, 2], [1])).toThrow(RangeError);
   });
 });
