@@ -3,14 +3,16 @@ import { type ClockAlignment, CLOCK_OFFSET_REPORT_S } from "./align-clocks";
 import { impactEnvelope } from "./impact-signal";
 import { type ResampledSensor, resampleToGrid } from "./resample-to-grid";
 import type { SessionGrid } from "./session-grid";
-import { estimateWristClockOffset, type WristClockEstimate } from "./wrist-clock-offset";
+import { estimateWristClockOffset, type WristClockEstimate, wristClockDrift } from "./wrist-clock-offset";
 
 const WRISTS: readonly Placement[] = ["left_wrist", "right_wrist"];
 
 export interface WristClockAlignment {
   placement: Placement;
-  /** Added to the wrist's clock (s); null when not estimated. */
+  /** Added to the wrist's clock (s; at the drift fit's centre when drifting); null when not estimated. */
   offsetS: number | null;
+  /** Drift corrected along the session (ms/min); null when none was kept. */
+  driftMsPerMin: number | null;
   corrected: boolean;
   estimate: WristClockEstimate | null;
 }
@@ -39,7 +41,7 @@ export function alignWristClocks(
   if (!imp || !imp.legsAligned) {
     const why = !imp ? "no regular walking in the legs' impact signals, or no left and right leg sensor" : "the two leg sensors' clocks could not be aligned to each other first";
     for (const p of present) unverified(p, why);
-    return { wrists: present.map((placement) => ({ placement, offsetS: null, corrected: false, estimate: null })), quality };
+    return { wrists: present.map((placement) => ({ placement, offsetS: null, driftMsPerMin: null, corrected: false, estimate: null })), quality };
   }
   const fs = grid.sampleRateHz;
   const wrists = present.map((p): WristClockAlignment => {
@@ -48,24 +50,33 @@ export function alignWristClocks(
     const est = estimateWristClockOffset(imp.left, imp.right, env, imp.active, imp.rateHz, imp.strideS / 2);
     if (!est || !est.strong) {
       unverified(p, est?.reason ?? "too little walking with both the wrist and the legs recording");
-      return { placement: p, offsetS: null, corrected: false, estimate: est };
+      return { placement: p, offsetS: null, driftMsPerMin: null, corrected: false, estimate: est };
     }
+    const drift = wristClockDrift(imp.left, imp.right, env, imp.active, imp.rateHz, est.offsetS);
+    const driftOn = drift?.corrected === true;
+    // offset(t) = a + b·(t − centre) in session seconds; a constant when no drift was kept.
+    const offsetS = driftOn ? drift.offsetS : est.offsetS;
+    const slope = driftOn ? drift.driftSPerS : 0;
+    const centreS = driftOn ? drift.centreS : 0;
     const index = allRecordings.findIndex((r) => r.placement === p);
     const rec = recordings.find((r) => r.placement === p)!;
+    const gridOffsetS = grid.offsetsS[index] ?? 0;
     const timeS = new Float64Array(rec.timeS.length);
-    for (let i = 0; i < timeS.length; i++) timeS[i] = rec.timeS[i]! + est.offsetS;
+    for (let i = 0; i < timeS.length; i++) timeS[i] = rec.timeS[i]! + offsetS + slope * (gridOffsetS + rec.timeS[i]! - centreS);
     sensors.set(p, resampleToGrid({ ...rec, timeS }, grid, index));
+    const driftMsPerMin = driftOn ? drift.driftSPerS * 60_000 : null;
     // Strong evidence is applied even below the report threshold, as for the legs.
-    if (Math.abs(est.offsetS) > CLOCK_OFFSET_REPORT_S) {
-      const ms = (est.offsetS * 1000).toFixed(0);
+    if (Math.abs(offsetS) > CLOCK_OFFSET_REPORT_S || (driftOn && Math.abs(slope) * grid.durationS > CLOCK_OFFSET_REPORT_S)) {
+      const ms = (offsetS * 1000).toFixed(0);
+      const driftText = driftMsPerMin === null ? "" : `, drifting ${driftMsPerMin.toFixed(2)} ms/min (corrected along the session)`;
       quality.push({
         code: "clock-offset",
         severity: "warning",
         placement: p,
-        message: `${rec.fileName} (${p}): its clock differs from the legs' by ${ms} ms (from heel-strike impacts felt at the wrist); corrected by ${est.offsetS >= 0 ? "+" : ""}${ms} ms`,
+        message: `${rec.fileName} (${p}): its clock differs from the legs' by ${ms} ms${driftText} (from heel-strike impacts felt at the wrist); corrected by ${offsetS >= 0 ? "+" : ""}${ms} ms`,
       });
     }
-    return { placement: p, offsetS: est.offsetS, corrected: true, estimate: est };
+    return { placement: p, offsetS, driftMsPerMin, corrected: true, estimate: est };
   });
   return { wrists, quality };
 }

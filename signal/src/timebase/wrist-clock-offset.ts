@@ -1,4 +1,16 @@
-import { impactLag, type EnvelopeInput, MAX_CLOCK_OFFSET_S, STEP_FRACTION_SEARCH, MIN_PEAK_CORRELATION, searchSpan } from "./clock-offset";
+import {
+  DRIFT_SEARCH_S,
+  DRIFT_WINDOW_S,
+  type DriftFit,
+  type EnvelopeInput,
+  fitDrift,
+  impactLag,
+  MAX_CLOCK_OFFSET_S,
+  MIN_DRIFT_WINDOWS,
+  MIN_PEAK_CORRELATION,
+  searchSpan,
+  STEP_FRACTION_SEARCH,
+} from "./clock-offset";
 import { lagCorrelation, lagPeak } from "./impact-correlation";
 
 /**
@@ -104,4 +116,39 @@ export function estimateWristClockOffset(
     return { ...lagged, strong: false, reason: `the two legs' impacts reach the wrist ${(1000 * Math.abs(l.lagS - r.lagS)).toFixed(0)} ms apart (a walking aid's taps, or legs not on one clock)` };
   }
   return { ...lagged, strong: true, reason: null };
+}
+
+/**
+ * The wrist's offset along the session, for drift (a wrist's crystal drifts like a leg's): per
+ * DRIFT_WINDOW_S window the lag of the legs' combined train behind the wrist's, searched only within
+ * ±DRIFT_SEARCH_S of the whole-session offset (a window has too few steps to settle which step is
+ * which on its own), kept when it peaks inside that range at r ≥ MIN_PEAK_CORRELATION; then the same
+ * straight-line rule as the legs' (fitDrift: MIN_DRIFT_WINDOWS windows, significance and effect).
+ * Null on sessions shorter than two windows or with too few usable ones: the whole-session offset
+ * stands.
+ */
+export function wristClockDrift(
+  left: EnvelopeInput,
+  right: EnvelopeInput,
+  wrist: EnvelopeInput,
+  active: Uint8Array,
+  rateHz: number,
+  wholeOffsetS: number,
+): DriftFit | null {
+  const windowBins = Math.round(DRIFT_WINDOW_S * rateHz);
+  const m = active.length;
+  if (m < 2 * windowBins) return null;
+  const legs = combinedImpactTrain(left, right);
+  const centre = Math.round(wholeOffsetS * rateHz);
+  const half = Math.max(2, Math.ceil(DRIFT_SEARCH_S * rateHz));
+  const points: Array<{ centreS: number; offsetS: number }> = [];
+  for (let from = 0; from + windowBins <= m; from += windowBins) {
+    const { r, bins } = lagCorrelation(wrist.envelope, legs.envelope, wrist.valid, legs.valid, active, half, from, from + windowBins, centre);
+    // At least a minute of walking in the window (tens of steps; common practice).
+    if (bins < 60 * rateHz) continue;
+    const p = lagPeak(r, half);
+    if (!p || p.peak < MIN_PEAK_CORRELATION || Math.abs(p.lagBins) >= half - 0.5) continue;
+    points.push({ centreS: (from + windowBins / 2) / rateHz, offsetS: (centre + p.lagBins) / rateHz });
+  }
+  return points.length >= MIN_DRIFT_WINDOWS ? fitDrift(points) : null;
 }

@@ -105,4 +105,36 @@ describe("wrist clock alignment on the mechanical impact model", () => {
     expect(numb.offsetOf("left_wrist")).toBeNull();
     expect(numb.wrists.quality.map((q) => q.code)).toEqual(["clock-unverified"]);
   });
+
+  it("finds and corrects a wrist drifting 3 ms/min over a 20-minute walk (and none on a steady wrist clock)", () => {
+    const drift = 0.003 / 60;
+    const recs = modelRecordings({
+      durationS: 1220,
+      sampleRateHz: 100,
+      strideS: 1.1,
+      stepFraction: 0.5,
+      jitterS: 0.03,
+      walkFromS: 10,
+      walkToS: 1210,
+      seed: 4,
+      sensors: [
+        shank("left"),
+        shank("right"),
+        { placement: "left_wrist", fromLeft: 0.8, fromRight: 0.8, delayS: 0, offsetS: 0.05, driftSPerS: drift },
+        { placement: "right_wrist", fromLeft: 0.8, fromRight: 0.8, delayS: 0, offsetS: -0.03 },
+      ],
+    });
+    const { wrists } = alignAll(recs);
+    const left = wrists.wrists.find((w) => w.placement === "left_wrist")!;
+    const right = wrists.wrists.find((w) => w.placement === "right_wrist")!;
+    console.log(`drifting wrist: ${left.driftMsPerMin?.toFixed(2)} ms/min (model 3), offset at the fit's centre ${(1000 * left.offsetS!).toFixed(1)} ms; steady wrist ${(1000 * right.offsetS!).toFixed(1)} ms (model −30), drift ${right.driftMsPerMin}`);
+    expect(left.driftMsPerMin!).toBeGreaterThan(2.5);
+    expect(left.driftMsPerMin!).toBeLessThan(3.5);
+    expect(wrists.quality.find((q) => q.placement === "left_wrist")?.message).toMatch(/drifting/);
+    // The fit's centre lies mid-session: the offset there is the model's offset at about 600 s.
+    expect(left.offsetS!).toBeGreaterThan(0.05 + drift * 400);
+    expect(left.offsetS!).toBeLessThan(0.05 + drift * 800);
+    expect(right.driftMsPerMin).toBeNull();
+    expect(Math.abs(right.offsetS! + 0.03)).toBeLessThan(0.005);
+  });
 });
