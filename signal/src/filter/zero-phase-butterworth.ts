@@ -67,27 +67,36 @@ function filterInPlace(sections: readonly Biquad[], y: Float64Array, reverse: bo
   let level = reverse ? y[m - 1]! : y[0]!;
   for (const s of sections) {
     const gain = (s.b0 + s.b1 + s.b2) / (1 + s.a1 + s.a2);
-    let z2 = (s.b2 - s.a2 * gain) * level;
-    let z1 = (s.b1 - s.a1 * gain) * level + z2;
-    const { b0, b1, b2, a1, a2 } = s;
-    if (!reverse) {
-      for (let i = 0; i < m; i++) {
-        const xi = y[i]!;
-        const yi = b0 * xi + z1;
-        z1 = b1 * xi - a1 * yi + z2;
-        z2 = b2 * xi - a2 * yi;
-        y[i] = yi;
-      }
-    } else {
-      for (let i = m - 1; i >= 0; i--) {
-        const xi = y[i]!;
-        const yi = b0 * xi + z1;
-        z1 = b1 * xi - a1 * yi + z2;
-        z2 = b2 * xi - a2 * yi;
-        y[i] = yi;
-      }
-    }
+    const z2 = (s.b2 - s.a2 * gain) * level;
+    const z1 = (s.b1 - s.a1 * gain) * level + z2;
+    if (!reverse) sectionForward(s.b0, s.b1, s.b2, s.a1, s.a2, z1, z2, y);
+    else sectionBackward(s.b0, s.b1, s.b2, s.a1, s.a2, z1, z2, y);
     level *= gain;
+  }
+}
+
+// One loop per direction, each its own small function: every filter in the pipeline runs through
+// these two, so they are compiled once for all callers instead of being recompiled on the fly (and
+// dropped again when the other direction's branch is first reached) inside each long first call.
+
+function sectionForward(b0: number, b1: number, b2: number, a1: number, a2: number, z1: number, z2: number, y: Float64Array): void {
+  const m = y.length;
+  for (let i = 0; i < m; i++) {
+    const xi = y[i]!;
+    const yi = b0 * xi + z1;
+    z1 = b1 * xi - a1 * yi + z2;
+    z2 = b2 * xi - a2 * yi;
+    y[i] = yi;
+  }
+}
+
+function sectionBackward(b0: number, b1: number, b2: number, a1: number, a2: number, z1: number, z2: number, y: Float64Array): void {
+  for (let i = y.length - 1; i >= 0; i--) {
+    const xi = y[i]!;
+    const yi = b0 * xi + z1;
+    z1 = b1 * xi - a1 * yi + z2;
+    z2 = b2 * xi - a2 * yi;
+    y[i] = yi;
   }
 }
 
