@@ -6,7 +6,11 @@ import { createHmac } from "node:crypto";
  * the server. Each function names the paragraph it serves.
  */
 
-/** Smallest number of distinct subjects a published cell may describe (k-anonymity, Sweeney 2002, from memory). */
+/**
+ * Smallest number of distinct subjects a published cell may describe: k-anonymity (Sweeney 2002,
+ * Int J Uncertain Fuzziness Knowl-Based Syst 10:557). The model leaves k to the publisher; k = 5 is
+ * common practice for small-cell suppression, not a value from that paper.
+ */
 export const MIN_CELL_SUBJECTS = 5;
 
 /**
