@@ -11,7 +11,7 @@ import { REPO_ROOT } from "./support/processes";
  * Browser-facing defences, asserted on the wire: the CSP and security headers (helmet), no CORS,
  * the refresh cookie's flags, body-size limits, rate limits on sign-in and uploads, SQL injection
  * strings in every text field of every write route and search parameter, and the research CSV
- * export escaping spreadsheet formulas (OWASP "CSV Injection", from memory).
+ * export escaping spreadsheet formulas (OWASP ASVS 4.0 requirement 1.2.10: CSV and formula injection).
  */
 let ctx: TestContext;
 let strict: TestContext;

@@ -22,7 +22,8 @@ export interface DominantFrequency {
 /**
  * Frequency of the largest Welch-PSD peak between minHz and maxHz, refined by a parabola through
  * the peak bin and its neighbours (quadratic peak interpolation, common practice; e.g. J. O. Smith,
- * "Spectral Audio Signal Processing", §Quadratic Interpolation of Spectral Peaks — from memory).
+ * "Spectral Audio Signal Processing", §Quadratic Interpolation of Spectral Peaks:
+ * p = ½(α − γ)/(α − 2β + γ) bins).
  * Returns null when no segment qualifies or the band holds no bin.
  */
 export function dominantFrequency(

@@ -10,7 +10,8 @@ export function wrapPi(angleRad: number): number {
 
 /**
  * n:1 relative phase ψ = wrap(φ_arm − n·φ_leg), radians in (−π, π] (n:m phase locking with m = 1,
- * Tass et al. 1998, Phys Rev Lett 81:3291 — from memory). n must be a positive integer: with
+ * Tass et al. 1998, Phys Rev Lett 81:3291, the n:m phase difference whose mean resultant length
+ * measures locking). n must be a positive integer: with
  * wrapped phases only an integer multiple is well defined, and a non-locked rhythm then drifts
  * through all ψ so its resultant length stays low. n = 1 gives the continuous relative phase.
  */

@@ -1,6 +1,6 @@
 /**
  * Gait asymmetry GA = 100·|ln(SSWT / LSWT)| from the mean swing times of the two legs (Plotnik et
- * al. 2007; Yogev et al. 2007 — formula from memory, DOMAIN.md §3). Null when either is missing or
+ * al. 2007; Yogev et al. 2007, Exp Brain Res 177:336 — formula checked against Yogev 2007). Null when either is missing or
  * not positive.
  */
 export function gaitAsymmetryPct(meanSwingLeftS: number | null, meanSwingRightS: number | null): number | null {
