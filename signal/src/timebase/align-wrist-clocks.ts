@@ -40,7 +40,8 @@ export function alignWristClocks(
   const imp = legs.impacts;
   if (!imp || !imp.legsAligned) {
     const why = !imp ? "no regular walking in the legs' impact signals, or no left and right leg sensor" : "the two leg sensors' clocks could not be aligned to each other first";
-    for (const p of present) unverified(p, why);
+    // One item for the shared cause (the legs' own item says why in detail), not one per wrist.
+    quality.push({ code: "clock-unverified", severity: "info", message: `wrist clocks (${present.join(", ")}) not checked against the legs: ${why}; their start times were trusted` });
     return { wrists: present.map((placement) => ({ placement, offsetS: null, driftMsPerMin: null, corrected: false, estimate: null })), quality };
   }
   const fs = grid.sampleRateHz;

@@ -104,6 +104,13 @@ describe("wrist clock alignment on the mechanical impact model", () => {
     const numb = alignAll(walk([shank("left"), shank("right"), { placement: "lower_back", fromLeft: 2, fromRight: 2, delayS: 0 }, { placement: "left_wrist", fromLeft: 0, fromRight: 0, delayS: 0, offsetS: 0.1 }]));
     expect(numb.offsetOf("left_wrist")).toBeNull();
     expect(numb.wrists.quality.map((q) => q.code)).toEqual(["clock-unverified"]);
+    // Legs that cannot be aligned to each other (their only bridges, the wrists, feel nothing): one
+    // item for both wrists, nothing corrected.
+    const noLegs = alignAll(walk([shank("left"), shank("right"), { placement: "left_wrist", fromLeft: 0, fromRight: 0, delayS: 0 }, { placement: "right_wrist", fromLeft: 0, fromRight: 0, delayS: 0 }]));
+    expect(noLegs.legs.offsetS).toBeNull();
+    expect(noLegs.wrists.wrists.every((w) => w.offsetS === null)).toBe(true);
+    expect(noLegs.wrists.quality.map((q) => q.code)).toEqual(["clock-unverified"]);
+    expect(noLegs.wrists.quality[0]!.message).toMatch(/left_wrist, right_wrist/);
   });
 
   it("finds and corrects a wrist drifting 3 ms/min over a 20-minute walk (and none on a steady wrist clock)", () => {
