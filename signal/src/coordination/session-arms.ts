@@ -1,3 +1,4 @@
+import { projectOnAxis } from "../orientation/sagittal-axis";
 import { wristOrientation } from "../orientation/wrist-sign";
 import type { ArmLegCoupling, ArmSwing, Bout, Placement, QualityItem, Side, Stride } from "../types";
 import { armLegCouplingDetail } from "./arm-leg-coupling";
@@ -87,17 +88,14 @@ export function sessionArms(input: SessionArmsInput): SessionArms {
     if (!wrist) continue;
     const placement = `${side}_wrist` as Placement;
     const leg = input.legs[contra(side)];
-    const mask = new Uint8Array(n);
-    for (let i = 0; i < n; i++) mask[i] = steadyMask[i]! & wrist.valid[i]!;
+    const mask = andMask(steadyMask, wrist.valid);
     const orientation = wristOrientation({ ...wrist, mask, sampleRateHz: fs, strideFrequencyHz: f, initialContactsS: allIcs });
     if (!orientation) {
       armLeg[key] = blank(`${side} wrist: too little straight walking with wrist data to find its swing axis`);
       amplitudeReason.push(armLeg[key].reason!);
       continue;
     }
-    const omega = new Float64Array(n);
-    const [ax, ay, az] = orientation.rightAxis;
-    for (let i = 0; i < n; i++) omega[i] = wrist.gyroX[i]! * ax + wrist.gyroY[i]! * ay + wrist.gyroZ[i]! * az;
+    const omega = projectOnAxis(wrist.gyroX, wrist.gyroY, wrist.gyroZ, orientation.rightAxis);
 
     // Quality: wear.
     const wear: string[] = [];
@@ -187,4 +185,15 @@ export function sessionArms(input: SessionArmsInput): SessionArms {
     counts,
     quality,
   };
+}
+
+/**
+ * a AND b per sample. Sample loops stay out of sessionArms: a loop there makes the engine compile
+ * the whole step, wrist orientation and coupling included, while it runs (hundreds of milliseconds of compile time on
+ * a 30-minute session for code that runs once).
+ */
+function andMask(a: Uint8Array, b: Uint8Array): Uint8Array {
+  const out = new Uint8Array(a.length);
+  for (let i = 0; i < out.length; i++) out[i] = a[i]! & b[i]!;
+  return out;
 }

@@ -1,7 +1,7 @@
 import { assertPositiveFinite } from "../check";
 import { ANGLE_HIGH_PASS_STRIDE_FRACTION, segmentAngleDeg } from "../coordination/segment-angle";
 import { bandPassZeroPhase, lowPassZeroPhase } from "../filter/zero-phase-butterworth";
-import { sagittalAxis } from "./sagittal-axis";
+import { projectOnAxis, sagittalAxis } from "./sagittal-axis";
 
 /** The wrist's swing axis is sought in gyro band-passed to this band around the stride frequency (× f_stride, common practice). */
 export const WRIST_AXIS_BAND: readonly [number, number] = [0.5, 2.6];
@@ -106,30 +106,13 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
   // the cost does not grow with the session; the wear does not change within a session.
   const total = input.mask.length;
   const margin = Math.round(ORIENTATION_MARGIN_S * fs);
-  let first = -1;
-  let last = total;
-  let seen = 0;
-  for (let i = 0; i < total; i++) {
-    if (!input.mask[i]) continue;
-    if (first < 0) first = i;
-    if (++seen >= MAX_ORIENTATION_WALKING_S * fs) {
-      last = i + 1;
-      break;
-    }
-  }
+  const [first, last] = leadingMaskedSpan(input.mask, MAX_ORIENTATION_WALKING_S * fs);
   if (first < 0) return null;
   const from = Math.max(0, first - margin);
   const to = Math.min(total, last + margin);
   const n = to - from;
   const mask = input.mask.subarray(from, to);
-  const clean = (x: ArrayLike<number>): Float64Array => {
-    const out = new Float64Array(n);
-    for (let i = 0; i < n; i++) {
-      const v = x[from + i]!;
-      out[i] = Number.isFinite(v) ? v : 0;
-    }
-    return out;
-  };
+  const clean = (x: ArrayLike<number>): Float64Array => finiteOrZero(x, from, n);
   const gyro = [clean(input.gyroX), clean(input.gyroY), clean(input.gyroZ)] as const;
   const acc = [clean(input.accX), clean(input.accY), clean(input.accZ)] as const;
   const shiftS = from / fs;
@@ -140,13 +123,8 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
   };
 
   // Up: mean specific force over straight walking.
-  const up: Vec3 = [0, 0, 0];
-  let count = 0;
-  for (let i = 0; i < n; i++) {
-    if (!mask[i]) continue;
-    count++;
-    for (let k = 0; k < 3; k++) up[k] = up[k]! + acc[k]![i]!;
-  }
+  const up: Vec3 = [maskedSum(acc[0], mask), maskedSum(acc[1], mask), maskedSum(acc[2], mask)];
+  const count = countSet(mask);
   if (count === 0) return null;
   const upNorm = Math.hypot(...up) / count;
   if (upNorm < 0.5 * G_M_S2) return null;
@@ -158,10 +136,7 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
   const band = gyro.map((g) => bandPassZeroPhase(g, fs, lo, hi, 2));
   // Only rotation about horizontal axes counts: the trunk's yaw (about `up`) is removed first, so
   // an arm that hardly swings still gets its best horizontal axis rather than the yaw axis.
-  for (let i = 0; i < n; i++) {
-    const along = band[0]![i]! * up[0] + band[1]![i]! * up[1] + band[2]![i]! * up[2];
-    for (let k = 0; k < 3; k++) band[k]![i] = band[k]![i]! - along * up[k]!;
-  }
+  removeComponentAlong(band[0]!, band[1]!, band[2]!, up);
   const pc = sagittalAxis(band[0]!, band[1]!, band[2]!, mask);
   if (!pc) return null;
   const right: Vec3 = [...pc.axis];
@@ -214,22 +189,14 @@ function impactLag(acc: readonly Float64Array[], input: WristSignInput): number 
   const n = input.mask.length;
   if (IMPACT_HIGH_PASS_HZ >= 0.45 * fs) return null;
   const envelope = new Float64Array(n);
-  for (const a of acc) {
-    const slow = lowPassZeroPhase(a, fs, IMPACT_HIGH_PASS_HZ, 4);
-    for (let i = 0; i < n; i++) envelope[i] = envelope[i]! + (a[i]! - slow[i]!) ** 2;
-  }
+  for (const a of acc) addSquaredDifference(envelope, a, lowPassZeroPhase(a, fs, IMPACT_HIGH_PASS_HZ, 4));
   const smooth = lowPassZeroPhase(envelope.map(Math.sqrt), fs, Math.min(20, 0.4 * fs), 2);
   const halfStep = Math.round((0.25 * fs) / input.strideFrequencyHz);
   const ics = input.initialContactsS.map((t) => Math.round(t * fs)).filter((c) => c - halfStep >= 0 && c + halfStep < n && input.mask[c]);
   if (ics.length < MIN_FORWARD_CUE_STEPS) return null;
-  const scores: number[] = [];
+  const scores = meanAtLags(smooth, ics, halfStep);
   let best = 0;
-  for (let lag = -halfStep; lag < halfStep; lag++) {
-    let sum = 0;
-    for (const c of ics) sum += smooth[c + lag]!;
-    scores.push(sum / ics.length);
-    if (sum / ics.length > scores[best]!) best = scores.length - 1;
-  }
+  for (let k = 1; k < scores.length; k++) if (scores[k]! > scores[best]!) best = k;
   const sorted = [...scores].sort((x, y) => x - y);
   const median = sorted[sorted.length >> 1]!;
   if (!(scores[best]! >= MIN_IMPACT_LAG_CONTRAST * median)) return null;
@@ -246,20 +213,15 @@ function bodyForwardCue(
 ): { meanM_S2: number; t: number; stepCount: number } | null {
   const fs = input.sampleRateHz;
   const n = input.mask.length;
-  const omega = new Float64Array(n);
-  const af = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    omega[i] = gyro[0]![i]! * right[0] + gyro[1]![i]! * right[1] + gyro[2]![i]! * right[2];
-    af[i] = acc[0]![i]! * forward[0] + acc[1]![i]! * forward[1] + acc[2]![i]! * forward[2];
-  }
+  const omega = projectOnAxis(gyro[0]!, gyro[1]!, gyro[2]!, right);
+  const af = projectOnAxis(acc[0]!, acc[1]!, acc[2]!, forward);
   const theta = segmentAngleDeg(omega, fs, ANGLE_HIGH_PASS_STRIDE_FRACTION * input.strideFrequencyHz);
   // α from ω low-passed at CUE_LOW_PASS_HZ: differentiating amplifies sensor noise, and noise in a
   // regressor shrinks its fitted coefficient, which would leave a fraction of the arm's large own
   // acceleration (L·α reaches ~10 m/s²) in the residual. Every column and the target get the same filter.
   const lp = (x: Float64Array): Float64Array => (CUE_LOW_PASS_HZ < 0.45 * fs ? lowPassZeroPhase(x, fs, CUE_LOW_PASS_HZ, 4) : x);
   const smooth = lp(omega);
-  const alpha = new Float64Array(n);
-  for (let i = 1; i < n - 1; i++) alpha[i] = ((smooth[i + 1]! - smooth[i - 1]!) * fs * 0.5) * DEG;
+  const alpha = centralDifferenceRad(smooth, fs);
   // The arm's tilt projects the whole vertical specific force F (gravity plus the body's vertical
   // acceleration and impacts) onto the forward axis: F·sin θ, not g·sin θ.
   // The reading along `up` is F·cos θ + L·ω², so F·sin θ = (reading − L·ω²)·tan θ.
@@ -267,11 +229,7 @@ function bodyForwardCue(
 
   // Step template: +1 over the half step before each IC, −1 over the half step after.
   const halfStep = Math.max(1, Math.round((0.25 * fs) / input.strideFrequencyHz));
-  const step = new Float64Array(n);
-  for (const ic of input.initialContactsS) {
-    const c = Math.round(ic * fs);
-    for (let i = Math.max(0, c - halfStep); i < Math.min(n, c + halfStep); i++) step[i] = i < c ? 1 : -1;
-  }
+  const step = stepTemplate(n, input.initialContactsS, fs, halfStep);
   // Joint least squares a_f ≈ c0 + c1·sin θ + c2·α + β·step over the mask: fitting the template
   // together with the arm's own terms keeps the arm's step-frequency harmonics from absorbing it.
   // The up reading also holds the centripetal L·ω² of the swing, which sin θ carries onto the
@@ -280,11 +238,114 @@ function bodyForwardCue(
   const cols = [lp(sinTheta), lp(alpha), lp(centripetal), step];
   const target = lp(af);
   const m = cols.length + 1;
+  const { ata, atb } = normalEquations(cols, target, input.mask);
+  const coef = solveSymmetric(ata, atb, m);
+  if (!coef) return null;
+  // Per-step evidence on the signal with the arm's own terms removed (template kept in).
+  const residual = residualOfArmTerms(target, coef, cols[0]!, cols[1]!, cols[2]!);
+
+  const d = stepContrasts(residual, input.mask, input.initialContactsS, fs, halfStep);
+  if (d.length < 2) return d.length === 0 ? null : { meanM_S2: d[0]!, t: 0, stepCount: d.length };
+  const mean = d.reduce((a, x) => a + x, 0) / d.length;
+  const sd = Math.sqrt(d.reduce((a, x) => a + (x - mean) ** 2, 0) / (d.length - 1));
+  const t = sd > 0 ? mean / (sd / Math.sqrt(d.length)) : 0;
+  return { meanM_S2: mean, t, stepCount: d.length };
+}
+
+// Sample loops live in the small functions below, not in wristOrientation or bodyForwardCue: a long
+// loop inside those makes the engine compile the whole step (filters and all inlined) while it runs,
+// several times over, which cost far more than the loops themselves on a session's first analysis.
+
+/** [first masked index, index after the `count`-th masked sample (or length)]; first −1 when none. */
+function leadingMaskedSpan(mask: Uint8Array, count: number): [number, number] {
+  let first = -1;
+  let seen = 0;
+  for (let i = 0; i < mask.length; i++) {
+    if (!mask[i]) continue;
+    if (first < 0) first = i;
+    if (++seen >= count) return [first, i + 1];
+  }
+  return [first, mask.length];
+}
+
+/** x[from, from + n) with non-finite values as 0. */
+function finiteOrZero(x: ArrayLike<number>, from: number, n: number): Float64Array {
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const v = x[from + i]!;
+    out[i] = Number.isFinite(v) ? v : 0;
+  }
+  return out;
+}
+
+function countSet(mask: Uint8Array): number {
+  let count = 0;
+  for (let i = 0; i < mask.length; i++) if (mask[i]) count++;
+  return count;
+}
+
+/** Mean of x over the given indices shifted by each lag in [−halfStep, halfStep). */
+function meanAtLags(x: Float64Array, at: readonly number[], halfStep: number): number[] {
+  const scores: number[] = [];
+  for (let lag = -halfStep; lag < halfStep; lag++) {
+    let sum = 0;
+    for (const c of at) sum += x[c + lag]!;
+    scores.push(sum / at.length);
+  }
+  return scores;
+}
+
+function maskedSum(x: Float64Array, mask: Uint8Array): number {
+  let sum = 0;
+  for (let i = 0; i < x.length; i++) if (mask[i]) sum = sum + x[i]!;
+  return sum;
+}
+
+/** Removes from each sample of (x, y, z) its component along the unit vector u, in place. */
+function removeComponentAlong(x: Float64Array, y: Float64Array, z: Float64Array, u: Vec3): void {
+  for (let i = 0; i < x.length; i++) {
+    const along = x[i]! * u[0] + y[i]! * u[1] + z[i]! * u[2];
+    x[i] = x[i]! - along * u[0];
+    y[i] = y[i]! - along * u[1];
+    z[i] = z[i]! - along * u[2];
+  }
+}
+
+/** sum[i] += (a[i] − b[i])², in place. */
+function addSquaredDifference(sum: Float64Array, a: Float64Array, b: Float64Array): void {
+  for (let i = 0; i < sum.length; i++) sum[i] = sum[i]! + (a[i]! - b[i]!) ** 2;
+}
+
+/** Angular acceleration (rad/s²) of an angular velocity in °/s by central differences; 0 at both ends. */
+function centralDifferenceRad(omegaDegS: Float64Array, sampleRateHz: number): Float64Array {
+  const n = omegaDegS.length;
+  const alpha = new Float64Array(n);
+  for (let i = 1; i < n - 1; i++) alpha[i] = ((omegaDegS[i + 1]! - omegaDegS[i - 1]!) * sampleRateHz * 0.5) * DEG;
+  return alpha;
+}
+
+/** +1 over the half step before each IC, −1 over the half step after (later ICs overwrite). */
+function stepTemplate(n: number, initialContactsS: readonly number[], sampleRateHz: number, halfStep: number): Float64Array {
+  const step = new Float64Array(n);
+  for (const ic of initialContactsS) {
+    const c = Math.round(ic * sampleRateHz);
+    for (let i = Math.max(0, c - halfStep); i < Math.min(n, c + halfStep); i++) step[i] = i < c ? 1 : -1;
+  }
+  return step;
+}
+
+/**
+ * AᵀA and Aᵀb over the masked samples for A = [1, cols…]. AᵀA is symmetric (row[r]·row[c] =
+ * row[c]·row[r] exactly), so only its upper half is summed and then mirrored.
+ */
+function normalEquations(cols: readonly Float64Array[], target: Float64Array, mask: Uint8Array): { ata: Float64Array; atb: Float64Array } {
+  const m = cols.length + 1;
+  const n = target.length;
   const ata = new Float64Array(m * m);
   const atb = new Float64Array(m);
   const row = new Float64Array(m);
   for (let i = 0; i < n; i++) {
-    if (!input.mask[i]) continue;
+    if (!mask[i]) continue;
     row[0] = 1;
     for (let k = 0; k < cols.length; k++) row[k + 1] = cols[k]![i]!;
     for (let r = 0; r < m; r++) {
@@ -292,25 +353,29 @@ function bodyForwardCue(
       for (let c = r; c < m; c++) ata[m * r + c] = ata[m * r + c]! + row[r]! * row[c]!;
     }
   }
-  // AᵀA is symmetric (row[r]·row[c] = row[c]·row[r] exactly), so only its upper half was summed.
   for (let r = 1; r < m; r++) for (let c = 0; c < r; c++) ata[m * r + c] = ata[m * c + r]!;
-  const coef = solveSymmetric(ata, atb, m);
-  if (!coef) return null;
-  // Per-step evidence on the signal with the arm's own terms removed (template kept in).
-  const residual = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    residual[i] = target[i]! - coef[0]! - coef[1]! * cols[0]![i]! - coef[2]! * cols[1]![i]! - coef[3]! * cols[2]![i]!;
-  }
+  return { ata, atb };
+}
 
+/** target − c0 − c1·a − c2·b − c3·c per sample (the fit's arm terms removed, the step template kept). */
+function residualOfArmTerms(target: Float64Array, coef: readonly number[], a: Float64Array, b: Float64Array, c: Float64Array): Float64Array {
+  const residual = new Float64Array(target.length);
+  for (let i = 0; i < target.length; i++) residual[i] = target[i]! - coef[0]! - coef[1]! * a[i]! - coef[2]! * b[i]! - coef[3]! * c[i]!;
+  return residual;
+}
+
+/** Per IC whose whole step window is masked: (Σ residual before IC − Σ after) / halfStep. */
+function stepContrasts(residual: Float64Array, mask: Uint8Array, initialContactsS: readonly number[], sampleRateHz: number, halfStep: number): number[] {
+  const n = residual.length;
   const d: number[] = [];
-  for (const ic of input.initialContactsS) {
-    const c = Math.round(ic * fs);
+  for (const ic of initialContactsS) {
+    const c = Math.round(ic * sampleRateHz);
     if (c - halfStep < 0 || c + halfStep > n) continue;
     let ok = true;
     let before = 0;
     let after = 0;
     for (let i = c - halfStep; i < c + halfStep; i++) {
-      if (!input.mask[i]) {
+      if (!mask[i]) {
         ok = false;
         break;
       }
@@ -319,11 +384,7 @@ function bodyForwardCue(
     }
     if (ok) d.push((before - after) / halfStep);
   }
-  if (d.length < 2) return d.length === 0 ? null : { meanM_S2: d[0]!, t: 0, stepCount: d.length };
-  const mean = d.reduce((a, x) => a + x, 0) / d.length;
-  const sd = Math.sqrt(d.reduce((a, x) => a + (x - mean) ** 2, 0) / (d.length - 1));
-  const t = sd > 0 ? mean / (sd / Math.sqrt(d.length)) : 0;
-  return { meanM_S2: mean, t, stepCount: d.length };
+  return d;
 }
 
 function dot(a: Vec3, b: Vec3): number {
