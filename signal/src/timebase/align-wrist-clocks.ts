@@ -25,6 +25,16 @@ export interface WristClockAlignment {
  * applied by re-resampling the wrist recording with its clock moved, replacing it in `sensors`;
  * offsets beyond CLOCK_OFFSET_REPORT_S are reported as `clock-offset`, weak ones as `clock-unverified`.
  */
+/**
+ * Wrist offsets up to this size are left uncorrected (s). The model behind the estimate assumes the
+ * wrist feels a heel strike when the leg does, but impacts reach the trunk 13–37 ms after the shank
+ * on recorded stroke walks (lower-back sensor, see signal/README.md "Clock alignment"), and the arm
+ * is further up the chain; a correction inside that delay could add the error it means to remove.
+ * 50 ms is that delay plus a margin (common practice); a 50 ms clock error moves arm–leg phase by
+ * ≈ 16° at a 1.1 s stride, so larger errors are still caught.
+ */
+export const WRIST_TRANSMISSION_MARGIN_S = 0.05;
+
 export function alignWristClocks(
   recordings: readonly SensorRecording[],
   grid: SessionGrid,
@@ -55,6 +65,17 @@ export function alignWristClocks(
     }
     const drift = wristClockDrift(imp.left, imp.right, env, imp.active, imp.rateHz, est.offsetS);
     const driftOn = drift?.corrected === true;
+    if (!driftOn && Math.abs(est.offsetS) <= WRIST_TRANSMISSION_MARGIN_S) {
+      // Within the delay a heel strike takes to reach the arm, an estimate cannot tell a clock error
+      // from the body's own transmission, so the recording is left as it is.
+      quality.push({
+        code: "clock-unverified",
+        severity: "info",
+        placement: p,
+        message: `${s.fileName}: wrist clock ${(est.offsetS * 1000).toFixed(0)} ms from the legs', within the delay with which heel-strike impacts travel up the body; left as recorded`,
+      });
+      return { placement: p, offsetS: est.offsetS, driftMsPerMin: null, corrected: false, estimate: est };
+    }
     // offset(t) = a + b·(t − centre) in session seconds; a constant when no drift was kept.
     const offsetS = driftOn ? drift.offsetS : est.offsetS;
     const slope = driftOn ? drift.driftSPerS : 0;
@@ -66,7 +87,6 @@ export function alignWristClocks(
     for (let i = 0; i < timeS.length; i++) timeS[i] = rec.timeS[i]! + offsetS + slope * (gridOffsetS + rec.timeS[i]! - centreS);
     sensors.set(p, resampleToGrid({ ...rec, timeS }, grid, index));
     const driftMsPerMin = driftOn ? drift.driftSPerS * 60_000 : null;
-    // Strong evidence is applied even below the report threshold, as for the legs.
     if (Math.abs(offsetS) > CLOCK_OFFSET_REPORT_S || (driftOn && Math.abs(slope) * grid.durationS > CLOCK_OFFSET_REPORT_S)) {
       const ms = (offsetS * 1000).toFixed(0);
       const driftText = driftMsPerMin === null ? "" : `, drifting ${driftMsPerMin.toFixed(2)} ms/min (corrected along the session)`;

@@ -71,6 +71,16 @@ describe("wrist clock alignment on the kinematic model", () => {
     expect(analysis.quality.some((q) => q.code === "clock-offset")).toBe(false);
   });
 
+  it("leaves a wrist 30 ms off as recorded (inside the body's transmission delay) and says so", () => {
+    const session = synthesizeKinematicSession({ seed: 54, bouts: [{ durationS: 80 }], clockOffsetS: { left_wrist: 0.03 } });
+    const { wrists } = alignAll(session.recordings);
+    const left = wrists.wrists.find((w) => w.placement === "left_wrist")!;
+    expect(left.corrected).toBe(false);
+    expect(Math.abs(left.offsetS! - 0.03)).toBeLessThan(0.01);
+    expect(wrists.quality.some((q) => q.code === "clock-unverified" && q.placement === "left_wrist" && /left as recorded/.test(q.message))).toBe(true);
+    expect(wrists.quality.some((q) => q.code === "clock-offset")).toBe(false);
+  });
+
   it("never corrects an arm held still on a walking aid wrongly (unverified, or within 20 ms of its true clock)", () => {
     for (const offset of [0, 0.1]) {
       const session = synthesizeKinematicSession({ seed: 54, bouts: [{ durationS: 80 }], arms: { heldStill: ["left"] }, clockOffsetS: { left_wrist: offset } });
