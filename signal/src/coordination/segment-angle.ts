@@ -26,27 +26,43 @@ export function segmentAngleDeg(omegaDegS: ArrayLike<number>, sampleRateHz: numb
   assertPositiveFinite(sampleRateHz, "sampleRateHz");
   assertPositiveFinite(highPassHz, "highPassHz");
   const n = omegaDegS.length;
-  const angle = new Float64Array(n);
-  if (n === 0) return angle;
+  if (n === 0) return new Float64Array(0);
+  const angle = integrateTrapezoid(omegaDegS, finiteMean(omegaDegS), 1 / sampleRateHz);
+  if (n < 4 || highPassHz >= sampleRateHz / 2) return angle;
+  subtractInPlace(angle, lowPassZeroPhase(angle, sampleRateHz, highPassHz, DRIFT_LOW_PASS_ORDER));
+  return angle;
+}
+
+// The sample loops are small functions of their own: called for every segment angle of the session,
+// they are compiled once, instead of segmentAngleDeg being compiled (filter inlined) mid-loop per call.
+
+/** Mean of the finite samples; 0 when there are none. */
+function finiteMean(x: ArrayLike<number>): number {
   let mean = 0;
   let count = 0;
-  for (let i = 0; i < n; i++) {
-    const w = omegaDegS[i]!;
+  for (let i = 0; i < x.length; i++) {
+    const w = x[i]!;
     if (Number.isFinite(w)) {
       mean += w;
       count++;
     }
   }
-  mean = count > 0 ? mean / count : 0;
-  const dt = 1 / sampleRateHz;
-  let prev = Number.isFinite(omegaDegS[0]!) ? omegaDegS[0]! - mean : 0;
+  return count > 0 ? mean / count : 0;
+}
+
+/** Trapezoid integral of (ω − mean), starting at 0; non-finite samples count as ω − mean = 0. */
+function integrateTrapezoid(omega: ArrayLike<number>, mean: number, dt: number): Float64Array {
+  const n = omega.length;
+  const angle = new Float64Array(n);
+  let prev = Number.isFinite(omega[0]!) ? omega[0]! - mean : 0;
   for (let i = 1; i < n; i++) {
-    const w = Number.isFinite(omegaDegS[i]!) ? omegaDegS[i]! - mean : 0;
+    const w = Number.isFinite(omega[i]!) ? omega[i]! - mean : 0;
     angle[i] = angle[i - 1]! + 0.5 * (prev + w) * dt;
     prev = w;
   }
-  if (n < 4 || highPassHz >= sampleRateHz / 2) return angle;
-  const slow = lowPassZeroPhase(angle, sampleRateHz, highPassHz, DRIFT_LOW_PASS_ORDER);
-  for (let i = 0; i < n; i++) angle[i] = angle[i]! - slow[i]!;
   return angle;
+}
+
+function subtractInPlace(x: Float64Array, y: Float64Array): void {
+  for (let i = 0; i < x.length; i++) x[i] = x[i]! - y[i]!;
 }

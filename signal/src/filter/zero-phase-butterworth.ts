@@ -138,33 +138,29 @@ export function lowPassZeroPhaseSegments(
   const sections = butterworthSections("lowpass", order, cutoffHz, sampleRateHz);
   const n = x.length;
   const out = new Float64Array(n);
-  // One work buffer sized for the longest run serves every run.
+  // One work buffer sized for the longest run serves every run. The runs are found by runEnd (a
+  // small function of its own, so this one holds no long sample loop to be compiled in the middle of).
   let longest = 0;
   for (let i = 0; i < n; ) {
-    if (!valid[i]) {
-      let j = i + 1;
-      while (j < n && !valid[j]) j++;
-      copyInto(out, i, x, i, j);
-      i = j;
-      continue;
-    }
-    let j = i;
-    while (j < n && valid[j]) j++;
-    longest = Math.max(longest, j - i);
+    const j = runEnd(valid, i);
+    if (!valid[i]) copyInto(out, i, x, i, j);
+    else longest = Math.max(longest, j - i);
     i = j;
   }
   if (longest === 0) return out;
   const scratch = new Float64Array(longest + 2 * padLength(sections, longest));
-  let i = 0;
-  while (i < n) {
-    if (!valid[i]) {
-      i++;
-      continue;
-    }
-    let j = i;
-    while (j < n && valid[j]) j++;
-    sosFiltFiltRange(sections, x, i, j, scratch, out);
+  for (let i = 0; i < n; ) {
+    const j = runEnd(valid, i);
+    if (valid[i]) sosFiltFiltRange(sections, x, i, j, scratch, out);
     i = j;
   }
   return out;
+}
+
+/** End (exclusive) of the run of equal mask values (valid vs not) that starts at i. */
+function runEnd(valid: Uint8Array, i: number): number {
+  const on = valid[i] ? 1 : 0;
+  let j = i + 1;
+  while (j < valid.length && (valid[j] ? 1 : 0) === on) j++;
+  return j;
 }

@@ -12,22 +12,12 @@ export function quantileOfMasked(values: ArrayLike<number>, mask: Uint8Array | n
 
 /** Several quantiles of the same masked values (one subsample, one sort); null when none. */
 export function quantilesOfMasked(values: ArrayLike<number>, mask: Uint8Array | null, qs: readonly number[]): number[] | null {
-  const n = values.length;
-  let count = 0;
-  for (let i = 0; i < n; i++) if (!mask || mask[i]) count++;
+  const count = countMasked(values.length, mask);
   if (count === 0) return null;
   const step = Math.max(1, Math.ceil(count / MAX_QUANTILE_SAMPLES));
-  const buf = new Float64Array(Math.ceil(count / step));
-  let seen = 0;
-  let m = 0;
-  for (let i = 0; i < n; i++) {
-    if (mask && !mask[i]) continue;
-    if (seen % step === 0 && m < buf.length) buf[m++] = values[i]!;
-    seen++;
-  }
-  const kept = buf.subarray(0, m);
-  let hasNaN = false;
-  for (let i = 0; i < m; i++) if (kept[i] !== kept[i]) hasNaN = true;
+  const kept = everyStepMasked(values, mask, step, Math.ceil(count / step));
+  const m = kept.length;
+  const hasNaN = containsNaN(kept);
   // Only two order statistics per quantile are read, so selecting them (O(m)) gives the same values
   // as sorting (O(m log m)); with NaN present the sort's ordering (NaN last) is kept instead.
   if (hasNaN) kept.sort();
@@ -39,6 +29,33 @@ export function quantilesOfMasked(values: ArrayLike<number>, mask: Uint8Array | 
     const b = hasNaN || hi === lo ? kept[hi]! : minFrom(kept, hi);
     return a + (b - a) * (pos - lo);
   });
+}
+
+// The sample loops are small functions of their own, compiled once for every caller.
+
+function countMasked(n: number, mask: Uint8Array | null): number {
+  if (!mask) return n;
+  let count = 0;
+  for (let i = 0; i < n; i++) if (mask[i]) count++;
+  return count;
+}
+
+/** Every step-th masked value (at most `capacity`), in order. */
+function everyStepMasked(values: ArrayLike<number>, mask: Uint8Array | null, step: number, capacity: number): Float64Array {
+  const buf = new Float64Array(capacity);
+  let seen = 0;
+  let m = 0;
+  for (let i = 0; i < values.length; i++) {
+    if (mask && !mask[i]) continue;
+    if (seen % step === 0 && m < buf.length) buf[m++] = values[i]!;
+    seen++;
+  }
+  return buf.subarray(0, m);
+}
+
+function containsNaN(x: Float64Array): boolean {
+  for (let i = 0; i < x.length; i++) if (x[i] !== x[i]) return true;
+  return false;
 }
 
 /**

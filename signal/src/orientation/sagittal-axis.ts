@@ -26,40 +26,8 @@ export function sagittalAxis(
   gyroZ: ArrayLike<number>,
   mask: Uint8Array,
 ): SagittalAxis | null {
-  const n = gyroX.length;
-  let count = 0;
-  let mx = 0;
-  let my = 0;
-  let mz = 0;
-  for (let i = 0; i < n; i++) {
-    if (!mask[i]) continue;
-    count++;
-    mx += gyroX[i]!;
-    my += gyroY[i]!;
-    mz += gyroZ[i]!;
-  }
+  const [count, sxx, syy, szz, sxy, sxz, syz] = maskedMoments3(gyroX, gyroY, gyroZ, mask);
   if (count < MIN_AXIS_SAMPLES) return null;
-  mx /= count;
-  my /= count;
-  mz /= count;
-  let sxx = 0;
-  let syy = 0;
-  let szz = 0;
-  let sxy = 0;
-  let sxz = 0;
-  let syz = 0;
-  for (let i = 0; i < n; i++) {
-    if (!mask[i]) continue;
-    const x = gyroX[i]! - mx;
-    const y = gyroY[i]! - my;
-    const z = gyroZ[i]! - mz;
-    sxx += x * x;
-    syy += y * y;
-    szz += z * z;
-    sxy += x * y;
-    sxz += x * z;
-    syz += y * z;
-  }
   const cov = new Matrix([
     [sxx, sxy, sxz],
     [sxy, syy, syz],
@@ -106,4 +74,52 @@ export function projectOnAxis(
   const az = axis[2] * sign;
   for (let i = 0; i < n; i++) out[i] = gyroX[i]! * ax + gyroY[i]! * ay + gyroZ[i]! * az;
   return out;
+}
+
+/**
+ * [count, sums of products about the means xx yy zz xy xz yz] over the masked samples. Its own
+ * small function so the sample loops are compiled once for every caller rather than inside
+ * sagittalAxis with the eigen-solver inlined.
+ */
+function maskedMoments3(
+  gyroX: ArrayLike<number>,
+  gyroY: ArrayLike<number>,
+  gyroZ: ArrayLike<number>,
+  mask: Uint8Array,
+): [number, number, number, number, number, number, number] {
+  const n = gyroX.length;
+  let count = 0;
+  let mx = 0;
+  let my = 0;
+  let mz = 0;
+  for (let i = 0; i < n; i++) {
+    if (!mask[i]) continue;
+    count++;
+    mx += gyroX[i]!;
+    my += gyroY[i]!;
+    mz += gyroZ[i]!;
+  }
+  if (count < MIN_AXIS_SAMPLES) return [count, 0, 0, 0, 0, 0, 0];
+  mx /= count;
+  my /= count;
+  mz /= count;
+  let sxx = 0;
+  let syy = 0;
+  let szz = 0;
+  let sxy = 0;
+  let sxz = 0;
+  let syz = 0;
+  for (let i = 0; i < n; i++) {
+    if (!mask[i]) continue;
+    const x = gyroX[i]! - mx;
+    const y = gyroY[i]! - my;
+    const z = gyroZ[i]! - mz;
+    sxx += x * x;
+    syy += y * y;
+    szz += z * z;
+    sxy += x * y;
+    sxz += x * z;
+    syz += y * z;
+  }
+  return [count, sxx, syy, szz, sxy, sxz, syz];
 }
