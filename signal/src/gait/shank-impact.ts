@@ -40,14 +40,25 @@ export function shankImpactMagnitude(acc: ShankAcceleration, mask: Uint8Array, s
   const n = mask.length;
   const out = new Float64Array(n);
   for (const axis of [acc.accX, acc.accY, acc.accZ]) {
-    const low = lowPassZeroPhaseSegments(axis, mask, sampleRateHz, IMPACT_HIGH_PASS_HZ, 4);
-    for (let i = 0; i < n; i++) {
-      const h = mask[i] ? axis[i]! - low[i]! : 0;
-      out[i]! += h * h;
-    }
+    addSquaredResidual(out, axis, lowPassZeroPhaseSegments(axis, mask, sampleRateHz, IMPACT_HIGH_PASS_HZ, 4), mask);
   }
-  for (let i = 0; i < n; i++) out[i] = Math.sqrt(out[i]!);
+  sqrtInPlace(out);
   return out;
+}
+
+// Sample loops in small functions of their own: compiled once, not inside shankImpactMagnitude with
+// the segment filter inlined while its first long loop runs.
+
+/** out[i] += (x[i] − low[i])² where masked (x − low is the high-passed axis). */
+function addSquaredResidual(out: Float64Array, x: ArrayLike<number>, low: Float64Array, mask: Uint8Array): void {
+  for (let i = 0; i < out.length; i++) {
+    const h = mask[i] ? x[i]! - low[i]! : 0;
+    out[i]! += h * h;
+  }
+}
+
+function sqrtInPlace(x: Float64Array): void {
+  for (let i = 0; i < x.length; i++) x[i] = Math.sqrt(x[i]!);
 }
 
 /**

@@ -50,10 +50,37 @@ export function impactEnvelope(
   const mx = new Float64Array(m);
   const my = new Float64Array(m);
   const mz = new Float64Array(m);
+  binMeansHoldingLast(accX, accY, accZ, valid, factor, binOk, mx, my, mz);
+  const sections = butterworthSections("highpass", 4, IMPACT_HIGH_PASS_HZ, rateHz);
+  const hx = sosFiltFilt(sections, mx);
+  const hy = sosFiltFilt(sections, my);
+  const hz = sosFiltFilt(sections, mz);
+  guardedMagnitude(binOk, Math.round(EDGE_GUARD_S * rateHz), hx, hy, hz, binValid, envelope);
+  return { envelope, valid: binValid, rateHz, factor };
+}
+
+// The bin loops are small functions of their own, so the engine compiles them rather than the whole
+// of impactEnvelope (filters inlined) in the middle of its first long loop.
+
+/**
+ * Per bin of `factor` samples: binOk = all samples valid, and the mean of each axis. Invalid bins
+ * hold the last valid value, so the filter sees no step there (they are dropped anyway).
+ */
+function binMeansHoldingLast(
+  accX: ArrayLike<number>,
+  accY: ArrayLike<number>,
+  accZ: ArrayLike<number>,
+  valid: Uint8Array,
+  factor: number,
+  binOk: Uint8Array,
+  mx: Float64Array,
+  my: Float64Array,
+  mz: Float64Array,
+): void {
   let lastX = 0;
   let lastY = 0;
   let lastZ = 0;
-  for (let k = 0; k < m; k++) {
+  for (let k = 0; k < binOk.length; k++) {
     let sx = 0;
     let sy = 0;
     let sz = 0;
@@ -65,7 +92,6 @@ export function impactEnvelope(
       sz += accZ[i]!;
     }
     binOk[k] = ok;
-    // Invalid bins hold the last valid value, so the filter sees no step there (they are dropped anyway).
     if (ok) {
       lastX = sx / factor;
       lastY = sy / factor;
@@ -75,13 +101,15 @@ export function impactEnvelope(
     my[k] = lastY;
     mz[k] = lastZ;
   }
-  const sections = butterworthSections("highpass", 4, IMPACT_HIGH_PASS_HZ, rateHz);
-  const hx = sosFiltFilt(sections, mx);
-  const hy = sosFiltFilt(sections, my);
-  const hz = sosFiltFilt(sections, mz);
-  // Bins at least EDGE_GUARD_S from any invalid one (forward and backward distance).
-  const guard = Math.round(EDGE_GUARD_S * rateHz);
-  let run = 0; // valid bins since the last invalid one (the array's start counts as an edge)
+}
+
+/**
+ * Bins more than `guard` bins from any invalid one (forward and backward distance; the array's ends
+ * count as edges) are valid and get |(hx, hy, hz)|; the rest stay 0.
+ */
+function guardedMagnitude(binOk: Uint8Array, guard: number, hx: Float64Array, hy: Float64Array, hz: Float64Array, binValid: Uint8Array, envelope: Float32Array): void {
+  const m = binOk.length;
+  let run = 0; // valid bins since the last invalid one
   for (let k = 0; k < m; k++) {
     run = binOk[k] ? run + 1 : 0;
     binValid[k] = run > guard ? 1 : 0;
@@ -92,5 +120,4 @@ export function impactEnvelope(
     if (run <= guard) binValid[k] = 0;
     if (binValid[k]) envelope[k] = Math.sqrt(hx[k]! * hx[k]! + hy[k]! * hy[k]! + hz[k]! * hz[k]!);
   }
-  return { envelope, valid: binValid, rateHz, factor };
 }
