@@ -71,7 +71,7 @@ function selectOrderStatistic(x: Float64Array, k: number): number {
     // Median of three as the pivot: sorted or reversed input stays O(m).
     let a = x[lo]!;
     let b = x[mid]!;
-    let c = x[hi]!;
+    const c = x[hi]!;
     if (a > b) [a, b] = [b, a];
     if (b > c) b = c < a ? a : c;
     const pivot = b;
