@@ -1,5 +1,6 @@
 import type { QueryClient } from "@tanstack/react-query";
 import { redirect, type RouteObject } from "react-router-dom";
+import { afterGuard } from "./guards";
 import type { NavItem } from "./nav";
 
 /*
@@ -19,10 +20,9 @@ export function adminRoutes(queryClient: QueryClient): RouteObject[] {
         ]);
         return {
           Component: page.DeviceInventoryPage,
-          loader: () => {
+          loader: afterGuard(queryClient, "admin", async () => {
             void queryClient.prefetchQuery(api.devicesQueryOptions());
-            return null;
-          },
+          }),
         };
       },
     },
@@ -36,11 +36,10 @@ export function adminRoutes(queryClient: QueryClient): RouteObject[] {
         ]);
         return {
           Component: page.DevicePage,
-          loader: ({ params }: { params: { deviceId?: string } }) => {
+          loader: afterGuard(queryClient, "admin", async ({ params }: { params: { deviceId?: string } }) => {
             void queryClient.prefetchQuery(api.devicesQueryOptions());
             if (params.deviceId) void queryClient.prefetchQuery(history.deviceAssignmentsQueryOptions(params.deviceId));
-            return null;
-          },
+          }),
         };
       },
     },

@@ -1,6 +1,7 @@
 import type { QueryClient } from "@tanstack/react-query";
 import type { LoaderFunctionArgs, RouteObject } from "react-router-dom";
 import { useParams } from "react-router-dom";
+import { afterGuard } from "./guards";
 
 /**
  * The clinician's area under /clinician. Each screen is its own chunk (charts load with their
@@ -13,10 +14,9 @@ export function clinicianRoutes(queryClient: QueryClient): RouteObject[] {
       lazy: async () => {
         const { CaseloadPage, caseloadQueryOptions } = await import("@/features/caseload");
         return {
-          loader: async () => {
+          loader: afterGuard(queryClient, "clinician", async () => {
             await queryClient.ensureQueryData(caseloadQueryOptions());
-            return null;
-          },
+          }),
           Component: CaseloadPage,
         };
       },
@@ -26,7 +26,7 @@ export function clinicianRoutes(queryClient: QueryClient): RouteObject[] {
       lazy: async () => {
         const [trends, notes] = await Promise.all([import("@/features/patient-trends"), import("@/features/notes")]);
         return {
-          loader: async ({ params }: LoaderFunctionArgs) => {
+          loader: afterGuard(queryClient, "clinician", async ({ params }: LoaderFunctionArgs) => {
             const id = params.patientId!;
             await Promise.all([
               queryClient.ensureQueryData(trends.patientDetailQueryOptions(id)),
@@ -35,8 +35,7 @@ export function clinicianRoutes(queryClient: QueryClient): RouteObject[] {
               queryClient.ensureQueryData(notes.notesQueryOptions(id)),
               queryClient.ensureQueryData(notes.trainingQueryOptions(id)),
             ]);
-            return null;
-          },
+          }),
           Component: function PatientRoute() {
             const id = useParams().patientId!;
             const { data: n } = notes.useNotes(id);
@@ -51,10 +50,9 @@ export function clinicianRoutes(queryClient: QueryClient): RouteObject[] {
       lazy: async () => {
         const [review, notes, trends] = await Promise.all([import("@/features/session-review"), import("@/features/notes"), import("@/features/patient-trends")]);
         return {
-          loader: async ({ params }: LoaderFunctionArgs) => {
+          loader: afterGuard(queryClient, "clinician", async ({ params }: LoaderFunctionArgs) => {
             await queryClient.ensureQueryData(review.sessionQueryOptions(params.sessionId!));
-            return null;
-          },
+          }),
           Component: function SessionRoute() {
             const id = useParams().sessionId!;
             return (

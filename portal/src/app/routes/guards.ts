@@ -38,3 +38,17 @@ export const homeRedirect = (queryClient: QueryClient) => async (): Promise<neve
   const me = await currentUser(queryClient).catch(() => null);
   throw redirect(me ? ROLE_HOME[me.role] : "/sign-in");
 };
+
+/**
+ * React Router runs a route's loaders in parallel with its parents', so a screen's prefetch would
+ * start before the parent guard has redirected a signed-out visitor, and its 401 would land in the
+ * browser console. Screen loaders wrapped in this wait for the same (deduplicated) session check and
+ * fetch nothing unless the guard is going to let the person in.
+ */
+export const afterGuard =
+  <A extends unknown[]>(queryClient: QueryClient, role: Role, load: (...args: A) => Promise<unknown>) =>
+  async (...args: A): Promise<null> => {
+    const me = await currentUser(queryClient).catch(() => null);
+    if (me?.role === role) await load(...args);
+    return null;
+  };

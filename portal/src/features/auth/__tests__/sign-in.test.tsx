@@ -108,6 +108,16 @@ describe("session check on page load", () => {
     const { router } = renderApp("/clinician");
     await waitFor(() => expect(router.state.location.pathname).toBe("/sign-in"));
     expect(server.calls.some((c) => c.path === "/api/auth/refresh")).toBe(false);
+    // The caseload screen's own loader waits for the guard, so it asks for nothing either.
+    expect(server.calls.some((c) => c.path === "/api/patients")).toBe(false);
+  });
+
+  it("a signed-out visitor at an admin screen triggers no data request", async () => {
+    window.localStorage.clear();
+    const server = signedOutServer("admin");
+    const { router } = renderApp("/admin/devices");
+    await waitFor(() => expect(router.state.location.pathname).toBe("/sign-in"));
+    expect(server.calls.filter((c) => c.path !== "/api/auth/refresh").map((c) => c.path)).toEqual([]);
   });
 
   it("a browser that signed in before restores the session from the refresh cookie after a reload", async () => {
