@@ -89,6 +89,13 @@ function Chart({ width, height, ariaLabel, series, bands = [], markers = [], xDo
   const tHi = xDomain ? xDomain[1].getTime() : rawHi + pad;
   const x = scaleTime({ domain: [new Date(tLo), new Date(tHi === tLo ? tLo + 86_400_000 : tHi)], range: [0, innerW] });
   const y = scaleLinear({ domain: extent(all.map((p) => p.v).concat(bands.flatMap((b) => [b.low, b.high]))), range: [innerH, 0], nice: true });
+  // The metric's own display precision can be too coarse for a narrow range (0.7–0.8 m read as
+  // "0.7, 0.7, 0.8, 0.8"); then the axis uses as many decimals as its tick step needs.
+  const yTicks = y.ticks(4);
+  const yTickStep = yTicks.length > 1 ? Math.abs(yTicks[1]! - yTicks[0]!) : 0;
+  const yTickDecimals = yTickStep > 0 ? Math.max(0, Math.ceil(-Math.log10(yTickStep) - 1e-9)) : 0;
+  const metricLabels = formatY ? yTicks.map((v) => formatY(v)) : null;
+  const formatTick = (v: number) => (metricLabels && new Set(metricLabels).size === yTicks.length ? formatY!(v) : v.toFixed(yTickDecimals));
 
   return (
     <svg width={width} height={height} role="img" aria-label={ariaLabel}>
@@ -145,7 +152,7 @@ function Chart({ width, height, ariaLabel, series, bands = [], markers = [], xDo
           numTicks={4}
           stroke="var(--color-line)"
           tickStroke="var(--color-line)"
-          tickFormat={(v) => (formatY ? formatY(Number(v)) : String(v))}
+          tickFormat={(v) => formatTick(Number(v))}
           tickLabelProps={{ fill: "var(--color-ink-soft)", fontSize: 11, textAnchor: "end", dx: -4, dy: 3 }}
           label={yLabel}
           labelProps={{ fill: "var(--color-ink-soft)", fontSize: 11, textAnchor: "middle" }}
