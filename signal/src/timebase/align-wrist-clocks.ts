@@ -67,8 +67,9 @@ export function alignWristClocks(
     const driftOn = drift?.corrected === true;
     if (!driftOn && Math.abs(est.offsetS) <= WRIST_TRANSMISSION_MARGIN_S) {
       // Within the delay a heel strike takes to reach the arm, an estimate cannot tell a clock error
-      // from the body's own transmission, so the recording is left as it is.
-      quality.push({
+      // from the body's own transmission, so the recording is left as it is (and said so once the
+      // estimate is large enough to matter).
+      if (Math.abs(est.offsetS) > CLOCK_OFFSET_REPORT_S) quality.push({
         code: "clock-unverified",
         severity: "info",
         placement: p,
