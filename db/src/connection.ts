@@ -1,4 +1,5 @@
 import knex, { type Knex } from "knex";
+import pg from "pg";
 import { migrationSource } from "./migration-source";
 
 /**
@@ -11,11 +12,22 @@ export function databaseUrl(env: NodeJS.ProcessEnv = process.env): string {
   return url;
 }
 
+/**
+ * A DATE is a calendar day, not an instant. node-postgres' default turns it into local midnight,
+ * so every reader had to undo that and the ways of undoing it disagreed by a day east of UTC.
+ * Each pooled connection therefore hands DATE columns over as the stored 'YYYY-MM-DD' text, in
+ * every time zone; readers use that string as it is.
+ */
+function readDatesAsText(connection: pg.Client, done: (err: Error | null, connection: pg.Client) => void): void {
+  connection.setTypeParser(pg.types.builtins.DATE, "text", (value: string) => value);
+  done(null, connection);
+}
+
 export function knexConfig(url = databaseUrl()): Knex.Config {
   return {
     client: "pg",
     connection: url,
-    pool: { min: 0, max: Number(process.env.DB_POOL_MAX ?? 10) },
+    pool: { min: 0, max: Number(process.env.DB_POOL_MAX ?? 10), afterCreate: readDatesAsText },
     migrations: { migrationSource, tableName: "knex_migrations" },
   };
 }

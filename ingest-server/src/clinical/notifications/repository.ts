@@ -78,10 +78,7 @@ export async function patientTrendData(
   patientId: string,
   until?: string | { sessionId: string },
 ): Promise<PatientTrendData | null> {
-  // enrolled_on as text: node-pg turns a DATE into local midnight, which shifts a day east of UTC.
-  const p = await db("patients")
-    .where({ id: patientId })
-    .first("birth_year", "condition", db.raw("enrolled_on::text as enrolled_on"), "expected_uploads_per_week");
+  const p = await db("patients").where({ id: patientId }).first("birth_year", "condition", "enrolled_on", "expected_uploads_per_week");
   if (!p) return null;
   const q = db("session_metrics as m")
     .join("walk_sessions as s", "s.id", "m.session_id")
@@ -102,7 +99,8 @@ export async function patientTrendData(
     patient: {
       birthYear: Number(p.birth_year),
       condition: p.condition as string,
-      enrolledOn: String(p.enrolled_on),
+      // 'YYYY-MM-DD' as stored: the pool reads DATE columns as text (db/src/connection.ts).
+      enrolledOn: p.enrolled_on as string,
       expectedPerWeek: Number(p.expected_uploads_per_week),
     },
     metrics: [...byKey.values()],
@@ -122,13 +120,11 @@ export async function sessionsInWeek(db: Knex, patientId: string, week: WeekRang
 
 /** Adherence of one patient from its stored sessions (failed uploads do not count). */
 export async function patientAdherence(db: Knex, patientId: string, now: Date = new Date()): Promise<Adherence | null> {
-  const p = await db("patients")
-    .where({ id: patientId })
-    .first(db.raw("enrolled_on::text as enrolled_on"), "expected_uploads_per_week");
+  const p = await db("patients").where({ id: patientId }).first("enrolled_on", "expected_uploads_per_week");
   if (!p) return null;
   const rows = await db("walk_sessions").where({ patient_id: patientId }).whereIn("status", COUNTED).select("recorded_at");
   return computeAdherence({
-    enrolledOn: String(p.enrolled_on),
+    enrolledOn: p.enrolled_on as string,
     expectedPerWeek: Number(p.expected_uploads_per_week),
     sessionDates: rows.map((r) => new Date(r.recorded_at).toISOString()),
     now,

@@ -10,7 +10,8 @@ export interface PatientRow {
   sex: "female" | "male" | "other" | "unknown";
   condition: "incomplete_sci" | "stroke" | "parkinsons" | "other";
   condition_detail: string | null;
-  enrolled_on: Date | string;
+  /** 'YYYY-MM-DD': DATE columns arrive as the stored day (db/src/connection.ts). */
+  enrolled_on: string;
   research_consent: boolean;
   expected_uploads_per_week: number;
   height_cm: number | null;

@@ -42,7 +42,6 @@ const CASELOAD_FLAG_KEYS = [
 ];
 const ADHERENCE_WINDOW_WEEKS = 4;
 
-const isoDate = (d: Date | string) => (d instanceof Date ? d.toISOString().slice(0, 10) : String(d).slice(0, 10));
 const isoOrNull = (d: Date | null | undefined) => (d ? new Date(d).toISOString() : null);
 
 function identity(p: PatientRow) {
@@ -50,7 +49,7 @@ function identity(p: PatientRow) {
     id: p.id,
     displayName: p.display_name,
     researchId: p.research_id,
-    enrolledOn: isoDate(p.enrolled_on),
+    enrolledOn: p.enrolled_on,
     researchConsent: p.research_consent,
   };
 }
@@ -61,7 +60,7 @@ function identity(p: PatientRow) {
  */
 export function recentAdherencePct(p: PatientRow, dates: string[], now: Date): number | null {
   if (p.expected_uploads_per_week === 0) return null;
-  const a = computeAdherence({ enrolledOn: isoDate(p.enrolled_on), expectedPerWeek: p.expected_uploads_per_week, sessionDates: dates, now });
+  const a = computeAdherence({ enrolledOn: p.enrolled_on, expectedPerWeek: p.expected_uploads_per_week, sessionDates: dates, now });
   const ended = a.weeks.slice(1, -1).slice(-ADHERENCE_WINDOW_WEEKS);
   if (ended.length === 0) return null;
   return Math.round((100 * ended.filter((w) => w.met).length) / ended.length);
@@ -97,7 +96,7 @@ function groupTrendRows(rows: Awaited<ReturnType<typeof trendRows>>): TrendInput
 function latestSessionFlags(p: PatientRow, rows: Awaited<ReturnType<typeof trendRows>>): CaseloadFlags {
   const metrics = groupTrendRows(rows);
   if (metrics.length === 0) return [];
-  const annotated = annotateTrends({ metrics, patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: isoDate(p.enrolled_on) } });
+  const annotated = annotateTrends({ metrics, patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: p.enrolled_on } });
   const latestSessionId = metrics
     .flatMap((m) => m.points)
     .reduce((a, b) => (a && a.recordedAt >= b.recordedAt ? a : b)).sessionId;
@@ -139,7 +138,7 @@ export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthCon
     latestMetrics(deps.db, ids, SUMMARY_KEYS),
     trendFingerprints(deps.db, ids),
   ]);
-  const fingerprintOf = (p: PatientRow) => `${fingerprints.get(p.id)}|${p.birth_year}|${p.condition}|${isoDate(p.enrolled_on)}`;
+  const fingerprintOf = (p: PatientRow) => `${fingerprints.get(p.id)}|${p.birth_year}|${p.condition}|${p.enrolled_on}`;
   const flags = new Map<string, CaseloadFlags>();
   for (const p of rows) {
     const hit = flagCache.get(p.id, fingerprintOf(p));
@@ -234,7 +233,7 @@ function trendsPayload(id: string, p: Pick<PatientRow, "birth_year" | "condition
   const grouped = groupTrendRows(rows);
   const annotated = annotateTrends({
     metrics: grouped,
-    patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: isoDate(p.enrolled_on) },
+    patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: p.enrolled_on },
     options: { ...(query.from ? { visibleFrom: query.from } : {}), ...(query.to ? { visibleTo: query.to } : {}) },
   });
   // The annotations rebuild each point; the count behind it and the session's walking aid are put back.
@@ -275,7 +274,7 @@ export async function getTrendsJson(
     : undefined;
   if (!context) throw new HttpError(404, "not_found", "patient not found");
   const p = context.patient;
-  const fingerprint = `${context.fingerprint}|${p.birth_year}|${p.condition}|${isoDate(p.enrolled_on)}`;
+  const fingerprint = `${context.fingerprint}|${p.birth_year}|${p.condition}|${p.enrolled_on}`;
   const key = `${id}|${keys?.join(",") ?? "*"}|${query.from ?? ""}|${query.to ?? ""}`;
   return cache.get(key, fingerprint) ?? (await cache.set(key, fingerprint, serialize(trendsPayload(id, p, await trendRows(deps.db, id, keys), query))));
 }

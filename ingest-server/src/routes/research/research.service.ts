@@ -31,7 +31,8 @@ interface SourceRow {
   session_id: string;
   condition: (typeof CONDITIONS)[number];
   birth_year: number;
-  enrolled_on: Date | string;
+  /** 'YYYY-MM-DD' (DATE columns arrive as the stored day). */
+  enrolled_on: string;
   recorded_at: Date;
   algorithm_version: string | null;
 }
@@ -50,7 +51,8 @@ function validate(def: CohortDefinition): string[] {
   return def.metrics.length ? def.metrics : [...METRIC_KEYS];
 }
 
-const enrolledDate = (d: Date | string) => (d instanceof Date ? new Date(Date.UTC(d.getFullYear(), d.getMonth(), d.getDate())) : new Date(`${String(d).slice(0, 10)}T00:00:00Z`));
+/** The enrolment day as UTC midnight: the week arithmetic in safe-harbor.ts works in UTC. */
+const enrolledDate = (day: string) => new Date(`${day}T00:00:00Z`);
 
 /** Consenting patients' processed sessions inside the definition, de-identified, before suppression. */
 async function cohortRows(deps: AppDeps, def: CohortDefinition, keys: string[]): Promise<ResearchSessionRow[]> {

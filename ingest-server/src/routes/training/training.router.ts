@@ -11,20 +11,19 @@ interface TrainingRow {
   id: string;
   patient_id: string;
   author_id: string;
-  performed_on: Date | string;
+  /** 'YYYY-MM-DD': DATE columns arrive as the stored day (db/src/connection.ts). */
+  performed_on: string;
   kind: "overground" | "treadmill" | "body_weight_support" | "balance" | "strength" | "other";
   minutes: number;
   description: string | null;
   created_at: Date;
 }
 
-const dateOnly = (d: Date | string) => (d instanceof Date ? `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, "0")}-${String(d.getDate()).padStart(2, "0")}` : String(d).slice(0, 10));
-
 const toEntry = (t: TrainingRow) => ({
   id: t.id,
   patientId: t.patient_id,
   authorId: t.author_id,
-  performedOn: dateOnly(t.performed_on),
+  performedOn: t.performed_on,
   kind: t.kind,
   minutes: t.minutes,
   description: t.description,
