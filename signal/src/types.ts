@@ -122,6 +122,20 @@ export interface ArmSwing {
   asymmetryPct: number | null;
 }
 
+/**
+ * One sensor's six channels on the session grid (acceleration in m/s² with gravity, angular velocity
+ * in deg/s, sensor frame) and its validity mask: what every step after resampling reads.
+ */
+export interface ImuSignals {
+  accX: ArrayLike<number>;
+  accY: ArrayLike<number>;
+  accZ: ArrayLike<number>;
+  gyroX: ArrayLike<number>;
+  gyroY: ArrayLike<number>;
+  gyroZ: ArrayLike<number>;
+  valid: Uint8Array;
+}
+
 export interface PerSide<T> {
   left: T;
   right: T;

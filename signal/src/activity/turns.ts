@@ -1,5 +1,5 @@
 import { lowPassZeroPhaseSegments } from "../filter/zero-phase-butterworth";
-import type { Bout } from "../types";
+import type { Bout, ImuSignals } from "../types";
 import { hypot3 } from "./hypot3";
 
 /** Gravity direction: accelerometer low-passed at this cut-off (Hz, 2nd order, zero phase). */
@@ -39,15 +39,7 @@ export interface YawTrace {
  * all its samples are), low-passed at YAW_LOW_PASS_HZ. Invalid samples are 0.
  */
 export function yawRateAboutGravity(
-  s: {
-    accX: ArrayLike<number>;
-    accY: ArrayLike<number>;
-    accZ: ArrayLike<number>;
-    gyroX: ArrayLike<number>;
-    gyroY: ArrayLike<number>;
-    gyroZ: ArrayLike<number>;
-    valid: Uint8Array;
-  },
+  s: ImuSignals,
   sampleRateHz: number,
 ): YawTrace {
   const factor = Math.max(1, Math.floor(sampleRateHz / YAW_TARGET_RATE_HZ));

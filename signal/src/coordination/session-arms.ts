@@ -1,6 +1,6 @@
 import { projectOnAxis } from "../orientation/sagittal-axis";
 import { wristOrientation } from "../orientation/wrist-sign";
-import type { ArmLegCoupling, ArmSwing, Bout, Placement, QualityItem, Side, Stride } from "../types";
+import type { ArmLegCoupling, ArmSwing, Bout, ImuSignals, Placement, QualityItem, Side, Stride } from "../types";
 import { armLegCouplingDetail } from "./arm-leg-coupling";
 import { armSwingAmplitude, armSwingAsymmetryPct, NO_ARM_SWING_DEG } from "./arm-swing";
 
@@ -11,15 +11,7 @@ export const WALKING_AIDS: readonly WalkingAid[] = ["none", "cane", "crutches", 
 /** Samples within this time of a turn are not used for the wrist's axis and sign (s, common practice). */
 export const TURN_MARGIN_S = 0.5;
 
-export interface WristSignals {
-  accX: ArrayLike<number>;
-  accY: ArrayLike<number>;
-  accZ: ArrayLike<number>;
-  gyroX: ArrayLike<number>;
-  gyroY: ArrayLike<number>;
-  gyroZ: ArrayLike<number>;
-  valid: Uint8Array;
-}
+export type WristSignals = ImuSignals;
 
 export interface SessionArmsInput {
   wrists: Partial<Record<Side, WristSignals>>;

@@ -1,19 +1,11 @@
-import type { PerSide, Side, Stride } from "../types";
+import type { ImuSignals, PerSide, Side, Stride } from "../types";
 import { signedSagittalAxis } from "./signed-sagittal-axis";
 import { sagittalPlaneSignals } from "./sagittal-plane";
 import { type ShankSensorDistance, shankSensorDistance } from "./shank-sensor-distance";
 import { type StrideLengthOptions, type StrideLengthRejection, strideLengthsForSide } from "./stride-lengths";
 
 /** A sensor's channels on the session grid (m/s² with gravity, deg/s) and its validity mask. */
-export interface GridSensor {
-  accX: ArrayLike<number>;
-  accY: ArrayLike<number>;
-  accZ: ArrayLike<number>;
-  gyroX: ArrayLike<number>;
-  gyroY: ArrayLike<number>;
-  gyroZ: ArrayLike<number>;
-  valid: Uint8Array;
-}
+export type GridSensor = ImuSignals;
 
 export interface LegSensors {
   shank?: GridSensor;

@@ -1,19 +1,12 @@
-import type { Stride } from "../types";
+import type { ImuSignals, Stride } from "../types";
 import { AT_REST, integrateSagittalStride, type ResetState } from "./integrate-sagittal-stride";
 import { leastRotationWindowCentre, MID_STANCE_WINDOW_S } from "./least-rotation-window";
 import { sagittalPlaneSignals } from "./sagittal-plane";
 import { shankPendulumReset } from "./shank-pendulum";
 
 /** One shank or foot sensor on the session grid, with its signed sagittal axis. */
-export interface SegmentSignals {
+export interface SegmentSignals extends ImuSignals {
   segment: "shank" | "foot";
-  accX: ArrayLike<number>;
-  accY: ArrayLike<number>;
-  accZ: ArrayLike<number>;
-  gyroX: ArrayLike<number>;
-  gyroY: ArrayLike<number>;
-  gyroZ: ArrayLike<number>;
-  valid: Uint8Array;
   /** Positive rotation about it moves the segment's lower end forward (see signedSagittalAxis). */
   axis: readonly [number, number, number];
 }
