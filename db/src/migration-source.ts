@@ -4,6 +4,7 @@ import * as sessionTraces from "../migrations/20261201110000_session_traces";
 import * as revokedAccessTokens from "../migrations/20261201130000_revoked_access_tokens";
 import * as trendCoveringIndex from "../migrations/20261202090000_trend_covering_index";
 import * as heightWalkingAidCounts from "../migrations/20261202120000_height_walking_aid_counts";
+import * as refreshReuseGrace from "../migrations/20261202160000_refresh_reuse_grace";
 
 /**
  * Migrations are listed here with static imports rather than discovered on disk, so the same
@@ -16,6 +17,7 @@ export const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261201130000_revoked_access_tokens": revokedAccessTokens,
   "20261202090000_trend_covering_index": trendCoveringIndex,
   "20261202120000_height_walking_aid_counts": heightWalkingAidCounts,
+  "20261202160000_refresh_reuse_grace": refreshReuseGrace,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -41,6 +41,38 @@ export const authRepository = {
     return n === 1;
   },
 
+  /**
+   * Rotation in one transaction: the live token `id` is revoked, may be presented once more until
+   * `graceUntil`, and points at its successor. False when it was no longer live (another request
+   * rotated or revoked it first); nothing is written then.
+   */
+  rotateRefreshToken(db: Knex, id: string, successor: { userId: string; sha256: string; expiresAt: Date }, graceUntil: Date): Promise<boolean> {
+    return db.transaction(async (trx) => {
+      const n = await trx("refresh_tokens").where({ id }).whereNull("revoked_at").update({ revoked_at: trx.fn.now(), grace_until: graceUntil });
+      if (n !== 1) return false;
+      const [next] = await trx("refresh_tokens")
+        .insert({ user_id: successor.userId, token_sha256: successor.sha256, expires_at: successor.expiresAt })
+        .returning("id");
+      await trx("refresh_tokens").where({ id }).update({ replaced_by: next.id });
+      return true;
+    });
+  },
+
+  /**
+   * Uses up the reuse grace of a rotated token: true once, while `now` is before grace_until and the
+   * successor is still live. A successor ended by sign-out, password reset, an account change or
+   * theft detection closes the grace, so the replaced token cannot bring a session back.
+   */
+  async claimReuseGrace(db: Db, id: string, now: Date): Promise<boolean> {
+    const result = await db.raw(
+      `UPDATE refresh_tokens t SET grace_until = NULL
+        WHERE t.id = ? AND t.grace_until > ?
+          AND EXISTS (SELECT 1 FROM refresh_tokens s WHERE s.id = t.replaced_by AND s.revoked_at IS NULL)`,
+      [id, now],
+    );
+    return result.rowCount === 1;
+  },
+
   revokeAllRefreshTokens(db: Db, userId: string): Promise<number> {
     return db("refresh_tokens").where({ user_id: userId }).whereNull("revoked_at").update({ revoked_at: db.fn.now() });
   },

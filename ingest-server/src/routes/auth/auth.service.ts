@@ -16,19 +16,27 @@ export interface IssuedSession {
 }
 
 const DAY_MS = 86_400_000;
+/**
+ * How long a just-rotated refresh token may be presented once more (see refresh). A window of a few
+ * seconds to half a minute is common practice for rotating refresh tokens: long enough for tabs
+ * loading together on a slow connection, short enough that a copied token is soon useless.
+ */
+export const REFRESH_REUSE_GRACE_S = 20;
 const badCredentials = () => new HttpError(401, "invalid_credentials", "e-mail or password is wrong");
 const badRefresh = () => new HttpError(401, "invalid_refresh", "session expired; sign in again");
 
 export function createAuthService({ db, config, mailer }: AppDeps) {
-  async function issue(user: UserRow): Promise<IssuedSession> {
+  function newRefresh() {
+    return { ...newOpaqueToken(), expiresAt: new Date(Date.now() + config.refreshTtlDays * DAY_MS) };
+  }
+
+  /** The answer for a session whose refresh token is already stored. */
+  async function answer(user: UserRow, refresh: ReturnType<typeof newRefresh>): Promise<IssuedSession> {
     const accessToken = await signAccessToken(
       { userId: user.id, role: user.role, scopes: scopesFor(user.role), patientId: user.patient_id },
       config.jwtSecret,
       config.accessTokenTtlS,
     );
-    const refresh = newOpaqueToken();
-    const refreshExpiresAt = new Date(Date.now() + config.refreshTtlDays * DAY_MS);
-    await repo.insertRefreshToken(db, user.id, refresh.sha256, refreshExpiresAt);
     return {
       body: {
         accessToken,
@@ -42,8 +50,20 @@ export function createAuthService({ db, config, mailer }: AppDeps) {
         },
       },
       refreshToken: refresh.token,
-      refreshExpiresAt,
+      refreshExpiresAt: refresh.expiresAt,
     };
+  }
+
+  async function issue(user: UserRow): Promise<IssuedSession> {
+    const refresh = newRefresh();
+    await repo.insertRefreshToken(db, user.id, refresh.sha256, refresh.expiresAt);
+    return answer(user, refresh);
+  }
+
+  async function activeUser(userId: string): Promise<UserRow> {
+    const user = await repo.findUserById(db, userId);
+    if (!user || user.status !== "active") throw badRefresh();
+    return user;
   }
 
   return {
@@ -70,27 +90,41 @@ export function createAuthService({ db, config, mailer }: AppDeps) {
     /**
      * Rotation: each refresh token works once. Presenting a revoked one means it was copied, so every
      * session of that user is revoked (the thief and the owner both have to sign in again).
+     * Exception, the reuse grace: browser tabs loading at once all present the cookie they share, and
+     * all but the first find it just rotated. A token replaced less than REFRESH_REUSE_GRACE_S ago,
+     * whose successor is still live, is therefore accepted once more and gets a session of its own
+     * (its successor's token is stored only as a digest, so it cannot be handed out again).
      */
     async refresh(token: string | undefined, req: Request): Promise<IssuedSession> {
       if (!token) throw badRefresh();
       const row = await repo.findRefreshToken(db, sha256Hex(token));
       if (!row) throw badRefresh();
-      if (row.revoked_at) {
-        const n = await repo.revokeAllRefreshTokens(db, row.user_id);
-        await audit(db, req, {
-          action: "auth.refresh_reuse",
-          resourceType: "user",
-          resourceId: row.user_id,
-          actorId: row.user_id,
-          details: { revokedSessions: n },
-        });
-        throw badRefresh();
+      if (!row.revoked_at) {
+        if (row.expires_at.getTime() <= Date.now()) throw badRefresh();
+        const user = await activeUser(row.user_id);
+        const next = newRefresh();
+        const graceUntil = new Date(Date.now() + REFRESH_REUSE_GRACE_S * 1000);
+        if (await repo.rotateRefreshToken(db, row.id, { userId: user.id, sha256: next.sha256, expiresAt: next.expiresAt }, graceUntil)) {
+          return answer(user, next);
+        }
       }
-      if (row.expires_at.getTime() <= Date.now()) throw badRefresh();
-      const user = await repo.findUserById(db, row.user_id);
-      if (!user || user.status !== "active") throw badRefresh();
-      if (!(await repo.revokeRefreshToken(db, row.id))) throw badRefresh();
-      return issue(user);
+      if (await repo.claimReuseGrace(db, row.id, new Date())) {
+        const user = await activeUser(row.user_id);
+        await audit(db, req, { action: "auth.refresh_grace", resourceType: "user", resourceId: user.id, actorId: user.id, actorRole: user.role });
+        return issue(user);
+      }
+      // It was live when read, so this request raced another one holding the same cookie (a sign-out,
+      // or a third tab after the grace was used): refused, but not taken for a copy.
+      if (!row.revoked_at) throw badRefresh();
+      const n = await repo.revokeAllRefreshTokens(db, row.user_id);
+      await audit(db, req, {
+        action: "auth.refresh_reuse",
+        resourceType: "user",
+        resourceId: row.user_id,
+        actorId: row.user_id,
+        details: { revokedSessions: n },
+      });
+      throw badRefresh();
     },
 
     async logout(token: string | undefined, req: Request, accessToken?: string): Promise<void> {

@@ -1,9 +1,10 @@
 import { generateKeyPair, SignJWT, exportSPKI } from "jose";
 import request from "supertest";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { TOKEN_AUDIENCE, TOKEN_ISSUER } from "../../../auth/access-token";
 import { sha256Hex } from "../../../auth/opaque-token";
 import { scopesFor } from "../../../auth/scopes";
+import { REFRESH_REUSE_GRACE_S } from "../auth.service";
 import { createTestContext, type SeededUser, type TestContext } from "../../../testing/harness";
 
 let ctx: TestContext;
@@ -190,17 +191,85 @@ describe("refresh and sign-out", () => {
     expect((await request(ctx.app).post("/api/auth/refresh").set("Cookie", next)).status).toBe(200);
   });
 
-  it("treats reuse of a rotated refresh token as theft and revokes every session of the user", async () => {
+  const refresh = (cookie: string) => request(ctx.app).post("/api/auth/refresh").set("Cookie", cookie);
+  const liveSessions = async (userId: string) => (await ctx.db("refresh_tokens").where({ user_id: userId }).whereNull("revoked_at")).length;
+  const theftEvents = (userId: string) => ctx.db("audit_events").where({ action: "auth.refresh_reuse", resource_id: userId }).orderBy("id");
+  /** Runs `fn` with the server's clock moved `seconds` ahead (Date only: sockets and timers keep real time). */
+  const later = async <T>(seconds: number, fn: () => Promise<T>): Promise<T> => {
+    vi.useFakeTimers({ toFake: ["Date"], now: Date.now() + seconds * 1000 });
+    try {
+      return await fn();
+    } finally {
+      vi.useRealTimers();
+    }
+  };
+
+  it("two tabs refreshing at once both stay signed in", async () => {
     const { user, cookie } = await signIn();
-    const r1 = await request(ctx.app).post("/api/auth/refresh").set("Cookie", cookie);
+    const [tabA, tabB] = await Promise.all([refresh(cookie), refresh(cookie)]);
+    expect([tabA.status, tabB.status]).toEqual([200, 200]);
+    const cookies = [tabA, tabB].map((r) => refreshCookie(r)!.split(";")[0]!);
+    expect(new Set([cookie, ...cookies]).size).toBe(3);
+    for (const tab of [tabA, tabB]) {
+      expect((await request(ctx.app).get("/api/me").set("Authorization", `Bearer ${tab.body.accessToken}`)).status).toBe(200);
+    }
+    // Whichever cookie the browser kept, the next refresh works.
+    for (const c of cookies) expect((await refresh(c)).status).toBe(200);
+    expect(await theftEvents(user.id)).toHaveLength(0);
+  });
+
+  it("a second tab presenting the token just replaced, one after the other, is signed in too", async () => {
+    const { user, cookie } = await signIn();
+    const first = await refresh(cookie);
+    const second = await later(REFRESH_REUSE_GRACE_S - 2, () => refresh(cookie));
+    expect(first.status).toBe(200);
+    expect(second.status).toBe(200);
+    expect(second.body.user.id).toBe(user.id);
+    expect((await refresh(refreshCookie(first)!.split(";")[0]!)).status).toBe(200);
+    expect((await refresh(refreshCookie(second)!.split(";")[0]!)).status).toBe(200);
+    expect(await ctx.db("audit_events").where({ action: "auth.refresh_grace", resource_id: user.id })).toHaveLength(1);
+    expect(await theftEvents(user.id)).toHaveLength(0);
+  });
+
+  it("a stolen refresh token replayed after the grace window still revokes every session", async () => {
+    const { user, cookie } = await signIn();
+    const other = await request(ctx.app).post("/api/auth/login").send({ email: user.email, password: user.password });
+    const otherDevice = refreshCookie(other)!.split(";")[0]!;
+    const r1 = await refresh(cookie);
     const current = refreshCookie(r1)!.split(";")[0]!;
-    const replay = await request(ctx.app).post("/api/auth/refresh").set("Cookie", cookie);
+    const replay = await later(REFRESH_REUSE_GRACE_S + 1, () => refresh(cookie));
     expect(replay.status).toBe(401);
     expect(replay.body.error.code).toBe("invalid_refresh");
-    expect((await request(ctx.app).post("/api/auth/refresh").set("Cookie", current)).status).toBe(401);
-    const live = await ctx.db("refresh_tokens").where({ user_id: user.id }).whereNull("revoked_at");
-    expect(live).toHaveLength(0);
-    expect(await ctx.db("audit_events").where({ action: "auth.refresh_reuse", resource_id: user.id }).first()).toBeTruthy();
+    expect(refreshCookie(replay)).toMatch(/pendula_refresh=;/);
+    expect((await refresh(current)).status).toBe(401);
+    expect((await refresh(otherDevice)).status).toBe(401);
+    expect(await liveSessions(user.id)).toBe(0);
+    expect((await theftEvents(user.id).first()).details).toEqual({ revokedSessions: 2 });
+  });
+
+  it("a replaced refresh token replayed a second time inside the grace window revokes every session", async () => {
+    const { user, cookie } = await signIn();
+    const r1 = await refresh(cookie);
+    const graced = await refresh(cookie);
+    expect(graced.status).toBe(200);
+    const again = await refresh(cookie);
+    expect(again.status).toBe(401);
+    expect(again.body.error.code).toBe("invalid_refresh");
+    expect((await refresh(refreshCookie(r1)!.split(";")[0]!)).status).toBe(401);
+    expect((await refresh(refreshCookie(graced)!.split(";")[0]!)).status).toBe(401);
+    expect(await liveSessions(user.id)).toBe(0);
+    // The second replay ended both sessions the first two presentations had opened.
+    expect((await theftEvents(user.id).first()).details).toEqual({ revokedSessions: 2 });
+  });
+
+  it("a token replaced a moment before sign-out does not bring the signed-out session back", async () => {
+    const { user, cookie } = await signIn();
+    const r1 = await refresh(cookie);
+    expect((await request(ctx.app).post("/api/auth/logout").set("Cookie", refreshCookie(r1)!.split(";")[0]!)).status).toBe(204);
+    const replay = await refresh(cookie);
+    expect(replay.status).toBe(401);
+    expect(refreshCookie(replay)).toMatch(/pendula_refresh=;/);
+    expect(await liveSessions(user.id)).toBe(0);
   });
 
   it("rejects a missing, unknown or expired refresh cookie with 401", async () => {
@@ -271,6 +340,20 @@ describe("password reset", () => {
     expect((await request(ctx.app).post("/api/auth/refresh").set("Cookie", oldCookie)).status).toBe(401);
     expect((await request(ctx.app).post("/api/auth/login").send({ email: u.email, password: u.password })).status).toBe(401);
     expect((await request(ctx.app).post("/api/auth/login").send({ email: u.email, password: "a-new-long-password" })).status).toBe(200);
+  });
+
+  it("a password reset ends every session, and a refresh token replaced a moment before does not revive one", async () => {
+    const u = await ctx.seedUser({ role: "clinician" });
+    const session = await request(ctx.app).post("/api/auth/login").send({ email: u.email, password: u.password });
+    const replaced = refreshCookie(session)!.split(";")[0]!;
+    const rotated = await request(ctx.app).post("/api/auth/refresh").set("Cookie", replaced);
+    expect(rotated.status).toBe(200);
+    await request(ctx.app).post("/api/auth/password-reset/request").send({ email: u.email });
+    const token = linkToken((await ctx.mailbox.waitFor((m) => m.to.includes(u.email) && m.subject.includes("Reset"))).text)!;
+    expect((await request(ctx.app).post("/api/auth/password-reset/confirm").send({ token, password: "a-new-long-password" })).status).toBe(204);
+    expect((await request(ctx.app).post("/api/auth/refresh").set("Cookie", replaced)).status).toBe(401);
+    expect((await request(ctx.app).post("/api/auth/refresh").set("Cookie", refreshCookie(rotated)!.split(";")[0]!)).status).toBe(401);
+    expect(await ctx.db("refresh_tokens").where({ user_id: u.id }).whereNull("revoked_at")).toHaveLength(0);
   });
 
   it("refuses an expired reset link and a link replaced by a newer one", async () => {
