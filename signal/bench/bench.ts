@@ -10,6 +10,7 @@ import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { analyze } from "../src/analyze";
 import { readSensorCsv } from "../src/io/read-sensor-csv";
+import { readSensorCsvBytes } from "../src/io/read-sensor-csv-bytes";
 import { synthesizeSession, type SynthOptions } from "../src/synth";
 import type { SensorRecording } from "../src/types";
 
@@ -69,6 +70,17 @@ function measure(dir: string): void {
   analyze(recordings);
   const warmS = (performance.now() - t4) / 1000;
   recordings = null;
+  // Parse throughput of the same files read as bytes (after the figures above, so it changes none
+  // of them): first run on cold code, then the best of three warm runs.
+  const buffers = names.map((n) => readFileSync(join(dir, n)));
+  const csvBytes = buffers.reduce((s, b) => s + b.length, 0);
+  const parseBytes = (): number => {
+    const c = cpuS();
+    for (let i = 0; i < buffers.length; i++) readSensorCsvBytes(buffers[i]!, names[i]!);
+    return cpuS() - c;
+  };
+  const bytesParseCpuS = parseBytes();
+  const bytesParseWarmCpuS = Math.min(parseBytes(), parseBytes(), parseBytes());
   process.stdout.write(
     JSON.stringify({
       files: names.length,
@@ -85,6 +97,9 @@ function measure(dir: string): void {
       baselineRssBytes: baselineRss,
       heapUsedAfterBytes: afterAnalysis.heapUsed,
       strides: analysis.strides.length,
+      csvBytes,
+      bytesParseCpuS,
+      bytesParseWarmCpuS,
       cadence: analysis.metrics.cadenceStepsPerMin,
     }),
   );
@@ -106,6 +121,8 @@ function main(): void {
   console.log(`Pendula signal benchmark — node ${process.version}, load average ${loadavg().map((x) => x.toFixed(2)).join(" ")}`);
   console.log("Session: four sensors (shanks, wrists), 200 Hz, synthetic home walk (turns every 20 s, rests every 5 min).");
   const rows: string[][] = [];
+  const parseLines: string[] = [];
+  const mbPerS = (bytes: number, s: number) => (bytes / 1048576 / s).toFixed(0);
   for (const minutes of SIZES_MIN) {
     const dir = mkdtempSync(join(tmpdir(), "pendula-bench-"));
     try {
@@ -125,6 +142,10 @@ function main(): void {
         mb(m.heapUsedAfterBytes!),
         String(m.strides),
       ]);
+      parseLines.push(
+        `${minutes} min, ${mb(m.csvBytes!)} MB of CSV: text reader ${mbPerS(m.csvBytes!, m.parseCpuS!)} MB/s (after decoding the files to strings); ` +
+          `byte reader ${mbPerS(m.csvBytes!, m.bytesParseCpuS!)} MB/s first run, ${mbPerS(m.csvBytes!, m.bytesParseWarmCpuS!)} MB/s warm (best of 3).`,
+      );
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
@@ -134,6 +155,8 @@ function main(): void {
   const line = (cells: string[]) => cells.map((c, i) => c.padStart(widths[i]!)).join("  ");
   console.log(line(header));
   for (const r of rows) console.log(line(r));
+  console.log("Parse throughput, CPU seconds of one core (MB = 2^20 bytes, as above):");
+  for (const p of parseLines) console.log(`  ${p}`);
   console.log(
     `Targets (30 min): analysis after parsing < ${TARGETS_30_MIN.analysisS} s, end to end (read + parse + analysis) < ${TARGETS_30_MIN.endToEndS} s, peak RSS < ${TARGETS_30_MIN.peakMb} MB.`,
   );

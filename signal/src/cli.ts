@@ -4,7 +4,8 @@
 import { readFileSync, statSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
 import { analyze } from "./analyze";
-import { MAX_SENSOR_FILE_CHARS, readSensorCsv } from "./io/read-sensor-csv";
+import { MAX_SENSOR_FILE_CHARS } from "./io/read-sensor-csv";
+import { readSensorCsvBytes } from "./io/read-sensor-csv-bytes";
 import { bidsSidecarNames, readBidsMotion } from "./io/read-bids-motion";
 import { sniffFormat } from "./io/sniff";
 import { formatAnalysisTable } from "./format-table";
@@ -12,6 +13,10 @@ import { parseCliArgs, UsageError } from "./cli-args";
 import { type SensorRecording, SignalInputError } from "./types";
 
 function readText(path: string): string {
+  return readBytes(path).toString("utf8");
+}
+
+function readBytes(path: string): Buffer {
   let size: number;
   try {
     size = statSync(path).size;
@@ -19,7 +24,7 @@ function readText(path: string): string {
     throw new UsageError(`${path}: file not found`);
   }
   if (size > MAX_SENSOR_FILE_CHARS) throw new SignalInputError(`${basename(path)}: file is larger than the 64 MiB limit`, basename(path));
-  return readFileSync(path, "utf8");
+  return readFileSync(path);
 }
 
 export function loadRecordings(paths: readonly string[]): SensorRecording[] {
@@ -41,15 +46,16 @@ export function loadRecordings(paths: readonly string[]): SensorRecording[] {
       );
       continue;
     }
-    const text = readText(path);
-    const format = sniffFormat(text);
+    const bytes = readBytes(path);
+    // The sniffer reads the first 4096 characters; 4 × 4096 bytes hold them whatever the encoding.
+    const format = sniffFormat(bytes.toString("utf8", 0, 4 * 4096));
     if (format !== "pendula-csv-v1") {
       throw new SignalInputError(
         format === "unknown" ? `${name}: not a Pendula sensor CSV or BIDS *_motion.tsv file` : `${name}: looks like ${format}; pass the *_motion.tsv file instead`,
         name,
       );
     }
-    out.push(readSensorCsv(text, name));
+    out.push(readSensorCsvBytes(bytes, name));
   }
   return out;
 }

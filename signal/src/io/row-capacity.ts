@@ -12,3 +12,11 @@ export function rowCapacity(text: string, from: number, minRowChars: number): nu
   const fit = Math.floor(Math.max(0, text.length - from) / Math.max(1, minRowChars)) + 1;
   return Math.min(lines, fit);
 }
+
+/** `rowCapacity` over bytes, bytes[from, end): the same bound, counted in bytes. */
+export function rowCapacityBytes(bytes: Uint8Array, from: number, minRowBytes: number): number {
+  let lines = 1;
+  for (let p = bytes.indexOf(10, from); p >= 0; p = bytes.indexOf(10, p + 1)) lines++;
+  const fit = Math.floor(Math.max(0, bytes.length - from) / Math.max(1, minRowBytes)) + 1;
+  return Math.min(lines, fit);
+}

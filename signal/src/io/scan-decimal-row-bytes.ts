@@ -1,0 +1,87 @@
+const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
+
+/**
+ * `scanDecimalRow` over UTF-8 (or ASCII) bytes instead of a string: one data row of `nCols`
+ * comma-separated cells from `pos`, ended by `\n` or `\r\n`, values of plain decimals (≤ 15
+ * significant digits, power of ten within ±22) written to `row[target[col]]` with the arithmetic of
+ * `parseDecimal`, so a file read as bytes gives the same doubles as its text. Every byte the
+ * scanner looks for is ASCII, and in UTF-8 an ASCII byte is always that character, so the bytes of
+ * a row split and parse exactly as its characters do.
+ *
+ * Returns the index of the row's `\n`, or −1 for anything else (the caller's general path decides);
+ * `row` may be partly written on −1. The scanner never steps over a `\n`, so a row followed by one
+ * is read without bounds checks; a last row without `\n` gives −1 (and is better not offered: reading
+ * past the end slows the compiled scanner down for the rest of the process).
+ */
+export function scanDecimalRowBytes(bytes: Uint8Array, pos: number, nCols: number, target: Int8Array, row: Float64Array): number {
+  let p = pos;
+  const lastCol = nCols - 1;
+  for (let col = 0; ; col++) {
+    const k = target[col]!;
+    let c = bytes[p]!;
+    if (k < 0) {
+      // Ignored cell: anything up to the separator; a comma in the last cell means too many cells.
+      const n = bytes.length;
+      while (c !== 44 && c !== 10 && p < n) c = bytes[++p]!;
+      if (col === lastCol) return c === 10 ? p : -1;
+      if (c !== 44) return -1;
+      p++;
+      continue;
+    }
+    let sign = 1;
+    if (c === 45) {
+      sign = -1;
+      c = bytes[++p]!;
+    } else if (c === 43) {
+      c = bytes[++p]!;
+    }
+    let mantissa = 0;
+    const intStart = p;
+    while (c >= 48 && c <= 57) {
+      mantissa = mantissa * 10 + (c - 48);
+      c = bytes[++p]!;
+    }
+    let digits = p - intStart;
+    let scale = 0;
+    if (c === 46) {
+      const fracStart = ++p;
+      c = bytes[p]!;
+      while (c >= 48 && c <= 57) {
+        mantissa = mantissa * 10 + (c - 48);
+        c = bytes[++p]!;
+      }
+      scale = p - fracStart;
+      digits += scale;
+    }
+    if (digits === 0 || digits > 15) return -1;
+    let exponent = 0;
+    if (c === 101 || c === 69) {
+      c = bytes[++p]!;
+      let expSign = 1;
+      if (c === 45) {
+        expSign = -1;
+        c = bytes[++p]!;
+      } else if (c === 43) {
+        c = bytes[++p]!;
+      }
+      const expStart = p;
+      while (c >= 48 && c <= 57) {
+        exponent = exponent * 10 + (c - 48);
+        c = bytes[++p]!;
+      }
+      if (p === expStart) return -1;
+      exponent *= expSign;
+    }
+    const e = exponent - scale;
+    if (e > 22 || e < -22) return -1;
+    row[k] = sign * (e >= 0 ? mantissa * POW10[e]! : mantissa / POW10[-e]!);
+    if (col !== lastCol) {
+      if (c !== 44) return -1;
+      p++;
+      continue;
+    }
+    if (c === 10) return p;
+    if (c === 13 && bytes[p + 1] === 10) return p + 1;
+    return -1;
+  }
+}
