@@ -140,7 +140,10 @@ describe("readSensorCsvBytes(bytes, fileName) against readSensorCsv(text, fileNa
       const chunks = parts.map((p) => (typeof p === "string" ? encode(p) : Uint8Array.from(p)));
       const out = new Uint8Array(chunks.reduce((s, c) => s + c.length, 0));
       let at = 0;
-      for (const c of chunks) (out.set(c, at), (at += c.length));
+      for (const c of chunks) {
+        out.set(c, at);
+        at += c.length;
+      }
       return out;
     };
     const head = HEADER.join("\n") + "\n";
