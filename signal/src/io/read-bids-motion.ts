@@ -49,14 +49,63 @@ interface Channel {
  * LATENCY channel when present, else from SamplingFrequency.
  */
 export function readBidsMotion(input: BidsMotionTexts): SensorRecording[] {
+  const layout = readBidsSidecars(input);
+  const fail = bidsFail;
   const maxChars = input.maxChars ?? MAX_SENSOR_FILE_CHARS;
-  const fail = (file: string, line: number | undefined, column: string | undefined, reason: string): never => {
-    const where = [line === undefined ? null : `line ${line}`, column === undefined ? null : `column ${column}`]
-      .filter(Boolean)
-      .join(", ");
-    throw new SignalInputError(`${file}${where ? `: ${where}` : ""}: ${reason}`, file, line, column);
-  };
 
+  // --- motion.tsv (headerless) ---
+  const text = input.motionTsv;
+  if (text.length > maxChars) {
+    fail(input.motionFileName, undefined, undefined, `file is larger than the ${Math.round(maxChars / 1048576)} MiB limit`);
+  }
+  if (text.trim() === "") fail(input.motionFileName, 1, undefined, "file is empty");
+  const nCols = layout.channels.length;
+  // A row holds nCols − 1 tabs and a value (a number or n/a) in every cell.
+  const capacity = rowCapacity(text, 0, 2 * nCols - 1);
+  const rows = new BidsRows(layout, input.motionFileName, capacity);
+  let pos = text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  let lineNo = 0;
+  while (pos < text.length) {
+    let end = text.indexOf("\n", pos);
+    if (end < 0) end = text.length;
+    lineNo++;
+    let lineEnd = end;
+    if (lineEnd > pos && text.charCodeAt(lineEnd - 1) === 13) lineEnd--;
+    rows.readLine(text, pos, lineEnd, lineNo);
+    pos = end + 1;
+  }
+  return rows.finish(lineNo);
+}
+
+/** The JSON sidecar and channels.tsv of one tracking system, checked: what the data rows are read against. */
+export interface BidsLayout {
+  channels: Channel[];
+  usable: TrackedPoint[];
+  latencyCol: number;
+  latencyScale: number;
+  sampleRateHz: number;
+  serial: string;
+  system: string;
+  startUtc: string;
+}
+
+interface TrackedPoint {
+  label: string;
+  cols: Int32Array;
+  scale: Float64Array;
+}
+
+/** Throws the reader's SignalInputError: "<file>: line L, column C: reason". */
+export function bidsFail(file: string, line: number | undefined, column: string | undefined, reason: string): never {
+  const where = [line === undefined ? null : `line ${line}`, column === undefined ? null : `column ${column}`]
+    .filter(Boolean)
+    .join(", ");
+  throw new SignalInputError(`${file}${where ? `: ${where}` : ""}: ${reason}`, file, line, column);
+}
+
+/** Reads and checks the two sidecars (JSON first, then channels.tsv), as both motion readers do before any data row. */
+export function readBidsSidecars(input: Omit<BidsMotionTexts, "motionTsv">): BidsLayout {
+  const fail = bidsFail;
   // --- sidecar JSON ---
   let meta: unknown;
   try {
@@ -155,93 +204,115 @@ export function readBidsMotion(input: BidsMotionTexts): SensorRecording[] {
       }
     }
   }
+  return { channels, usable, latencyCol, latencyScale, sampleRateHz, serial, system, startUtc };
+}
 
-  // --- motion.tsv (headerless) ---
-  const text = input.motionTsv;
-  if (text.length > maxChars) {
-    fail(input.motionFileName, undefined, undefined, `file is larger than the ${Math.round(maxChars / 1048576)} MiB limit`);
+/**
+ * The data rows of one motion file, read line by line into one column per channel, with the
+ * checks and messages both readers share; `finish` turns them into recordings.
+ */
+export class BidsRows {
+  private readonly data: Float64Array[];
+  private rows = 0;
+  private prevLatency = Number.NEGATIVE_INFINITY;
+
+  constructor(
+    private readonly layout: BidsLayout,
+    private readonly fileName: string,
+    capacity: number,
+  ) {
+    this.data = Array.from({ length: layout.channels.length }, () => new Float64Array(capacity));
   }
-  if (text.trim() === "") fail(input.motionFileName, 1, undefined, "file is empty");
-  const nCols = channels.length;
-  // A row holds nCols − 1 tabs and a value (a number or n/a) in every cell.
-  const capacity = rowCapacity(text, 0, 2 * nCols - 1);
-  const data = Array.from({ length: nCols }, () => new Float64Array(capacity));
-  let rows = 0;
-  let pos = text.charCodeAt(0) === 0xfeff ? 1 : 0;
-  let lineNo = 0;
-  let prevLatency = Number.NEGATIVE_INFINITY;
-  while (pos < text.length) {
-    let end = text.indexOf("\n", pos);
-    if (end < 0) end = text.length;
-    lineNo++;
-    let lineEnd = end;
-    if (lineEnd > pos && text.charCodeAt(lineEnd - 1) === 13) lineEnd--;
-    if (text.slice(pos, lineEnd).trim() === "") {
-      pos = end + 1;
-      continue;
-    }
+
+  /** The column arrays and the next row index, for a scanner that fills a plain row itself (then calls `commit`). */
+  get columns(): Float64Array[] {
+    return this.data;
+  }
+
+  get count(): number {
+    return this.rows;
+  }
+
+  /** One line, text[pos, lineEnd) without its line break: skipped when blank, else read or refused. */
+  readLine(text: string, pos: number, lineEnd: number, lineNo: number): void {
+    if (text.slice(pos, lineEnd).trim() === "") return;
+    const { channels } = this.layout;
+    const nCols = channels.length;
+    const fileName = this.fileName;
+    const data = this.data;
+    const rows = this.rows;
     let cellStart = pos;
     for (let col = 0; col < nCols; col++) {
       const tab = text.indexOf("\t", cellStart);
       const cellEnd = col === nCols - 1 ? lineEnd : tab;
       if (cellEnd < 0 || cellEnd > lineEnd) {
-        fail(input.motionFileName, lineNo, channels[col]!.name, `expected ${nCols} cells (one per channels.tsv row), found ${col + 1}`);
+        bidsFail(fileName, lineNo, channels[col]!.name, `expected ${nCols} cells (one per channels.tsv row), found ${col + 1}`);
       }
       if (col === nCols - 1 && tab >= 0 && tab < lineEnd) {
-        fail(input.motionFileName, lineNo, undefined, `expected ${nCols} cells (one per channels.tsv row), found more`);
+        bidsFail(fileName, lineNo, undefined, `expected ${nCols} cells (one per channels.tsv row), found more`);
       }
       let v = parseDecimal(text, cellStart, cellEnd);
       if (Number.isNaN(v)) {
         const cell = text.slice(cellStart, cellEnd).trim();
         if (cell === "n/a" || cell.toLowerCase() === "nan") v = Number.NaN;
-        else fail(input.motionFileName, lineNo, channels[col]!.name, `"${cell}" is not a number`);
+        else bidsFail(fileName, lineNo, channels[col]!.name, `"${cell}" is not a number`);
       }
       data[col]![rows] = v;
       cellStart = cellEnd + 1;
     }
-    if (latencyCol >= 0) {
-      const t = data[latencyCol]![rows]!;
-      if (Number.isNaN(t)) fail(input.motionFileName, lineNo, channels[latencyCol]!.name, "latency is missing");
-      if (!(t > prevLatency)) fail(input.motionFileName, lineNo, channels[latencyCol]!.name, `time ${t} does not increase`);
-      prevLatency = t;
-    }
-    rows++;
-    pos = end + 1;
+    this.commit(lineNo);
   }
-  if (rows === 0) fail(input.motionFileName, lineNo, undefined, "no data rows");
 
-  return usable.map((p) => {
-    const timeS = new Float64Array(rows);
-    const out = Array.from({ length: 6 }, () => new Float32Array(rows));
-    let m = 0;
-    for (let r = 0; r < rows; r++) {
-      let ok = true;
-      for (let k = 0; k < 6; k++) if (Number.isNaN(data[p.cols[k]!]![r]!)) ok = false;
-      if (!ok) continue;
-      timeS[m] = latencyCol >= 0 ? data[latencyCol]![r]! * latencyScale : r / sampleRateHz;
-      for (let k = 0; k < 6; k++) {
-        out[k]![m] = data[p.cols[k]!]![r]! * p.scale[k]!;
-        // Stored in single precision: a value beyond its range would become Infinity.
-        if (!Number.isFinite(out[k]![m]!)) fail(input.motionFileName, undefined, channels[p.cols[k]!]!.name, `value ${data[p.cols[k]!]![r]} is beyond any sensor's range`);
-      }
-      m++;
+  /** Ends the row just written into `columns`: the latency checks, then the next row. */
+  commit(lineNo: number): void {
+    const { latencyCol, channels } = this.layout;
+    if (latencyCol >= 0) {
+      const t = this.data[latencyCol]![this.rows]!;
+      if (Number.isNaN(t)) bidsFail(this.fileName, lineNo, channels[latencyCol]!.name, "latency is missing");
+      if (!(t > this.prevLatency)) bidsFail(this.fileName, lineNo, channels[latencyCol]!.name, `time ${t} does not increase`);
+      this.prevLatency = t;
     }
-    if (m === 0) fail(input.motionFileName, undefined, undefined, `tracked point ${p.label} has no complete samples`);
-    return {
-      fileName: `${input.motionFileName} [${p.label}]`,
-      deviceSerial: serial ? `${serial}:${p.label}` : `${system}:${p.label}`,
-      placement: placementFromLabel(p.label),
-      nominalSampleRateHz: sampleRateHz,
-      startUtc,
-      timeS: timeS.subarray(0, m),
-      accX: out[0]!.subarray(0, m),
-      accY: out[1]!.subarray(0, m),
-      accZ: out[2]!.subarray(0, m),
-      gyroX: out[3]!.subarray(0, m),
-      gyroY: out[4]!.subarray(0, m),
-      gyroZ: out[5]!.subarray(0, m),
-    };
-  });
+    this.rows++;
+  }
+
+  /** One recording per usable tracked point; `lastLineNo` names the end of a file without rows. */
+  finish(lastLineNo: number): SensorRecording[] {
+    const { usable, channels, latencyCol, latencyScale, sampleRateHz, serial, system, startUtc } = this.layout;
+    const { data, rows, fileName } = this;
+    if (rows === 0) bidsFail(fileName, lastLineNo, undefined, "no data rows");
+    return usable.map((p) => {
+      const timeS = new Float64Array(rows);
+      const out = Array.from({ length: 6 }, () => new Float32Array(rows));
+      let m = 0;
+      for (let r = 0; r < rows; r++) {
+        let ok = true;
+        for (let k = 0; k < 6; k++) if (Number.isNaN(data[p.cols[k]!]![r]!)) ok = false;
+        if (!ok) continue;
+        timeS[m] = latencyCol >= 0 ? data[latencyCol]![r]! * latencyScale : r / sampleRateHz;
+        for (let k = 0; k < 6; k++) {
+          out[k]![m] = data[p.cols[k]!]![r]! * p.scale[k]!;
+          // Stored in single precision: a value beyond its range would become Infinity.
+          if (!Number.isFinite(out[k]![m]!)) bidsFail(fileName, undefined, channels[p.cols[k]!]!.name, `value ${data[p.cols[k]!]![r]} is beyond any sensor's range`);
+        }
+        m++;
+      }
+      if (m === 0) bidsFail(fileName, undefined, undefined, `tracked point ${p.label} has no complete samples`);
+      return {
+        fileName: `${fileName} [${p.label}]`,
+        deviceSerial: serial ? `${serial}:${p.label}` : `${system}:${p.label}`,
+        placement: placementFromLabel(p.label),
+        nominalSampleRateHz: sampleRateHz,
+        startUtc,
+        timeS: timeS.subarray(0, m),
+        accX: out[0]!.subarray(0, m),
+        accY: out[1]!.subarray(0, m),
+        accZ: out[2]!.subarray(0, m),
+        gyroX: out[3]!.subarray(0, m),
+        gyroY: out[4]!.subarray(0, m),
+        gyroZ: out[5]!.subarray(0, m),
+      };
+    });
+  }
 }
 
 /** Sidecar names BIDS gives a `*_motion.tsv`: same entities, `_channels.tsv` and `_motion.json`. */

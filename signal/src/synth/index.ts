@@ -15,3 +15,4 @@ export { synthesizeSessionText } from "./synthesize-session-text";
 export { createPrng, type Prng } from "./prng";
 export { sensorCsvText, type SensorCsvHeader } from "./sensor-csv-text";
 export * from "./kinematic";
+export { bidsMotionText, type BidsMotionSet, type BidsMotionTextOptions } from "./bids-motion-text";
