@@ -35,6 +35,8 @@ product_env() {
   : "${PENDULA_S3_PORT:=$(free_port)}"
   : "${PENDULA_SMTP_PORT:=$(free_port)}"
   export DATABASE_URL="postgres://postgres@127.0.0.1:$PGPORT/$PENDULA_DB"
+  # The demo: invented accounts with a published password, local fakes, captured mail. Never patient data.
+  export PENDULA_MODE=demo
   export HOST=127.0.0.1 PORT="$PENDULA_PORT"
   export PUBLIC_URL="http://127.0.0.1:$PENDULA_PORT"
   export S3_ENDPOINT="http://127.0.0.1:$PENDULA_S3_PORT" S3_BUCKET=pendula-raw S3_REGION=local
@@ -48,7 +50,7 @@ product_env() {
 start_fakes() {
   local log="$PENDULA_DATA/fakes.log"
   : >"$log"
-  (cd "$ROOT" && exec "$ROOT/node_modules/.bin/tsx" ingest-server/src/dev/fakes.ts --data "$PENDULA_DATA/fakes" \
+  (cd "$ROOT" && exec node --enable-source-maps ingest-server/dist/fakes.js --data "$PENDULA_DATA/fakes" \
     --s3-port "$PENDULA_S3_PORT" --smtp-port "$PENDULA_SMTP_PORT") >>"$log" 2>&1 &
   PRODUCT_PIDS+=($!)
   wait_for_line "$log" "fakes ready" 60 || { log "object-storage/e-mail fakes did not start:"; cat "$log" >&2; return 1; }
@@ -56,9 +58,9 @@ start_fakes() {
 
 migrate_and_seed() {
   pg_ensure_database "$PENDULA_DB"
-  (cd "$ROOT" && "$ROOT/node_modules/.bin/tsx" db/src/migrate.ts)
+  (cd "$ROOT" && node --enable-source-maps db/dist/migrate.js)
   # PENDULA_SEED_MAX_WEEKS shortens each patient's history (the browser tests use 8 weeks).
-  (cd "$ROOT" && "$ROOT/node_modules/.bin/tsx" ingest-server/src/dev/seed-demo.ts --if-empty ${PENDULA_SEED_MAX_WEEKS:+--max-weeks "$PENDULA_SEED_MAX_WEEKS"})
+  (cd "$ROOT" && node --enable-source-maps ingest-server/dist/seed-demo.js --if-empty ${PENDULA_SEED_MAX_WEEKS:+--max-weeks "$PENDULA_SEED_MAX_WEEKS"})
 }
 
 build_portal() {
@@ -69,9 +71,9 @@ build_portal() {
 start_services() {
   local slog="$PENDULA_DATA/server.log" wlog="$PENDULA_DATA/worker.log"
   : >"$slog"; : >"$wlog"
-  (cd "$ROOT" && exec "$ROOT/node_modules/.bin/tsx" ingest-server/src/worker.ts) >>"$wlog" 2>&1 &
+  (cd "$ROOT" && exec node --enable-source-maps ingest-server/dist/worker.js) >>"$wlog" 2>&1 &
   PRODUCT_PIDS+=($!)
-  (cd "$ROOT" && exec "$ROOT/node_modules/.bin/tsx" ingest-server/src/server.ts) >>"$slog" 2>&1 &
+  (cd "$ROOT" && exec node --enable-source-maps ingest-server/dist/server.js) >>"$slog" 2>&1 &
   PRODUCT_PIDS+=($!)
   wait_for_line "$slog" "^http://127.0.0.1:$PENDULA_PORT\$" 60 || { log "server did not start:"; cat "$slog" >&2; return 1; }
 }

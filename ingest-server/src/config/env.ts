@@ -8,8 +8,22 @@ const int = (fallback: number, min: number, max: number) => z.coerce.number().in
 const secret = (name: string) =>
   z.string({ error: `${name} is required` }).min(32, { error: `${name} must be at least 32 characters` });
 
+/**
+ * `demo`: the invented scenario's accounts with their published password, the local fakes and the
+ * captured-mail route. `production`: none of those. Production is the default, so a server started
+ * by hand without saying otherwise is the locked-down one; `npm start` and the tests ask for demo.
+ */
+export const PENDULA_MODES = ["demo", "production"] as const;
+export type PendulaMode = (typeof PENDULA_MODES)[number];
+
+// s3rver's built-in key pair, which the local object-storage fake accepts.
+const S3_FAKE_KEY_ID = "S3RVER";
+const LOOPBACK_HOSTNAMES = ["127.0.0.1", "localhost"];
+const HOSTNAME = /^(?:[a-z0-9](?:[a-z0-9-]{0,61}[a-z0-9])?)(?:\.[a-z0-9](?:[a-z0-9-]{0,61}[a-z0-9])?)*$/;
+
 export const envSchema = z.object({
   NODE_ENV: z.enum(["development", "test", "production"]).default("development"),
+  PENDULA_MODE: z.enum(PENDULA_MODES, { error: "PENDULA_MODE must be demo or production" }).default("production"),
   PORT: int(8641, 1, 65535),
   // The server only ever binds loopback; a reverse proxy in front of it terminates TLS.
   HOST: z.literal("127.0.0.1", { error: "HOST must be 127.0.0.1 (the server binds loopback only)" }).default("127.0.0.1"),
@@ -26,11 +40,25 @@ export const envSchema = z.object({
   S3_SECRET_ACCESS_KEY: z.string({ error: "S3_SECRET_ACCESS_KEY is required" }).min(1),
   SMTP_HOST: z.string().min(1).default("127.0.0.1"),
   SMTP_PORT: int(2525, 1, 65535),
+  // A relay that wants a sign-in; both or neither.
+  SMTP_USER: z.string().min(1).optional(),
+  SMTP_PASSWORD: z.string().min(1).optional(),
   MAIL_FROM: z.string().min(3).default("Pendula <no-reply@pendula.invalid>"),
   PUBLIC_URL: z.url().default("http://127.0.0.1:8641"),
+  // Host names (no port) the server answers for, comma-separated; PUBLIC_URL's and loopback's are
+  // always included. Anything else gets 421, so a DNS-rebinding page cannot talk to the server.
+  ALLOWED_HOSTS: z
+    .string()
+    .transform((v) => v.split(",").map((h) => h.trim().toLowerCase()).filter((h) => h !== ""))
+    .pipe(z.array(z.string().regex(HOSTNAME, { error: "ALLOWED_HOSTS entries must be host names without port or scheme" })))
+    .default([]),
   BCRYPT_COST: int(12, 4, 15),
   UPLOAD_MAX_FILES: int(8, 1, 32),
   UPLOAD_MAX_FILE_BYTES: int(50 * 1024 * 1024, 1024, 1024 * 1024 * 1024),
+  // Private folder (mode 700) for upload bodies between the socket and object storage; default:
+  // pendula-uploads under the system temp folder. Uploads a user may have in flight at once.
+  UPLOAD_TMP_DIR: z.string().min(1).optional(),
+  UPLOAD_IN_FLIGHT_PER_USER: int(2, 1, 100),
   JSON_BODY_LIMIT: z.string().default("100kb"),
   LOGIN_RATE_LIMIT: int(10, 1, 10_000),
   LOGIN_RATE_WINDOW_S: int(900, 1, 86_400),
@@ -61,6 +89,8 @@ export type Env = z.output<typeof envSchema>;
 
 export interface Config {
   env: Env["NODE_ENV"];
+  /** demo or production; ask isDemoMode(config) rather than comparing strings. */
+  mode: PendulaMode;
   port: number;
   host: "127.0.0.1";
   databaseUrl: string;
@@ -70,12 +100,21 @@ export interface Config {
   invitationTtlDays: number;
   passwordResetTtlMin: number;
   s3: { endpoint?: string; bucket: string; region: string; accessKeyId: string; secretAccessKey: string };
-  smtp: { host: string; port: number; from: string };
+  smtp: {
+    host: string;
+    port: number;
+    from: string;
+    /** STARTTLS (or TLS on 465) is mandatory, except to the local fake in demo mode. */
+    requireTls: boolean;
+    auth?: { user: string; pass: string };
+  };
   publicUrl: string;
+  /** Lower-case host names (ports ignored) a request's Host header may carry. */
+  allowedHosts: string[];
   /** True when PUBLIC_URL is https: cookies then carry the Secure flag. */
   secureCookies: boolean;
   bcryptCost: number;
-  upload: { maxFiles: number; maxFileBytes: number };
+  upload: { maxFiles: number; maxFileBytes: number; tmpDir?: string; inFlightPerUser: number };
   jsonBodyLimit: string;
   loginRateLimit: { max: number; windowS: number };
   uploadRateLimit: { max: number; windowS: number };
@@ -104,8 +143,13 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     throw new ConfigError(parsed.error.issues.map((i) => `${i.path.join(".") || "(root)"}: ${i.message}`));
   }
   const e = parsed.data;
+  const problems = modeProblems(e);
+  if (problems.length > 0) throw new ConfigError(problems);
+  const publicHost = new URL(e.PUBLIC_URL).hostname.toLowerCase();
+  const loopbackSmtp = LOOPBACK_HOSTNAMES.includes(e.SMTP_HOST.toLowerCase());
   return {
     env: e.NODE_ENV,
+    mode: e.PENDULA_MODE,
     port: e.PORT,
     host: e.HOST,
     databaseUrl: e.DATABASE_URL,
@@ -121,11 +165,18 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
       accessKeyId: e.S3_ACCESS_KEY_ID,
       secretAccessKey: e.S3_SECRET_ACCESS_KEY,
     },
-    smtp: { host: e.SMTP_HOST, port: e.SMTP_PORT, from: e.MAIL_FROM },
+    smtp: {
+      host: e.SMTP_HOST,
+      port: e.SMTP_PORT,
+      from: e.MAIL_FROM,
+      requireTls: !(e.PENDULA_MODE === "demo" && loopbackSmtp),
+      ...(e.SMTP_USER && e.SMTP_PASSWORD ? { auth: { user: e.SMTP_USER, pass: e.SMTP_PASSWORD } } : {}),
+    },
     publicUrl: e.PUBLIC_URL.replace(/\/+$/, ""),
+    allowedHosts: [...new Set([publicHost, ...LOOPBACK_HOSTNAMES, ...e.ALLOWED_HOSTS])],
     secureCookies: e.PUBLIC_URL.startsWith("https:"),
     bcryptCost: e.BCRYPT_COST,
-    upload: { maxFiles: e.UPLOAD_MAX_FILES, maxFileBytes: e.UPLOAD_MAX_FILE_BYTES },
+    upload: { maxFiles: e.UPLOAD_MAX_FILES, maxFileBytes: e.UPLOAD_MAX_FILE_BYTES, tmpDir: e.UPLOAD_TMP_DIR, inFlightPerUser: e.UPLOAD_IN_FLIGHT_PER_USER },
     jsonBodyLimit: e.JSON_BODY_LIMIT,
     loginRateLimit: { max: e.LOGIN_RATE_LIMIT, windowS: e.LOGIN_RATE_WINDOW_S },
     uploadRateLimit: { max: e.UPLOAD_RATE_LIMIT, windowS: e.UPLOAD_RATE_WINDOW_S },
@@ -138,6 +189,22 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     devMailboxDir: e.DEV_MAILBOX_DIR,
     portalDist: e.PORTAL_DIST,
   };
+}
+
+/** True in demo mode: demo accounts, the captured-mail route and the local fakes are allowed. */
+export function isDemoMode(config: Pick<Config, "mode">): boolean {
+  return config.mode === "demo";
+}
+
+/** Settings that only make sense with the local fakes, refused in production; plus SMTP sign-in pairing. */
+function modeProblems(e: Env): string[] {
+  const problems: string[] = [];
+  if (Boolean(e.SMTP_USER) !== Boolean(e.SMTP_PASSWORD)) problems.push("SMTP_USER and SMTP_PASSWORD: set both or neither");
+  if (e.PENDULA_MODE !== "production") return problems;
+  if (e.DEV_MAILBOX_DIR) problems.push("DEV_MAILBOX_DIR: the captured-mail folder belongs to demo mode; unset it in production");
+  if (e.S3_ACCESS_KEY_ID === S3_FAKE_KEY_ID) problems.push("S3_ACCESS_KEY_ID: the local object-storage fake's key is refused in production");
+  if (!e.PUBLIC_URL.startsWith("https:")) problems.push("PUBLIC_URL: production needs the https address patients and staff use (TLS at the reverse proxy)");
+  return problems;
 }
 
 /** For command-line entry points (server, worker, seed): a bad environment prints every problem and exits 2. */

@@ -33,9 +33,13 @@ export class SmtpMailer implements Mailer {
     this.transport = nodemailer.createTransport({
       host: smtp.host,
       port: smtp.port,
-      secure: false,
-      // The local fake speaks plain SMTP; a real relay on another host must offer STARTTLS.
-      ignoreTLS: smtp.host === "127.0.0.1" || smtp.host === "localhost",
+      // Port 465 is TLS from the first byte; elsewhere STARTTLS is demanded, so a relay (or someone
+      // in the middle) that does not offer it makes the send fail instead of going out in clear.
+      // Only the local fake in demo mode speaks plain SMTP (config.smtp.requireTls is false then).
+      secure: smtp.requireTls && smtp.port === 465,
+      requireTLS: smtp.requireTls,
+      ignoreTLS: !smtp.requireTls,
+      ...(smtp.auth ? { auth: smtp.auth } : {}),
       connectionTimeout: 10_000,
     });
   }

@@ -15,6 +15,7 @@ import { hashPassword } from "../auth/passwords";
 import { scopesFor } from "../auth/scopes";
 import { S3_FAKE_CREDENTIALS, startS3Fake } from "../dev/s3-fake";
 import { startSmtpFake, type SmtpFake } from "../dev/smtp-fake";
+import { insertConsentEvent } from "../routes/consent/consent.service";
 import { createRuntime } from "../runtime";
 
 export interface PatientSeed {
@@ -24,6 +25,7 @@ export interface PatientSeed {
   sex?: "female" | "male" | "other" | "unknown";
   condition?: "incomplete_sci" | "stroke" | "parkinsons" | "other";
   enrolledOn?: string;
+  /** Counting research consent from the enrolment day on (an admin record with a reason). */
   researchConsent?: boolean;
 }
 
@@ -88,6 +90,8 @@ export async function createTestContext(options: TestContextOptions = {}): Promi
   const mailbox = await startSmtpFake({ directory: path.join(dir, "mailbox") });
   const config = loadConfig({
     NODE_ENV: "test",
+    // The harness runs the local fakes, which only demo mode accepts.
+    PENDULA_MODE: "demo",
     DATABASE_URL: database.url,
     JWT_SECRET: randomBytes(32).toString("hex"),
     RESEARCH_HMAC_KEY: randomBytes(32).toString("hex"),
@@ -117,9 +121,19 @@ export async function createTestContext(options: TestContextOptions = {}): Promi
         sex: p.sex ?? "unknown",
         condition: p.condition ?? "incomplete_sci",
         enrolled_on: p.enrolledOn ?? "2026-01-05",
-        research_consent: p.researchConsent ?? false,
       })
       .returning("id");
+    // Consent is a history (consent_events); a fixture's consent is an admin record dated at enrolment, which counts.
+    if (p.researchConsent) {
+      await insertConsentEvent(db, {
+        patientId: row.id,
+        kind: "given",
+        recorderRole: "admin",
+        recordedBy: null,
+        reason: "consent form on file (test fixture)",
+        at: new Date(`${p.enrolledOn ?? "2026-01-05"}T00:00:00Z`),
+      });
+    }
     return row.id as string;
   };
 

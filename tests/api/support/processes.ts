@@ -12,6 +12,7 @@ export function childEnv(ctx: TestContext, extra: Record<string, string> = {}): 
     PATH: process.env.PATH,
     HOME: process.env.HOME,
     NODE_ENV: "test",
+    PENDULA_MODE: c.mode,
     DATABASE_URL: c.databaseUrl,
     JWT_SECRET: c.jwtSecret,
     RESEARCH_HMAC_KEY: c.researchHmacKey,

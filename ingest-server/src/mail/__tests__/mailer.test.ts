@@ -39,10 +39,23 @@ describe("SmtpMailer", () => {
   });
 
   it("releases the claim when SMTP is unreachable so a retry can still send", async () => {
-    const dead = new SmtpMailer(ctx.db, { host: "127.0.0.1", port: 1, from: "x@example.test" });
+    const dead = new SmtpMailer(ctx.db, { host: "127.0.0.1", port: 1, from: "x@example.test", requireTls: false });
     await expect(dead.send(message("k-retry"))).rejects.toThrow();
     expect(await ctx.db("outbound_emails").where({ idempotency_key: "k-retry" }).first()).toBeUndefined();
     dead.close();
     expect(await ctx.deps.mailer.send(message("k-retry"))).toEqual({ sent: true });
+  });
+
+  it("refuses to send in clear when TLS is required and the server offers no STARTTLS", async () => {
+    // The fake disables STARTTLS, as a relay without TLS (or an attacker stripping it) would.
+    const strict = new SmtpMailer(ctx.db, { ...ctx.config.smtp, requireTls: true });
+    try {
+      await expect(strict.send(message("k-tls"))).rejects.toThrow(/STARTTLS/);
+      expect(await ctx.db("outbound_emails").where({ idempotency_key: "k-tls" }).first()).toBeUndefined();
+      await new Promise((r) => setTimeout(r, 100));
+      expect(ctx.mailbox.messages().filter((m) => m.subject === "Message k-tls")).toHaveLength(0);
+    } finally {
+      strict.close();
+    }
   });
 });

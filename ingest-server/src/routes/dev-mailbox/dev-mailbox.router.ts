@@ -1,3 +1,4 @@
+import { isDemoMode } from "../../config/env";
 import type { AppDeps } from "../../deps";
 import { mailboxResponse } from "../../contracts/mailbox";
 import { readMailbox } from "../../dev/smtp-fake";
@@ -8,12 +9,13 @@ const PREFIX = "/api/dev/mailbox";
 
 /**
  * Messages captured by the local SMTP fake, so an admin can follow invitation and reset links in a
- * demo. Mounted only when DEV_MAILBOX_DIR is set and never in production.
+ * demo. Mounted only in demo mode with DEV_MAILBOX_DIR set (production refuses that setting), so a
+ * production server has no such route at all: any admin could otherwise read reset links.
  */
 export function devMailboxRouter(deps: AppDeps): ApiRouter {
   const router = new ApiRouter(PREFIX, deps);
   const dir = deps.config.devMailboxDir;
-  if (!dir || deps.config.env === "production") return router;
+  if (!dir || !isDemoMode(deps.config)) return router;
   return router.endpoint({
     method: "get",
     path: "/",
