@@ -5,6 +5,7 @@ set -euo pipefail
 . "$(dirname "$0")/lib/product.sh"
 
 ensure_node_modules
+ensure_build
 ensure_postgres
 
 PENDULA_DATA="${PENDULA_DATA:-$ROOT/.pendula}"

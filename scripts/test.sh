@@ -9,6 +9,7 @@ set -uo pipefail
 set +e
 
 ensure_node_modules || exit 1
+ensure_build || exit 1
 ensure_postgres || exit 1
 if [ ! -x /usr/bin/chromium ] && [ "${PENDULA_SKIP_E2E:-}" != "1" ]; then
   log "installing Debian's Chromium for the browser tests"

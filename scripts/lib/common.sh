@@ -15,6 +15,12 @@ ensure_node_modules() {
   fi
 }
 
+# Server, worker, fakes, seed, migrations and the analysis CLI run as JavaScript built once by
+# scripts/build.mjs; this rebuilds when any file a bundle was built from is newer than the build.
+ensure_build() {
+  (cd "$ROOT" && node scripts/build.mjs --if-stale)
+}
+
 pg_bindir() {
   local d
   for d in /usr/lib/postgresql/*/bin; do

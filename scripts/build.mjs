@@ -1,0 +1,112 @@
+// Builds the Node entry points (API server, worker, local fakes, demo seed, migrations, analysis CLI
+// and its benchmark) to JavaScript once, so nothing is transpiled when they start.
+//
+//   node scripts/build.mjs             build everything
+//   node scripts/build.mjs --if-stale  build only when a source file is newer than the last build
+//
+// Each entry is bundled with esbuild into its workspace's git-ignored dist/ folder (same depth as
+// src/, so paths relative to import.meta.url still resolve), with the workspace packages
+// (@pendula/*) compiled in and every npm dependency left as an import resolved from node_modules.
+// Source maps sit beside each output. The stamp lists every file the bundles read (from esbuild's
+// metafile), so "stale" means exactly "one of those files changed since".
+import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
+import { dirname, join, relative, resolve } from "node:path";
+import { fileURLToPath } from "node:url";
+
+const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "..");
+const STAMP = join(ROOT, "dist", "build-stamp.json");
+
+/** Entry → output, both relative to the repository root. */
+export const ENTRIES = [
+  ["signal/src/cli.ts", "signal/dist/cli.js"],
+  ["signal/bench/bench.ts", "signal/dist/bench.js"],
+  ["ingest-server/src/server.ts", "ingest-server/dist/server.js"],
+  ["ingest-server/src/worker.ts", "ingest-server/dist/worker.js"],
+  ["ingest-server/src/dev/fakes.ts", "ingest-server/dist/fakes.js"],
+  ["ingest-server/src/dev/seed-demo.ts", "ingest-server/dist/seed-demo.js"],
+  ["db/src/migrate.ts", "db/dist/migrate.js"],
+];
+
+/** Files whose change alters every bundle although no bundle imports them. */
+const ALWAYS_INPUTS = ["scripts/build.mjs", "package.json", "package-lock.json", "tsconfig.json"];
+
+/** True when the last build is missing, incomplete, or older than any file it was built from. */
+export function isStale() {
+  let stamp;
+  try {
+    stamp = JSON.parse(readFileSync(STAMP, "utf8"));
+  } catch {
+    return true;
+  }
+  const builtMs = stamp.builtMs;
+  if (typeof builtMs !== "number" || !Array.isArray(stamp.inputs)) return true;
+  if (ENTRIES.some(([, out]) => !existsSync(join(ROOT, out)))) return true;
+  for (const rel of [...ALWAYS_INPUTS, ...stamp.inputs]) {
+    let mtimeMs;
+    try {
+      mtimeMs = statSync(join(ROOT, rel)).mtimeMs;
+    } catch {
+      return true; // an input was removed or renamed
+    }
+    if (mtimeMs > builtMs) return true;
+  }
+  return false;
+}
+
+/** npm packages named by any workspace: imported at run time from node_modules, never bundled. */
+function npmDependencies() {
+  const names = new Set();
+  for (const pkg of ["package.json", "signal/package.json", "db/package.json", "ingest-server/package.json"]) {
+    const json = JSON.parse(readFileSync(join(ROOT, pkg), "utf8"));
+    for (const field of ["dependencies", "devDependencies", "optionalDependencies", "peerDependencies"]) {
+      for (const name of Object.keys(json[field] ?? {})) if (!name.startsWith("@pendula/")) names.add(name);
+    }
+  }
+  return [...names].sort();
+}
+
+export async function build() {
+  const esbuild = await import("esbuild");
+  // Taken before reading, so a file saved during the build counts as newer than the build.
+  const startedMs = Date.now();
+  const external = npmDependencies();
+  const results = await Promise.all(
+    ENTRIES.map(([entry, out]) =>
+      esbuild.build({
+        absWorkingDir: ROOT,
+        entryPoints: [entry],
+        outfile: out,
+        bundle: true,
+        platform: "node",
+        format: "esm",
+        target: "node20",
+        sourcemap: "linked",
+        sourcesContent: false,
+        external,
+        metafile: true,
+        logLevel: "warning",
+      }),
+    ),
+  );
+  const inputs = new Set();
+  for (const r of results) for (const input of Object.keys(r.metafile.inputs)) inputs.add(relative(ROOT, resolve(ROOT, input)));
+  mkdirSync(dirname(STAMP), { recursive: true });
+  writeFileSync(STAMP, JSON.stringify({ builtMs: startedMs, esbuild: esbuild.version, inputs: [...inputs].sort() }, null, 1) + "\n");
+  return { entries: ENTRIES.length, inputs: inputs.size, seconds: (Date.now() - startedMs) / 1000 };
+}
+
+/** Builds when stale; says so on stderr (stdout may be a JSON answer). */
+export async function ensureBuilt() {
+  if (!isStale()) return false;
+  const r = await build();
+  process.stderr.write(`[pendula] built ${r.entries} entry points from ${r.inputs} files in ${r.seconds.toFixed(1)} s\n`);
+  return true;
+}
+
+if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
+  if (process.argv.includes("--if-stale")) await ensureBuilt();
+  else {
+    const r = await build();
+    process.stderr.write(`[pendula] built ${r.entries} entry points from ${r.inputs} files in ${r.seconds.toFixed(1)} s\n`);
+  }
+}
