@@ -1,13 +1,12 @@
 import {
   ALGORITHM_VERSION,
   analyze,
-  readBidsMotion,
-  readSensorCsv,
-  bidsSidecarNames,
+  readUploadSet,
   type Analysis,
   type AnalyzeOptions,
   type Placement,
   type SensorRecording,
+  type UploadFile,
 } from "@pendula/signal";
 import type { WalkingAid } from "../contracts/enums";
 import type { Knex } from "knex";
@@ -21,7 +20,7 @@ export type ProcessDeps = Pick<AppDeps, "db" | "storage">;
 export type ProcessOutcome = "done" | "missing";
 
 /**
- * Loads a session's raw files from storage, parses them with the same readers as the upload,
+ * Loads a session's raw files from storage, reads them with the upload's own readUploadSet,
  * applies the placements recorded at upload (from the device assignments), runs analyze() and
  * writes the result — analysis, metrics, strides and chart traces — in ONE transaction that first
  * deletes whatever an earlier run wrote. A re-run, or a retry after a crash half-way, therefore
@@ -72,41 +71,23 @@ async function setProgress(db: Knex, sessionId: string, pct: number): Promise<vo
   await db("walk_sessions").where({ id: sessionId }).update({ progress_pct: pct, updated_at: db.fn.now() });
 }
 
-/** Stored files → recordings with the upload-time placements (the file header's placement is not trusted). */
+/**
+ * Stored files → recordings, read by signal's readUploadSet exactly as the upload read them, with the
+ * upload-time placements (from the device assignments; a file header's placement is not trusted)
+ * and each BIDS set's acquisition time as recorded at upload.
+ */
 export async function loadRecordings(deps: Pick<ProcessDeps, "storage">, files: RawFileRow[]): Promise<SensorRecording[]> {
-  const texts = new Map<string, string>();
-  for (const f of files) texts.set(f.original_name, (await deps.storage.get(f.storage_key)).toString("utf8"));
-  const recordings: SensorRecording[] = [];
-  for (const f of files) {
-    if (f.format === "pendula-csv-v1") {
-      const r = readSensorCsv(texts.get(f.original_name)!, f.original_name);
-      recordings.push({ ...r, placement: f.placement as Placement });
-      continue;
-    }
-    if (!/_motion\.tsv$/i.test(f.original_name)) continue; // sidecars are read with their data file
-    const names = bidsSidecarNames(f.original_name);
-    const find = (name: string) => {
-      const hit = files.find((g) => g.original_name.toLowerCase() === name.toLowerCase());
-      if (!hit) throw new Error(`session file ${name} missing from storage records`);
-      return hit;
-    };
-    const channels = find(names.channels);
-    const json = find(names.json);
-    const group = readBidsMotion({
-      motionTsv: texts.get(f.original_name)!,
-      motionFileName: f.original_name,
-      channelsTsv: texts.get(channels.original_name)!,
-      channelsFileName: channels.original_name,
-      motionJson: texts.get(json.original_name)!,
-      jsonFileName: json.original_name,
-      startUtc: new Date(f.start_utc).toISOString(),
-    });
-    for (const r of group) {
-      const placement = f.recording_placements?.[r.deviceSerial] ?? f.placement;
-      recordings.push({ ...r, placement: placement as Placement });
-    }
-  }
-  return recordings;
+  const input: UploadFile[] = [];
+  for (const f of files) input.push({ name: f.original_name, bytes: await deps.storage.get(f.storage_key) });
+  const startOf = new Map(files.map((f) => [f.original_name, new Date(f.start_utc).toISOString()]));
+  const set = readUploadSet(input, { bidsStartUtc: (motionFileName) => startOf.get(motionFileName) });
+  const first = set.errors[0];
+  if (first) throw new Error(`stored file ${first.file} could not be read: ${first.message}`);
+  return set.recordings.map((r, i) => {
+    const f = files[set.recordingFile[i]!]!;
+    const placement = f.format === "bids-motion" ? (f.recording_placements?.[r.deviceSerial] ?? f.placement) : f.placement;
+    return { ...r, placement: placement as Placement };
+  });
 }
 
 async function writeResults(

@@ -5,3 +5,6 @@ export { readBidsMotionBytes, type BidsMotionBytes } from "./read-bids-motion-by
 export { sniffFormat, type SniffedFormat } from "./sniff";
 export { TRACKED_POINT_ALIASES, placementFromLabel, normalizeLabel } from "./placement-names";
 export { parseDecimal } from "./parse-number";
+export { readUploadSet, uploadBaseName, type UploadFile, type UploadFileError, type UploadFileFormat, type UploadFileRole, type UploadSet, type UploadSetFile, type ReadUploadSetOptions } from "./read-upload-set";
+export { isWellFormedUtf8 } from "./utf8";
+export { readBidsSidecars } from "./read-bids-motion";
