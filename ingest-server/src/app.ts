@@ -7,7 +7,9 @@ import helmet from "helmet";
 import { z } from "zod";
 import type { AppDeps } from "./deps";
 import { ApiRouter, type EndpointRecord, type RouteModule } from "./http/api-router";
+import { allowedHosts } from "./middleware/allowed-hosts";
 import { apiNotFound, errorHandler } from "./middleware/error-handler";
+import { proxyWarning } from "./middleware/proxy-warning";
 import { requestId } from "./middleware/request-id";
 import { buildOpenApiDocument } from "./openapi/build-document";
 import { ROUTE_TABLE } from "./routes";
@@ -33,6 +35,8 @@ export function createApp(deps: AppDeps, options: CreateAppOptions = {}): Expres
   app.set("query parser", "simple");
 
   app.use(requestId);
+  app.use(allowedHosts(config.allowedHosts));
+  app.use(proxyWarning(config.trustProxy));
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -60,6 +64,9 @@ export function createApp(deps: AppDeps, options: CreateAppOptions = {}): Expres
   // origin get no Access-Control-Allow-Origin and cannot read answers.
   app.use(cookieParser());
   app.use("/api", express.json({ limit: config.jsonBodyLimit }));
+  // Every API answer may carry health data (and the few public ones are cheap), so none is kept
+  // by a browser or a shared cache; the trend and session answers keep their ETag for clients that
+  // revalidate on their own (http/answer-cache.ts).
   app.use("/api", (_req, res, next) => {
     res.setHeader("Cache-Control", "no-store");
     next();

@@ -1,15 +1,23 @@
 import type { AddressInfo } from "node:net";
 import { createApp } from "./app";
 import { loadConfigOrExit } from "./config/env";
+import { startModeRefusal } from "./config/start-mode";
 import { createRuntime } from "./runtime";
 
 /**
  * `npm start -w ingest-server`: the HTTP server on 127.0.0.1 only. Prints its URL on a line of its
- * own (scripts wait for it) and drains connections on SIGINT/SIGTERM.
+ * own (scripts wait for it) and drains connections on SIGINT/SIGTERM. In production mode it does not
+ * start while demo accounts exist (config/start-mode.ts).
  */
 const config = loadConfigOrExit();
 
 const runtime = createRuntime(config, { application: "pendula-server" });
+const refusal = await startModeRefusal(config, runtime.deps.db);
+if (refusal) {
+  console.error(refusal);
+  await runtime.close();
+  process.exit(1);
+}
 const app = createApp(runtime.deps);
 const server = app.listen(config.port, config.host, () => {
   const { port } = server.address() as AddressInfo;

@@ -1,5 +1,6 @@
 import { ensureClinicalSchedules, workClinicalJobs } from "./clinical/notifications";
 import { loadConfigOrExit } from "./config/env";
+import { startModeRefusal } from "./config/start-mode";
 import { handleProcessSessionJob, requeueStaleSessions } from "./processing/session-job";
 import { QUEUES } from "./queue/queue";
 import type { ProcessSessionJob } from "./routes/sessions/upload.service";
@@ -15,6 +16,12 @@ const config = loadConfigOrExit();
 
 const runtime = createRuntime(config, { application: "pendula-worker" });
 const { deps } = runtime;
+const refusal = await startModeRefusal(config, deps.db);
+if (refusal) {
+  console.error(refusal);
+  await runtime.close();
+  process.exit(1);
+}
 const SWEEP_INTERVAL_MS = 5 * 60 * 1000;
 
 await deps.queue.work<ProcessSessionJob>(QUEUES.processSession, (job) => handleProcessSessionJob(deps, job));

@@ -15,7 +15,7 @@ import {
 } from "../../../db/seeds/demo-scenario";
 import { hashPassword } from "../auth/passwords";
 import { scopesFor } from "../auth/scopes";
-import { loadConfigOrExit } from "../config/env";
+import { isDemoMode, loadConfigOrExit } from "../config/env";
 import type { AppDeps } from "../deps";
 import type { AuthContext } from "../middleware/authenticate";
 import { processSession } from "../processing/process-session";
@@ -257,7 +257,7 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
   const staff = new Map<string, string>();
   for (const s of DEMO_STAFF) {
     const [row] = await db("users")
-      .insert({ email: s.email, display_name: s.displayName, password_hash: hash, role: s.role, status: "active" })
+      .insert({ email: s.email, display_name: s.displayName, password_hash: hash, role: s.role, status: "active", is_demo: true })
       .returning("id");
     staff.set(s.key, row.id as string);
   }
@@ -288,7 +288,7 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
     let patientUserId: string | null = null;
     if (p.email) {
       const [u] = await db("users")
-        .insert({ email: p.email, display_name: p.displayName, password_hash: hash, role: "patient", status: "active", patient_id: patientId })
+        .insert({ email: p.email, display_name: p.displayName, password_hash: hash, role: "patient", status: "active", patient_id: patientId, is_demo: true })
         .returning("id");
       patientUserId = u.id as string;
     }
@@ -344,6 +344,11 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
 async function main(): Promise<void> {
   const { values } = parseArgs({ options: { "if-empty": { type: "boolean", default: false }, "max-weeks": { type: "string" } } });
   const config = loadConfigOrExit();
+  if (!isDemoMode(config)) {
+    // The demo accounts share a published password; they must never reach a production database.
+    console.error("demo seed: refused, PENDULA_MODE is not demo");
+    process.exit(2);
+  }
   const runtime = createRuntime(config, { application: "pendula-seed" });
   const deps: AppDeps = { ...runtime.deps, queue: noQueue() };
   try {

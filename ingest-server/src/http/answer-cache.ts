@@ -81,11 +81,13 @@ export class AnswerCache {
 
 /**
  * Sends a cached answer: 304 when the client's validator still matches, the gzip copy when the
- * client accepts it (every browser does), the text otherwise. The answer stays private to the
- * signed-in caller and is revalidated on every use.
+ * client accepts it (every browser does), the text otherwise. `no-store` like every API answer:
+ * health data must not stay in a browser's disk cache on a shared ward computer. Browsers then never
+ * revalidate, so the gain of this cache is on the server (the answer is built once, not per read);
+ * a client that keeps its own copy may still send If-None-Match and get a 304.
  */
 export function sendCachedAnswer(req: Request, res: Response, entry: CachedAnswer): void {
-  res.status(200).type("application/json").vary("Accept-Encoding").set("ETag", entry.etag).set("Cache-Control", "private, no-cache");
+  res.status(200).type("application/json").vary("Accept-Encoding").set("ETag", entry.etag).set("Cache-Control", "no-store");
   if (req.fresh) {
     res.status(304).end();
     return;
