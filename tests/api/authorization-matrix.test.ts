@@ -128,6 +128,45 @@ const RULES: Record<string, Rule> = {
     build: async () => ({ method: "post", url: "/api/auth/password-reset/confirm", body: { token: "y".repeat(43), password: "a-long-password-2" } }),
   },
   "GET /api/me": { expect: { own: S(200, 200, 200, 200, 401) }, build: async () => ({ method: "get", url: "/api/me" }) },
+  // Second factor. The matrix's tokens belong to accounts without an authenticator: everyone may
+  // read their standing and start an enrolment; a wrong first code is 422; codes of an account
+  // without one are 409; staff may not remove theirs (403); only an admin resets someone else's.
+  "POST /api/auth/login/second-factor": {
+    expect: { own: ALL(401) },
+    build: async () => ({ method: "post", url: "/api/auth/login/second-factor", body: { challenge: "z".repeat(43), method: "totp", code: "123456" } }),
+  },
+  "GET /api/auth/second-factor": { expect: { own: S(200, 200, 200, 200, 401) }, build: async () => ({ method: "get", url: "/api/auth/second-factor" }) },
+  "POST /api/auth/second-factor/enrolment": {
+    expect: { own: S(200, 200, 200, 200, 401) },
+    build: async () => ({ method: "post", url: "/api/auth/second-factor/enrolment" }),
+  },
+  "POST /api/auth/second-factor/enrolment/confirm": {
+    expect: { own: S(422, 422, 422, 422, 401) },
+    build: async (_v, actor) => {
+      if (actor !== "anonymous") {
+        const start = await request(ctx.app).post("/api/auth/second-factor/enrolment").set("Authorization", `Bearer ${f.tokens[actor]}`);
+        expect(start.status).toBe(200);
+      }
+      // 000000 is one of the 3 codes valid at a time out of 10^6 with probability 3·10^-6.
+      return { method: "post", url: "/api/auth/second-factor/enrolment/confirm", body: { code: "000000" } };
+    },
+  },
+  "POST /api/auth/second-factor/recovery-codes": {
+    expect: { own: S(409, 409, 409, 409, 401) },
+    build: async () => ({ method: "post", url: "/api/auth/second-factor/recovery-codes", body: { code: "123456" } }),
+  },
+  "POST /api/auth/second-factor/remove": {
+    expect: { own: S(409, 403, 403, 403, 401) },
+    build: async () => ({ method: "post", url: "/api/auth/second-factor/remove", body: { code: "123456" } }),
+  },
+  "POST /api/auth/second-factor/users/:id/reset": {
+    expect: { own: ADMIN_ONLY(200) },
+    build: async () => {
+      const target = await ctx.seedUser({ role: "clinician", secondFactor: true });
+      return { method: "post", url: `/api/auth/second-factor/users/${target.id}/reset`, body: { reason: "matrix: phone replaced" } };
+    },
+  },
+
 
   "GET /api/users": { expect: { own: ADMIN_ONLY(200) }, build: async () => ({ method: "get", url: "/api/users?limit=500" }) },
   "GET /api/users/:id": {
@@ -222,6 +261,33 @@ const RULES: Record<string, Rule> = {
   },
   "GET /api/audit": { expect: { own: ADMIN_ONLY(200) }, build: async () => ({ method: "get", url: "/api/audit?limit=500" }) },
   "GET /api/dev/mailbox": { expect: { own: ADMIN_ONLY(200) }, build: async () => ({ method: "get", url: "/api/dev/mailbox" }) },
+
+  // Caseload links: admins list, make and end them; a clinician lists their own (asking for another
+  // clinician's is 403); a patient reads only their care team.
+  "GET /api/caseload-links": {
+    expect: { own: S(403, 200, 403, 200, 401), other: S(403, 403, 403, 200, 401) },
+    build: async (v) => ({ method: "get", url: `/api/caseload-links?state=all&clinicianId=${side(v).clinician.id}` }),
+  },
+  "POST /api/caseload-links": {
+    expect: { own: ADMIN_ONLY(201) },
+    build: async () => {
+      const patientId = await ctx.seedPatient({ displayName: `Linked Walker ${uniq()}` });
+      return { method: "post", url: "/api/caseload-links", body: { clinicianId: f.A.clinician.id, patientId, reason: "matrix: covering a colleague" } };
+    },
+  },
+  "DELETE /api/caseload-links/:id": {
+    expect: { own: ADMIN_ONLY(200) },
+    build: async () => {
+      const patientId = await ctx.seedPatient({ displayName: `Unlinked Walker ${uniq()}` });
+      await ctx.addToCaseload(f.A.clinician.id, patientId);
+      const link = await ctx.db("caseload_links").where({ patient_id: patientId }).first("id");
+      return { method: "delete", url: `/api/caseload-links/${link.id}`, body: { reason: "matrix: discharged" } };
+    },
+  },
+  "GET /api/caseload-links/care-team": {
+    expect: { own: S(200, 403, 403, 403, 401) },
+    build: async () => ({ method: "get", url: "/api/caseload-links/care-team" }),
+  },
 
   // A patient uploads for themself (a patientId of someone else is 404); a clinician for the caseload.
   "POST /api/sessions": {

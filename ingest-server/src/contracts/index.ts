@@ -15,3 +15,4 @@ export * from "./trends";
 export * from "./notes";
 export * from "./training";
 export * from "./research";
+export * from "./caseload-links";

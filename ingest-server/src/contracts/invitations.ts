@@ -11,7 +11,9 @@ export const newPatientFields = z.object({
   condition: z.enum(CONDITIONS),
   conditionDetail: z.string().trim().max(500).optional(),
   enrolledOn: isoDate,
+  /** A clinician's tick is a proposal the patient confirms in the portal; an admin's needs researchConsentReason. */
   researchConsent: z.boolean().default(false),
+  researchConsentReason: z.string().trim().max(500).optional(),
   expectedUploadsPerWeek: z.number().int().min(0).max(14).default(1),
 });
 
@@ -22,7 +24,7 @@ export const createInvitationRequest = z
     role: z.enum(ROLES),
     patient: newPatientFields.optional(),
     patientId: z.uuid().optional(),
-    /** Admin inviting a patient: clinicians whose caseload the patient joins. */
+    /** Refused (422 use_caseload_links): access is given by caseload links, never by an invitation. */
     clinicianIds: z.array(z.uuid()).max(20).optional(),
   })
   .superRefine((v, ctx) => {

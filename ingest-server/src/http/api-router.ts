@@ -1,6 +1,7 @@
 import express, { type Request, type RequestHandler, type Response, type Router } from "express";
 import type { z } from "zod";
 import type { AppDeps } from "../deps";
+import { auditRefusals, isPatientScopedPath } from "../audit/refused-access";
 import type { Scope } from "../auth/scopes";
 import { authenticate, requireAuth, type AuthContext } from "../middleware/authenticate";
 import { requireScope } from "../middleware/require-scope";
@@ -105,10 +106,12 @@ export class ApiRouter {
       }
       res.status(status).json(spec.response ? conformResponse(spec.response, result, spec.method, spec.path) : result);
     });
-    this.router[spec.method](spec.path, ...chain);
+    const fullPath = joinPath(this.prefix, spec.path);
+    if (isPatientScopedPath(fullPath)) this.router[spec.method](spec.path, ...chain, auditRefusals(this.deps, { method: spec.method, path: fullPath }));
+    else this.router[spec.method](spec.path, ...chain);
     this.endpoints.push({
       method: spec.method,
-      path: joinPath(this.prefix, spec.path),
+      path: fullPath,
       summary: spec.summary,
       access: spec.access,
       request: { body: spec.request?.body, query: spec.request?.query, params: spec.request?.params },

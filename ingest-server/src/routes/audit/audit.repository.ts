@@ -1,6 +1,7 @@
 import type { Knex } from "knex";
 import type { z } from "zod";
 import type { AuditEventView, listAuditQuery } from "../../contracts/audit";
+import { auditViewForAdmin } from "./audit-view";
 
 type Filter = z.output<typeof listAuditQuery>;
 
@@ -10,6 +11,7 @@ interface Row {
   actor_id: string | null;
   actor_role: string | null;
   actor_email: string | null;
+  actor_current_role: string | null;
   action: string;
   resource_type: string;
   resource_id: string | null;
@@ -19,20 +21,24 @@ interface Row {
   details: Record<string, unknown> | null;
 }
 
-const toView = (r: Row): AuditEventView => ({
-  id: String(r.id),
-  at: r.at.toISOString(),
-  actorId: r.actor_id,
-  actorRole: r.actor_role,
-  actorEmail: r.actor_email,
-  action: r.action,
-  resourceType: r.resource_type,
-  resourceId: r.resource_id,
-  patientId: r.patient_id,
-  ip: r.ip,
-  userAgent: r.user_agent,
-  details: r.details,
-});
+const toView = (r: Row): AuditEventView =>
+  auditViewForAdmin(
+    {
+      id: String(r.id),
+      at: r.at.toISOString(),
+      actorId: r.actor_id,
+      actorRole: r.actor_role ?? r.actor_current_role,
+      actorEmail: r.actor_email,
+      action: r.action,
+      resourceType: r.resource_type,
+      resourceId: r.resource_id,
+      patientId: r.patient_id,
+      ip: r.ip,
+      userAgent: r.user_agent,
+      details: r.details,
+    },
+    r.actor_role === "patient" || r.actor_current_role === "patient",
+  );
 
 export const auditRepository = {
   async list(db: Knex, f: Filter): Promise<{ items: AuditEventView[]; total: number }> {
@@ -50,7 +56,7 @@ export const auditRepository = {
     const rows = (await base
       .clone()
       .leftJoin("users as u", "u.id", "e.actor_id")
-      .select("e.*", "u.email as actor_email")
+      .select("e.*", "u.email as actor_email", "u.role as actor_current_role")
       .orderBy([
         { column: "e.at", order: "desc" },
         { column: "e.id", order: "desc" },

@@ -87,8 +87,4 @@ export const invitationsRepository = {
     const [row] = await db("invitations").insert(i).returning("id");
     return row.id as string;
   },
-
-  addToCaseload(db: Db, clinicianId: string, patientId: string) {
-    return db("caseload").insert({ clinician_id: clinicianId, patient_id: patientId }).onConflict(["clinician_id", "patient_id"]).ignore();
-  },
 };

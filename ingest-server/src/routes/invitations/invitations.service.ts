@@ -8,33 +8,32 @@ import { newOpaqueToken } from "../../auth/opaque-token";
 import { assertPatientAccess } from "../../auth/patient-access";
 import type { AuthContext } from "../../middleware/authenticate";
 import { HttpError } from "../../http-error";
+import { openCaseloadLink } from "../caseload-links/caseload-links.service";
+import { recordConsentAtEnrolment } from "../consent/consent.service";
 import { invitationsRepository as repo, toInvitationSummary } from "./invitations.repository";
 
 type CreateInvitation = z.output<typeof createInvitationRequest>;
 const DAY_MS = 86_400_000;
 
 export function createInvitationsService({ db, config, mailer }: AppDeps) {
-  async function resolveClinicians(trx: typeof db, ids: string[]): Promise<string[]> {
-    if (ids.length === 0) return [];
-    const rows = await trx("users").whereIn("id", ids).where({ role: "clinician" }).whereNot({ status: "disabled" }).select("id");
-    const found = new Set(rows.map((r: { id: string }) => r.id));
-    const missing = ids.filter((id) => !found.has(id));
-    if (missing.length) throw new HttpError(422, "unknown_clinician", `not an enabled clinician: ${missing.join(", ")}`, { clinicianIds: missing });
-    return ids;
-  }
-
   return {
     /**
-     * Admins invite any role; a clinician invites patients only, and each patient they invite joins
-     * their caseload. Re-inviting an account still waiting for its first sign-in issues a new link
-     * and retires the old one.
+     * Admins invite any role; a clinician invites patients only. An invitation never changes who
+     * can read a patient's data, with one exception: a clinician who enrols a new patient by
+     * inviting them gets that patient on their caseload, recorded as a caseload link of its own.
+     * Re-inviting an account still waiting for its first sign-in issues a new link and retires the
+     * old one; an account that has signed in is never re-invited.
      */
     async create(actor: AuthContext, input: CreateInvitation, req: Request): Promise<CreateInvitationResponse> {
       if (actor.role === "clinician" && input.role !== "patient") {
         throw new HttpError(403, "forbidden", "clinicians can invite patients only");
       }
-      if (actor.role === "clinician" && input.clinicianIds?.length) {
-        throw new HttpError(422, "invalid_request", "clinicianIds is for admins; a clinician's invitee joins their own caseload");
+      if (input.clinicianIds?.length) {
+        throw new HttpError(
+          422,
+          "use_caseload_links",
+          "an invitation does not give clinicians access; add caseload links explicitly (POST /api/caseload-links) with a reason",
+        );
       }
       const token = newOpaqueToken();
       const expiresAt = new Date(Date.now() + config.invitationTtlDays * DAY_MS);
@@ -44,7 +43,10 @@ export function createInvitationsService({ db, config, mailer }: AppDeps) {
         let userId: string;
         let patientId: string | null = null;
         if (existing) {
-          if (existing.status !== "invited") throw new HttpError(409, "email_taken", "an account with this e-mail already exists");
+          if (existing.status === "active") {
+            throw new HttpError(409, "account_active", "this person already has an active account: they sign in, or reset their password, instead of a new invitation");
+          }
+          if (existing.status !== "invited") throw new HttpError(409, "account_disabled", "this account is disabled: enable it on the Users page instead of inviting it again");
           if (existing.role !== input.role) {
             throw new HttpError(409, "email_taken", `this e-mail is already invited as ${existing.role}`);
           }
@@ -76,9 +78,10 @@ export function createInvitationsService({ db, config, mailer }: AppDeps) {
                 condition: p.condition,
                 condition_detail: p.conditionDetail ?? null,
                 enrolled_on: p.enrolledOn,
-                research_consent: p.researchConsent,
+                research_consent: false,
                 expected_uploads_per_week: p.expectedUploadsPerWeek,
               });
+              if (p.researchConsent) await recordConsentAtEnrolment(db, trx, req, actor, patientId, p.researchConsentReason);
             }
           }
           userId = await repo.insertUser(trx, {
@@ -88,9 +91,8 @@ export function createInvitationsService({ db, config, mailer }: AppDeps) {
             patient_id: patientId,
           });
         }
-        if (patientId) {
-          const clinicians = actor.role === "clinician" ? [actor.userId] : await resolveClinicians(trx, input.clinicianIds ?? []);
-          for (const c of clinicians) await repo.addToCaseload(trx, c, patientId);
+        if (actor.role === "clinician" && !existing && input.patient && patientId) {
+          await openCaseloadLink(trx, req, actor, { clinicianId: actor.userId, patientId, reason: "enrolled by this clinician's invitation" });
         }
         const invitationId = await repo.insertInvitation(trx, {
           user_id: userId,

@@ -56,6 +56,10 @@ describe("POST /api/invitations", () => {
     expect(res.status).toBe(201);
     expect(res.body.patientId).toMatch(/^[0-9a-f-]{36}$/);
     expect(await ctx.db("caseload").where({ clinician_id: clinician.id, patient_id: res.body.patientId }).first()).toBeTruthy();
+    // The enrolment is a caseload link of its own: author, reason and audit event.
+    const [linkRow] = await ctx.db("caseload_links").where({ patient_id: res.body.patientId }).select("id", "clinician_id", "created_by", "reason");
+    expect(linkRow).toMatchObject({ clinician_id: clinician.id, created_by: clinician.id, reason: "enrolled by this clinician's invitation" });
+    expect(await ctx.db("audit_events").where({ action: "caseload_link.create", resource_id: linkRow.id }).first()).toBeTruthy();
     const patient = await ctx.db("patients").where({ id: res.body.patientId }).first();
     expect(patient).toMatchObject({ display_name: "Ivo Brandt", birth_year: 1971, condition: "incomplete_sci", research_consent: false });
     const { token } = await tokenFromMail("ivo.brandt@example.test");
@@ -87,7 +91,8 @@ describe("POST /api/invitations", () => {
   });
 
   it("refuses an address that already has an active account (409) and bad bodies (400)", async () => {
-    expect((await invite(adminToken, { email: clinician.email, displayName: "Dup", role: "clinician" })).status).toBe(409);
+    const dup = await invite(adminToken, { email: clinician.email, displayName: "Dup", role: "clinician" });
+    expect([dup.status, dup.body.error.code]).toEqual([409, "account_active"]);
     expect((await invite(adminToken, { email: "p@example.test", displayName: "P", role: "patient" })).status).toBe(400);
     expect((await invite(adminToken, { email: "c@example.test", displayName: "C", role: "clinician", patient: newPatient })).status).toBe(400);
     expect((await invite(adminToken, { email: "c@example.test", displayName: "C", role: "superuser" })).status).toBe(400);
