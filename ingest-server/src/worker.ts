@@ -3,6 +3,7 @@ import { loadConfigOrExit } from "./config/env";
 import { startModeRefusal } from "./config/start-mode";
 import { handleProcessSessionJob, requeueStaleSessions } from "./processing/session-job";
 import { QUEUES } from "./queue/queue";
+import { refreshStaleCaseloadFlags } from "./routes/patients/caseload-flags.repository";
 import type { ProcessSessionJob } from "./routes/sessions/upload.service";
 import { createRuntime } from "./runtime";
 
@@ -24,7 +25,13 @@ if (refusal) {
 }
 const SWEEP_INTERVAL_MS = 5 * 60 * 1000;
 
-await deps.queue.work<ProcessSessionJob>(QUEUES.processSession, (job) => handleProcessSessionJob(deps, job));
+// One session at a time per process: one fetch loop, one job per fetch, so a worker never holds
+// more than one session's arrays (a 30-minute four-sensor session peaks near 300 MB). Scale by
+// starting more processes, up to the cores available.
+await deps.queue.work<ProcessSessionJob>(QUEUES.processSession, (job) => handleProcessSessionJob(deps, job), {
+  batchSize: 1,
+  pollingIntervalSeconds: 2,
+});
 // Weekly reminders and digests (cron in the same queue) and per-session change alerts.
 await ensureClinicalSchedules(config);
 await workClinicalJobs(deps);
@@ -38,6 +45,20 @@ const sweep = async () => {
 };
 await sweep();
 const timer = setInterval(sweep, SWEEP_INTERVAL_MS);
+// Stored caseload flags of another rules version (or never stored: a database from before the
+// table) are recomputed now, in the background, so the caseload's first read does not do it.
+// One worker at a time (advisory lock); the others skip, and a read recomputes any row left over.
+void (async () => {
+  try {
+    const n = await deps.db.transaction(async (trx) => {
+      const got = await trx.raw("SELECT pg_try_advisory_xact_lock(hashtext('pendula.caseload_flags.refresh')) AS got");
+      return got.rows[0]?.got ? refreshStaleCaseloadFlags(deps.db) : 0;
+    });
+    if (n > 0) console.log(`[worker] caseload flags recomputed for ${n} patient(s)`);
+  } catch (err) {
+    console.error("[worker] caseload flag refresh failed; the caseload will recompute stale rows on read", err);
+  }
+})();
 console.log(`worker ready: ${QUEUES.processSession}`);
 
 let stopping = false;

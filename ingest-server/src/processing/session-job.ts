@@ -3,6 +3,7 @@ import type { AppDeps } from "../deps";
 import { QUEUES, type QueueJob } from "../queue/queue";
 import type { ProcessSessionJob } from "../routes/sessions/upload.service";
 import { enqueueChangeAlerts } from "../clinical/notifications";
+import { refreshCaseloadFlags } from "../routes/patients/caseload-flags.repository";
 import { markFailed, markRetrying, processSession } from "./process-session";
 
 /** Short, clinician-readable reason; the full error goes to the worker log. */
@@ -29,17 +30,35 @@ export async function handleProcessSessionJob(deps: Pick<AppDeps, "db" | "storag
     console.error(`[worker] session ${sessionId} attempt ${job.retryCount + 1}/${job.retryLimit + 1} failed`, err);
     if (last) {
       await markFailed(deps.db, sessionId, text);
+      // A reprocessed session that failed has left the patient's processed series.
+      await storeFlagsOf(deps, sessionId);
       return;
     }
     await markRetrying(deps.db, sessionId, text);
     throw err;
   }
   if (outcome !== "done") return;
+  await storeFlagsOf(deps, sessionId);
   // Alerts are a separate job: a mail-server outage must not turn a processed session into a failed one.
   try {
     await enqueueChangeAlerts(deps, sessionId);
   } catch (err) {
     console.error(`[worker] session ${sessionId}: could not enqueue change alerts`, err);
+  }
+}
+
+/**
+ * Stores the caseload flags of the session's patient as they stand now. Right after the commit
+ * that marked the session processed, so the first caseload read after it (or after a restart)
+ * reads them instead of recomputing. A failure here costs only that: the caseload read sees the
+ * stale fingerprint and recomputes the row, so it never fails the job.
+ */
+async function storeFlagsOf(deps: Pick<AppDeps, "db">, sessionId: string): Promise<void> {
+  try {
+    const row: { patient_id: string } | undefined = await deps.db("walk_sessions").where({ id: sessionId }).first("patient_id");
+    if (row) await refreshCaseloadFlags(deps.db, [row.patient_id]);
+  } catch (err) {
+    console.error(`[worker] session ${sessionId}: could not store caseload flags (the caseload will recompute them)`, err);
   }
 }
 

@@ -40,7 +40,26 @@ export interface QueueJob<T> {
 export interface WorkOptions {
   /** Jobs fetched and handled one after another per poll (default 1). */
   batchSize?: number;
+  /**
+   * How often an idle worker looks for jobs (default 2 s). A job sent through this class also
+   * wakes idle workers at once (NOTIFY_CHANNEL), so this is the fallback, not the pick-up delay.
+   */
   pollingIntervalSeconds?: number;
+}
+
+/**
+ * After each send, `pg_notify(NOTIFY_CHANNEL, <queue name>)`; every process working that queue
+ * listens and wakes its idle worker, so a job is picked up in milliseconds instead of after up to
+ * one polling interval. A lost notification (listener reconnecting) only falls back to polling.
+ */
+export const NOTIFY_CHANNEL = "pendula_job_sent";
+
+/** The part of pg's pooled client the listener uses (pg-boss's own pool hands it out). */
+interface ListenClient {
+  query(sql: string): Promise<unknown>;
+  on(event: "notification", listener: (msg: { channel: string; payload?: string }) => void): unknown;
+  on(event: "error", listener: (err: Error) => void): unknown;
+  release(err?: Error | boolean): void;
 }
 
 export interface JobQueue {
@@ -69,6 +88,9 @@ export class PgBossQueue implements JobQueue {
   private starting: Promise<void> | undefined;
 
   private readonly policies: Partial<Record<string, "standard" | "stately">>;
+  /** Worker ids per queue name, woken by the listener. */
+  private readonly workers = new Map<string, string[]>();
+  private listener: Promise<ListenClient | undefined> | undefined;
 
   constructor(
     connectionString: string,
@@ -117,6 +139,9 @@ export class PgBossQueue implements JobQueue {
     if (!this.started) return;
     this.started = false;
     this.starting = undefined;
+    const listener = await this.listener?.catch(() => undefined);
+    this.listener = undefined;
+    listener?.release(true);
     await this.boss.stop({ graceful: true, wait: true, timeout: 10_000 });
   }
 
@@ -137,7 +162,44 @@ export class PgBossQueue implements JobQueue {
     await this.ensureQueue(name);
     // On a stately queue every key-less job would share the empty key; give each its own.
     const singletonKey = options.singletonKey ?? (this.policies[name] === "stately" ? randomUUID() : undefined);
-    return this.boss.send(name, data, { ...DEFAULT_RETRY, ...options, ...(singletonKey ? { singletonKey } : {}) });
+    const id = await this.boss.send(name, data, { ...DEFAULT_RETRY, ...options, ...(singletonKey ? { singletonKey } : {}) });
+    if (id) {
+      // The job is committed; waking workers is best effort (they poll anyway).
+      await this.boss
+        .getDb()
+        .executeSql("SELECT pg_notify($1, $2)", ["nobody_listens", name])
+        .catch((err: unknown) => console.error("[queue] notify failed; workers will poll", err));
+    }
+    return id;
+  }
+
+  /**
+   * One connection per process, held from pg-boss's pool, LISTENing on NOTIFY_CHANNEL. When the
+   * pool is not reachable (another pg-boss layout) or the connection fails, workers just poll.
+   */
+  private listen(): Promise<ListenClient | undefined> {
+    this.listener ??= (async () => {
+      const pool = (this.boss.getDb() as { pool?: { connect(): Promise<ListenClient> } }).pool;
+      if (!pool) return undefined;
+      const client = await pool.connect();
+      client.on("notification", (msg) => {
+        if (msg.channel !== NOTIFY_CHANNEL || !msg.payload) return;
+        for (const id of this.workers.get(msg.payload) ?? []) this.boss.notifyWorker(id);
+      });
+      client.on("error", (err) => {
+        console.error("[queue] job listener lost; polling until it reconnects", err);
+        this.listener = undefined;
+        client.release(err);
+        if (this.started) setTimeout(() => void this.listen().catch(() => undefined), 1000).unref();
+      });
+      await client.query(`LISTEN ${NOTIFY_CHANNEL}`);
+      return client;
+    })().catch((err: unknown) => {
+      console.error("[queue] cannot listen for sent jobs; polling only", err);
+      this.listener = undefined;
+      return undefined;
+    });
+    return this.listener;
   }
 
   async work<T extends object>(
@@ -147,7 +209,7 @@ export class PgBossQueue implements JobQueue {
   ): Promise<string> {
     await this.start();
     await this.ensureQueue(name);
-    return this.boss.work<T>(
+    const id = await this.boss.work<T>(
       name,
       { includeMetadata: true, batchSize: options.batchSize ?? 1, pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
       async (jobs) => {
@@ -158,6 +220,9 @@ export class PgBossQueue implements JobQueue {
         }
       },
     );
+    this.workers.set(name, [...(this.workers.get(name) ?? []), id]);
+    await this.listen();
+    return id;
   }
 
   /** State of one job (tests and the reprocess route use it). */

@@ -61,4 +61,17 @@ describe("PgBossQueue", () => {
     const { rows } = await ctx.db.raw("SELECT 1 FROM information_schema.schemata WHERE schema_name = ?", [ctx.config.queueSchema]);
     expect(rows).toHaveLength(1);
   });
+
+  it("wakes an idle worker when a job is sent, instead of waiting for its next poll", async () => {
+    const seen: number[] = [];
+    // A 60 s poll: the worker's first fetch finds nothing, and only the notification can wake it.
+    await queue.work<{ n: number }>("test-wake", async (job) => {
+      seen.push(job.data.n);
+    }, { pollingIntervalSeconds: 60 });
+    await new Promise((r) => setTimeout(r, 500));
+    await queue.send("test-wake", { n: 1 });
+    // Generous bound, about liveness: far below the 60 s poll, far above a notification's delay.
+    await until(() => seen.length === 1, 15_000);
+    expect(seen).toEqual([1]);
+  });
 });

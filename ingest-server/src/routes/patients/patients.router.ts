@@ -3,8 +3,7 @@ import { patientDetail, patientList, patientListQuery, patientSessions, patientS
 import { trendsQuery, trendsResponse } from "../../contracts/trends";
 import type { AppDeps } from "../../deps";
 import { ApiRouter, conformResponse, type RouteModule } from "../../http/api-router";
-import { FingerprintCache } from "./fingerprint-cache";
-import { getPatient, getPatientSessions, getTrendsJson, listPatientsFor, updatePatient, type CaseloadFlags } from "./patients.service";
+import { getPatient, getPatientSessions, getTrendsJson, listPatientsFor, updatePatient } from "./patients.service";
 import { unprocessableUnless } from "../unprocessable-body";
 import { AnswerCache, sendCachedAnswer } from "../../http/answer-cache";
 
@@ -13,8 +12,6 @@ const CLINICAL_READ = ["sessions:read:own", "sessions:read:caseload"] as const;
 export function patientsRouter(deps: AppDeps): ApiRouter {
   const api = new ApiRouter("/api/patients", deps);
   const trendCache = new AnswerCache(deps.config.trendCacheBytes);
-  // A flag list is a few dozen bytes; 20 000 patients' worth stays well under a megabyte.
-  const caseloadFlagCache = new FingerprintCache<CaseloadFlags>(20_000);
   api.endpoint({
     method: "get",
     path: "/",
@@ -22,7 +19,7 @@ export function patientsRouter(deps: AppDeps): ApiRouter {
     access: { scopes: ["patients:read:caseload", "patients:list"] },
     request: { query: patientListQuery },
     response: patientList,
-    handler: ({ auth, query }, req) => listPatientsFor(deps, req, auth, query.q, caseloadFlagCache),
+    handler: ({ auth, query }, req) => listPatientsFor(deps, req, auth, query.q),
   });
   api.endpoint({
     method: "get",

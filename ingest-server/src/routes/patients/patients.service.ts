@@ -18,28 +18,13 @@ import {
   sessionMetricValues,
   sessionStats,
   trendRows,
-  trendFingerprints,
-  trendRowsByPatient,
   updatePatientFields,
   type PatientRow,
 } from "./patients.repository";
-import type { FingerprintCache } from "./fingerprint-cache";
+import { readCaseloadFlags } from "./caseload-flags.repository";
 import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
 
 const SUMMARY_KEYS = ["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct", "walkingSpeedMPerS", "strideLengthM"];
-/** Metrics whose change flags and coordination events the caseload table summarises. */
-const CASELOAD_FLAG_KEYS = [
-  "walkingSpeedMPerS",
-  "cadenceStepsPerMin",
-  "strideTimeCvPct",
-  "doubleSupportPct",
-  "phaseCoordinationIndexPct",
-  "gaitAsymmetryPct",
-  "armLegLeftArmRightLegFrequencyRatio",
-  "armLegRightArmLeftLegFrequencyRatio",
-  "armLegLeftArmRightLegCouplingStrength",
-  "armLegRightArmLeftLegCouplingStrength",
-];
 const ADHERENCE_WINDOW_WEEKS = 4;
 
 const isoOrNull = (d: Date | null | undefined) => (d ? new Date(d).toISOString() : null);
@@ -88,41 +73,16 @@ function groupTrendRows(rows: Awaited<ReturnType<typeof trendRows>>): TrendInput
   return [...grouped.values()].sort((a, b) => METRIC_KEYS.indexOf(a.key) - METRIC_KEYS.indexOf(b.key));
 }
 
-/**
- * The flags open on a patient's latest session: metrics beyond MDC (improved or worsened) and
- * coordination events raised by that session — the same rules as the trend page, so the
- * caseload never disagrees with it. A prompt to look, not a diagnosis.
- */
-function latestSessionFlags(p: PatientRow, rows: Awaited<ReturnType<typeof trendRows>>): CaseloadFlags {
-  const metrics = groupTrendRows(rows);
-  if (metrics.length === 0) return [];
-  const annotated = annotateTrends({ metrics, patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: p.enrolled_on } });
-  const latestSessionId = metrics
-    .flatMap((m) => m.points)
-    .reduce((a, b) => (a && a.recordedAt >= b.recordedAt ? a : b)).sessionId;
-  const out: CaseloadFlags = [];
-  for (const m of annotated.metrics) {
-    const last = m.points.at(-1);
-    if (last && last.sessionId === latestSessionId && (last.flag === "improved" || last.flag === "worsened")) out.push({ metricKey: m.key, flag: last.flag });
-    // A variability value from too few strides was not compared: say so rather than stay silent.
-    else if (last && last.sessionId === latestSessionId && last.excludedReason === "few-strides") out.push({ metricKey: m.key, flag: "few-strides" });
-  }
-  for (const e of annotated.events) if (e.sessionId === latestSessionId) out.push({ metricKey: e.metricKey, flag: e.kind });
-  // Named in words with a severity, most urgent first (clinical/caseload-flags.ts).
-  return orderCaseloadFlags(out);
-}
-
-export type CaseloadFlags = Array<{ metricKey: string; flag: string; kind?: string; label?: string; severity?: number }>;
-
 /** Adherence looks at the last four ended weeks; eight weeks of dates cover them and the current one. */
 const ADHERENCE_DATES_WINDOW_MS = 8 * 7 * 86_400_000;
 
 /**
  * Clinician: own caseload with summary columns. Admin: every patient, identity columns only.
- * Each patient's flags are kept in `flagCache` while its trend fingerprint holds, so a caseload
- * page re-read costs one aggregate query for the fingerprints instead of every patient's series.
+ * Each patient's flags are the ones stored when its latest session was processed
+ * (caseload-flags.repository.ts), recomputed here only for a patient whose inputs changed since,
+ * so the first read after a start costs what a re-read costs.
  */
-export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthContext, q: string | undefined, flagCache: FingerprintCache<CaseloadFlags>) {
+export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthContext, q: string | undefined) {
   if (auth.role === "admin") {
     const rows = await listPatients(deps.db, null, q);
     await audit(deps.db, req, { action: "patient.list", resourceType: "patient", details: { count: rows.length, view: "identity" } });
@@ -132,21 +92,12 @@ export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthCon
   const rows = await listPatients(deps.db, auth.userId, q);
   const ids = rows.map((r) => r.id);
   const now = new Date();
-  const [stats, dates, latest, fingerprints] = await Promise.all([
+  const [stats, dates, latest, flags] = await Promise.all([
     sessionStats(deps.db, ids),
     sessionDates(deps.db, ids, new Date(now.getTime() - ADHERENCE_DATES_WINDOW_MS)),
     latestMetrics(deps.db, ids, SUMMARY_KEYS),
-    trendFingerprints(deps.db, ids),
+    readCaseloadFlags(deps.db, rows),
   ]);
-  const fingerprintOf = (p: PatientRow) => `${fingerprints.get(p.id)}|${p.birth_year}|${p.condition}|${p.enrolled_on}`;
-  const flags = new Map<string, CaseloadFlags>();
-  for (const p of rows) {
-    const hit = flagCache.get(p.id, fingerprintOf(p));
-    if (hit) flags.set(p.id, hit);
-  }
-  const missing = rows.filter((p) => !flags.has(p.id));
-  const flagRows = await trendRowsByPatient(deps.db, missing.map((p) => p.id), CASELOAD_FLAG_KEYS);
-  for (const p of missing) flags.set(p.id, flagCache.set(p.id, fingerprintOf(p), latestSessionFlags(p, flagRows.get(p.id) ?? [])));
   await audit(deps.db, req, { action: "patient.list", resourceType: "patient", details: { count: rows.length, view: "caseload" } });
   return {
     items: rows.map((p) => {
@@ -162,7 +113,8 @@ export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthCon
         lastUploadAt: isoOrNull(s?.last_upload_at),
         lastRecordedAt: isoOrNull(s?.last_recorded_at),
         adherencePct: recentAdherencePct(p, dates.get(p.id) ?? [], now),
-        flags: flags.get(p.id) ?? [],
+        // Named in words with a severity, most urgent first (clinical/caseload-flags.ts).
+        flags: orderCaseloadFlags(flags.get(p.id) ?? []),
         latest: {
           sessionId: l?.sessionId ?? null,
           cadenceStepsPerMin: l?.values.cadenceStepsPerMin ?? null,

@@ -250,7 +250,7 @@ describe("OpenAPI document", () => {
 
 // Last in the file: it adds a patient to the caseload, which the counts above do not expect.
 describe("GET /api/patients after new sessions", () => {
-  it("a caseload re-read follows newly processed sessions (the flag cache follows the data)", async () => {
+  it("a caseload re-read follows newly processed sessions (stored flags follow the data)", async () => {
     const p3 = await ctx.seedUser({ role: "patient", caseloadOf: [clinician.id], patient: { condition: "stroke", birthYear: 1958 } });
     for (let w = 0; w < 4; w++) {
       await insertDoneSession(ctx, p3.patientId!, new Date(Date.UTC(2026, 8, 8 + 7 * w, 9)).toISOString(), { cadenceStepsPerMin: 100 + (w % 2) });
@@ -262,7 +262,7 @@ describe("GET /api/patients after new sessions", () => {
     };
     const cadence = (flags: Array<{ metricKey: string; flag: string }>) => flags.filter((f) => f.metricKey === "cadenceStepsPerMin").map((f) => f.flag);
     expect(cadence(await flagsOf())).toEqual([]);
-    expect(cadence(await flagsOf())).toEqual([]); // served from the cache
+    expect(cadence(await flagsOf())).toEqual([]); // served from the stored row
     // A session far below the 100/101/100 baseline (beyond MDC95, Weir 2005) is flagged at once.
     await insertDoneSession(ctx, p3.patientId!, new Date(Date.UTC(2026, 9, 6, 9)).toISOString(), { cadenceStepsPerMin: 80 });
     expect(cadence(await flagsOf())).toEqual(["worsened"]);
