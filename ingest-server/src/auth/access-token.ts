@@ -15,6 +15,11 @@ export interface AccessClaims {
   scopes: string[];
   patientId: string | null;
   tokenId: string;
+  /**
+   * The account's session epoch when the token was issued (claim `sep`, 0 when absent). Raising the
+   * epoch (password reset, refresh-token theft, second-factor reset) ends every token issued before.
+   */
+  sessionEpoch: number;
 }
 
 const keyCache = new Map<string, Uint8Array>();
@@ -28,11 +33,11 @@ function key(secret: string): Uint8Array {
 }
 
 export async function signAccessToken(
-  claims: Omit<AccessClaims, "tokenId"> & { tokenId?: string },
+  claims: Omit<AccessClaims, "tokenId" | "sessionEpoch"> & { tokenId?: string; sessionEpoch?: number },
   secret: string,
   ttlS: number,
 ): Promise<string> {
-  return new SignJWT({ role: claims.role, scopes: claims.scopes, pid: claims.patientId })
+  return new SignJWT({ role: claims.role, scopes: claims.scopes, pid: claims.patientId, sep: claims.sessionEpoch ?? 0 })
     .setProtectedHeader({ alg: TOKEN_ALG, typ: "JWT" })
     .setSubject(claims.userId)
     .setJti(claims.tokenId ?? randomUUID())
@@ -54,6 +59,7 @@ export async function verifyAccessToken(token: string, secret: string): Promise<
     const role = payload.role;
     const scopes = payload.scopes;
     const pid = payload.pid;
+    const sep = payload.sep ?? 0;
     if (
       typeof payload.sub !== "string" ||
       typeof payload.jti !== "string" ||
@@ -61,11 +67,14 @@ export async function verifyAccessToken(token: string, secret: string): Promise<
       !(ROLES as readonly string[]).includes(role) ||
       !Array.isArray(scopes) ||
       !scopes.every((s) => typeof s === "string") ||
-      !(pid === null || typeof pid === "string")
+      !(pid === null || typeof pid === "string") ||
+      typeof sep !== "number" ||
+      !Number.isSafeInteger(sep) ||
+      sep < 0
     ) {
       throw new HttpError(401, "invalid_token", "access token has malformed claims");
     }
-    return { userId: payload.sub, role: role as Role, scopes: scopes as string[], patientId: pid, tokenId: payload.jti };
+    return { userId: payload.sub, role: role as Role, scopes: scopes as string[], patientId: pid, tokenId: payload.jti, sessionEpoch: sep };
   } catch (err) {
     if (err instanceof HttpError) throw err;
     if (err instanceof joseErrors.JWTExpired) throw new HttpError(401, "token_expired", "access token expired");

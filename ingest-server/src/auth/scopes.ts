@@ -66,6 +66,22 @@ export const ROLE_SCOPES: Record<Role, readonly Scope[]> = {
   ],
 };
 
+/**
+ * The only scope of a staff session that has not passed a second factor: it reaches the enrolment
+ * endpoints and /api/me, nothing else (middleware/authenticate.ts refuses every other path).
+ */
+export const ENROLMENT_SCOPE = "second-factor:enrol";
+
+/**
+ * Roles that must sign in with a second factor. Researchers are included: their export reaches
+ * every consenting patient's data, pseudonymised but still health data. Patients may add one.
+ */
+export const SECOND_FACTOR_ROLES: readonly Role[] = ["clinician", "admin", "researcher"];
+
+export function secondFactorRequired(role: Role): boolean {
+  return SECOND_FACTOR_ROLES.includes(role);
+}
+
 export function scopesFor(role: Role): Scope[] {
   return [...ROLE_SCOPES[role]];
 }

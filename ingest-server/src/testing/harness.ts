@@ -12,7 +12,10 @@ import type { AppDeps } from "../deps";
 import type { Role } from "../contracts/enums";
 import { signAccessToken } from "../auth/access-token";
 import { hashPassword } from "../auth/passwords";
+import { newRecoveryCodes, normalizeRecoveryCode, recoveryCodeDigest } from "../auth/recovery-codes";
 import { scopesFor } from "../auth/scopes";
+import { sealSecret } from "../auth/secret-box";
+import { newTotpSecret, totpCode, totpStep, TOTP_PERIOD_S } from "../auth/totp";
 import { S3_FAKE_CREDENTIALS, startS3Fake } from "../dev/s3-fake";
 import { startSmtpFake, type SmtpFake } from "../dev/smtp-fake";
 import { insertConsentEvent } from "../routes/consent/consent.service";
@@ -40,6 +43,11 @@ export interface SeedUserOptions {
   patient?: PatientSeed;
   /** Clinician ids whose caseload the new patient joins (role patient only). */
   caseloadOf?: string[];
+  /**
+   * Give the account a confirmed authenticator (secret returned as `totpSecret`). Default: none, as
+   * for a freshly invited account; a staff account then signs in limited to enrolment.
+   */
+  secondFactor?: boolean;
 }
 
 export interface SeededUser {
@@ -49,6 +57,8 @@ export interface SeededUser {
   role: Role;
   displayName: string;
   patientId: string | null;
+  /** Base32 authenticator secret when seeded with `secondFactor: true`. */
+  totpSecret?: string;
 }
 
 export interface TestContext {
@@ -62,8 +72,15 @@ export interface TestContext {
   seedPatient(patient?: PatientSeed): Promise<string>;
   seedUser(options: SeedUserOptions): Promise<SeededUser>;
   addToCaseload(clinicianId: string, patientId: string): Promise<void>;
-  /** Signs in through POST /api/auth/login and returns the access token. */
+  /**
+   * Signs in through the API the way a person does and returns the access token: the password,
+   * then for an account with an authenticator a code from it (or, when this account's codes for
+   * the current and next step were already spent by earlier calls, one of its recovery codes, as a
+   * person would); a staff account without one enrols through the enrolment endpoints first.
+   */
   login(email: string, password: string): Promise<string>;
+  /** The authenticator secret the harness knows for an account (seeded or enrolled by login). */
+  totpSecretOf(email: string): string | undefined;
   /** An access token for a seeded user without going through sign-in (no rate limit, no audit). */
   tokenFor(user: Pick<SeededUser, "id" | "role" | "patientId">): Promise<string>;
   close(): Promise<void>;
@@ -141,6 +158,9 @@ export async function createTestContext(options: TestContextOptions = {}): Promi
     await db("caseload").insert({ clinician_id: clinicianId, patient_id: patientId }).onConflict(["clinician_id", "patient_id"]).ignore();
   };
 
+  const totpSecrets = new Map<string, string>();
+  const lastStepUsed = new Map<string, number>();
+
   const seedUser = async (o: SeedUserOptions): Promise<SeededUser> => {
     const email = (o.email ?? `${o.role}-${unique()}@example.test`).toLowerCase();
     const password = o.password ?? `pw-${randomBytes(9).toString("base64url")}`;
@@ -158,21 +178,78 @@ export async function createTestContext(options: TestContextOptions = {}): Promi
       })
       .returning("id");
     if (patientId) for (const c of o.caseloadOf ?? []) await addToCaseload(c, patientId);
-    return { id: row.id as string, email, password, role: o.role, displayName, patientId };
+    let totpSecret: string | undefined;
+    if (o.secondFactor) {
+      totpSecret = newTotpSecret();
+      await db("user_totp").insert({ user_id: row.id, secret_sealed: sealSecret(totpSecret, config), confirmed_at: db.fn.now() });
+      totpSecrets.set(email, totpSecret);
+    }
+    return { id: row.id as string, email, password, role: o.role, displayName, patientId, ...(totpSecret ? { totpSecret } : {}) };
   };
 
-  const login = async (email: string, password: string): Promise<string> => {
+  const expectOk = (what: string, res: request.Response, status = 200) => {
+    if (res.status !== status) throw new Error(`${what} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  };
+
+  /** A code the server has not seen yet: this step's or the next one's (both inside its ±1 window). */
+  const freshCode = async (email: string): Promise<string | null> => {
+    const secret = totpSecrets.get(email);
+    if (!secret) return null;
+    const now = Date.now();
+    for (const ahead of [0, 1]) {
+      const step = totpStep(now) + ahead;
+      if (step > (lastStepUsed.get(email) ?? -1)) {
+        lastStepUsed.set(email, step);
+        return totpCode(secret, now + ahead * TOTP_PERIOD_S * 1000);
+      }
+    }
+    return null;
+  };
+
+  /** A recovery code added to the account for this one sign-in (both TOTP codes of the window are spent). */
+  const recoveryCodeFor = async (email: string): Promise<string> => {
+    const [code] = newRecoveryCodes(1);
+    const u = await db("users").whereRaw("lower(email) = lower(?)", [email]).first("id");
+    await db("recovery_codes").insert({ user_id: u.id, code_sha256: recoveryCodeDigest(normalizeRecoveryCode(code!)!) });
+    return code!;
+  };
+
+  const login = async (rawEmail: string, password: string): Promise<string> => {
+    const email = rawEmail.toLowerCase();
     const res = await request(app).post("/api/auth/login").send({ email, password });
-    if (res.status !== 200) throw new Error(`login ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+    expectOk(`login ${email}`, res);
+    if (res.body.secondFactorRequired === true) {
+      const code = await freshCode(email);
+      const body = code
+        ? { challenge: res.body.challenge, method: "totp", code }
+        : { challenge: res.body.challenge, method: "recovery_code", code: await recoveryCodeFor(email) };
+      const second = await request(app).post("/api/auth/login/second-factor").send(body);
+      expectOk(`second factor for ${email}`, second);
+      return second.body.accessToken as string;
+    }
+    if (res.body.secondFactor === "enrolment_required") {
+      const auth = { Authorization: `Bearer ${res.body.accessToken as string}` };
+      const start = await request(app).post("/api/auth/second-factor/enrolment").set(auth);
+      expectOk(`enrolment of ${email}`, start);
+      totpSecrets.set(email, start.body.secret as string);
+      const confirm = await request(app)
+        .post("/api/auth/second-factor/enrolment/confirm")
+        .set(auth)
+        .send({ code: await freshCode(email) });
+      expectOk(`enrolment confirmation of ${email}`, confirm);
+      return confirm.body.session.accessToken as string;
+    }
     return res.body.accessToken as string;
   };
 
-  const tokenFor = (user: Pick<SeededUser, "id" | "role" | "patientId">) =>
-    signAccessToken(
-      { userId: user.id, role: user.role, scopes: scopesFor(user.role), patientId: user.patientId },
+  const tokenFor = async (user: Pick<SeededUser, "id" | "role" | "patientId">) => {
+    const row = await db("users").where({ id: user.id }).first("session_epoch");
+    return signAccessToken(
+      { userId: user.id, role: user.role, scopes: scopesFor(user.role), patientId: user.patientId, sessionEpoch: row?.session_epoch ?? 0 },
       config.jwtSecret,
       config.accessTokenTtlS,
     );
+  };
 
   return {
     app,
@@ -184,6 +261,7 @@ export async function createTestContext(options: TestContextOptions = {}): Promi
     seedUser,
     addToCaseload,
     login,
+    totpSecretOf: (email: string) => totpSecrets.get(email.toLowerCase()),
     tokenFor,
     async close() {
       await runtime.close();

@@ -9,10 +9,19 @@ export interface UserRow {
   role: Role;
   status: "invited" | "active" | "disabled";
   patient_id: string | null;
+  session_epoch: number;
+}
+
+export interface RefreshRow {
+  id: string;
+  user_id: string;
+  expires_at: Date;
+  revoked_at: Date | null;
+  second_factor: boolean;
 }
 
 type Db = Knex | Knex.Transaction;
-const USER_COLUMNS = ["id", "email", "display_name", "password_hash", "role", "status", "patient_id"];
+const USER_COLUMNS = ["id", "email", "display_name", "password_hash", "role", "status", "patient_id", "session_epoch"];
 
 export const authRepository = {
   findUserByEmail(db: Db, email: string): Promise<UserRow | undefined> {
@@ -27,12 +36,12 @@ export const authRepository = {
     return db("users").where({ id: userId }).update({ last_login_at: db.fn.now() });
   },
 
-  insertRefreshToken(db: Db, userId: string, sha256: string, expiresAt: Date): Promise<unknown> {
-    return db("refresh_tokens").insert({ user_id: userId, token_sha256: sha256, expires_at: expiresAt });
+  insertRefreshToken(db: Db, userId: string, sha256: string, expiresAt: Date, secondFactor: boolean): Promise<unknown> {
+    return db("refresh_tokens").insert({ user_id: userId, token_sha256: sha256, expires_at: expiresAt, second_factor: secondFactor });
   },
 
-  findRefreshToken(db: Db, sha256: string): Promise<{ id: string; user_id: string; expires_at: Date; revoked_at: Date | null } | undefined> {
-    return db("refresh_tokens").where({ token_sha256: sha256 }).first("id", "user_id", "expires_at", "revoked_at");
+  findRefreshToken(db: Db, sha256: string): Promise<RefreshRow | undefined> {
+    return db("refresh_tokens").where({ token_sha256: sha256 }).first("id", "user_id", "expires_at", "revoked_at", "second_factor");
   },
 
   /** Revokes one token if still live; false when someone else revoked it first (a race or a replay). */
@@ -44,14 +53,20 @@ export const authRepository = {
   /**
    * Rotation in one transaction: the live token `id` is revoked, may be presented once more until
    * `graceUntil`, and points at its successor. False when it was no longer live (another request
-   * rotated or revoked it first); nothing is written then.
+   * rotated or revoked it first); nothing is written then. The successor keeps the session's
+   * second-factor standing.
    */
-  rotateRefreshToken(db: Knex, id: string, successor: { userId: string; sha256: string; expiresAt: Date }, graceUntil: Date): Promise<boolean> {
+  rotateRefreshToken(
+    db: Knex,
+    id: string,
+    successor: { userId: string; sha256: string; expiresAt: Date; secondFactor: boolean },
+    graceUntil: Date,
+  ): Promise<boolean> {
     return db.transaction(async (trx) => {
       const n = await trx("refresh_tokens").where({ id }).whereNull("revoked_at").update({ revoked_at: trx.fn.now(), grace_until: graceUntil });
       if (n !== 1) return false;
       const [next] = await trx("refresh_tokens")
-        .insert({ user_id: successor.userId, token_sha256: successor.sha256, expires_at: successor.expiresAt })
+        .insert({ user_id: successor.userId, token_sha256: successor.sha256, expires_at: successor.expiresAt, second_factor: successor.secondFactor })
         .returning("id");
       await trx("refresh_tokens").where({ id }).update({ replaced_by: next.id });
       return true;
@@ -75,6 +90,17 @@ export const authRepository = {
 
   revokeAllRefreshTokens(db: Db, userId: string): Promise<number> {
     return db("refresh_tokens").where({ user_id: userId }).whereNull("revoked_at").update({ revoked_at: db.fn.now() });
+  },
+
+  /**
+   * Ends every session of the account: its refresh tokens are revoked and its session epoch raised,
+   * so the access tokens already issued stop working at their next request (see authenticate).
+   * Returns how many refresh sessions were live.
+   */
+  async endAllSessions(db: Db, userId: string): Promise<number> {
+    const n = await db("refresh_tokens").where({ user_id: userId }).whereNull("revoked_at").update({ revoked_at: db.fn.now() });
+    await db("users").where({ id: userId }).increment("session_epoch", 1);
+    return n;
   },
 
   findInvitation(db: Db, sha256: string) {

@@ -4,13 +4,24 @@ import type { AppDeps } from "../../deps";
 import {
   acceptInvitationRequest,
   acceptedResponse,
+  codeRequest,
+  enrolmentConfirmed,
+  enrolmentStart,
   loginRequest,
+  loginResponse,
   passwordResetConfirm,
   passwordResetRequest,
+  recoveryCodesResponse,
+  secondFactorLoginRequest,
+  secondFactorResetRequest,
+  secondFactorResetResponse,
+  secondFactorStatus,
   tokenResponse,
 } from "../../contracts/auth";
+import { idParams } from "../../contracts/common";
 import { ApiRouter, type RouteModule } from "../../http/api-router";
 import { createAuthService, type IssuedSession } from "./auth.service";
+import { createSecondFactorService } from "./second-factor.service";
 
 export const REFRESH_COOKIE = "pendula_refresh";
 const PREFIX = "/api/auth";
@@ -40,6 +51,7 @@ const bodyEmail = (req: Request) => {
 export function authRouter(deps: AppDeps): ApiRouter {
   const { config } = deps;
   const service = createAuthService(deps);
+  const factors = createSecondFactorService(deps, service);
   const { max, windowS } = config.loginRateLimit;
   // Failed sign-ins count per address + e-mail (one guessed account), and per address overall
   // (one client spraying many accounts).
@@ -50,6 +62,10 @@ export function authRouter(deps: AppDeps): ApiRouter {
   // Reset requests send mail, so every request counts (per address and per e-mail).
   const resetRequestsPerIp = limiter(max * 2, windowS, ip, false);
   const resetRequestsPerEmail = limiter(Math.max(3, Math.ceil(max / 2)), windowS, bodyEmail, false);
+  // Wrong second-factor codes per address; the service also caps them per account and per challenge.
+  const codeFailuresPerIp = limiter(max * 2, windowS, ip, true);
+  // Code checks of a signed-in person (enrolment, new recovery codes, removal), per account.
+  const codeChecksPerUser = limiter(max, windowS, (req) => req.auth?.userId ?? ip(req), true);
 
   const cookieBase: CookieOptions = { httpOnly: true, sameSite: "strict", secure: config.secureCookies, path: PREFIX };
   const answer = (res: Response, s: IssuedSession) => {
@@ -66,12 +82,87 @@ export function authRouter(deps: AppDeps): ApiRouter {
     .endpoint({
       method: "post",
       path: "/login",
-      summary: "Sign in with e-mail and password; sets the refresh cookie",
+      summary:
+        "Sign in with e-mail and password; sets the refresh cookie, or answers a second-factor challenge for an account with an authenticator",
       access: "public",
       before: [loginPerIp, loginPerAccount],
       request: { body: loginRequest },
+      response: loginResponse,
+      handler: async ({ body }, req, res) => {
+        const outcome = await service.login(body.email, body.password, req);
+        return outcome.kind === "session" ? answer(res, outcome.session) : outcome.body;
+      },
+    })
+    .endpoint({
+      method: "post",
+      path: "/login/second-factor",
+      summary: "Second sign-in step: the challenge and a code from the authenticator app (or a recovery code); sets the refresh cookie",
+      access: "public",
+      before: [codeFailuresPerIp],
+      request: { body: secondFactorLoginRequest },
       response: tokenResponse,
-      handler: async ({ body }, req, res) => answer(res, await service.login(body.email, body.password, req)),
+      handler: async ({ body }, req, res) => answer(res, await service.completeSecondFactor(body, req)),
+    })
+    .endpoint({
+      method: "get",
+      path: "/second-factor",
+      summary: "Whether the signed-in account has an authenticator, whether its role requires one, recovery codes left",
+      access: "authenticated",
+      response: secondFactorStatus,
+      handler: ({ auth }) => factors.status(auth),
+    })
+    .endpoint({
+      method: "post",
+      path: "/second-factor/enrolment",
+      summary: "Start (or restart) enrolment: a new secret as otpauth:// URI and base32 text, active only once confirmed",
+      access: "authenticated",
+      response: enrolmentStart,
+      handler: ({ auth }, req) => factors.startEnrolment(auth, req),
+    })
+    .endpoint({
+      method: "post",
+      path: "/second-factor/enrolment/confirm",
+      summary: "Confirm enrolment with a first code; returns the recovery codes (once) and a session that passed the second factor",
+      access: "authenticated",
+      before: [codeChecksPerUser],
+      request: { body: codeRequest },
+      response: enrolmentConfirmed,
+      handler: async ({ auth, body }, req, res) => {
+        const { recoveryCodes, session } = await factors.confirmEnrolment(auth, body.code, cookieToken(req), req);
+        return { recoveryCodes, session: answer(res, session) };
+      },
+    })
+    .endpoint({
+      method: "post",
+      path: "/second-factor/recovery-codes",
+      summary: "Replace the recovery codes (a current code is required); the old ones stop working",
+      access: "authenticated",
+      before: [codeChecksPerUser],
+      request: { body: codeRequest },
+      response: recoveryCodesResponse,
+      handler: async ({ auth, body }, req) => ({ recoveryCodes: await factors.regenerateRecoveryCodes(auth, body.code, req) }),
+    })
+    .endpoint({
+      method: "post",
+      path: "/second-factor/remove",
+      summary: "Remove one's own authenticator (patients only; a current code is required)",
+      access: "authenticated",
+      before: [codeChecksPerUser],
+      status: 204,
+      request: { body: codeRequest },
+      handler: async ({ auth, body }, req, res) => {
+        await factors.removeOwn(auth, body.code, req);
+        res.status(204).end();
+      },
+    })
+    .endpoint({
+      method: "post",
+      path: "/second-factor/users/:id/reset",
+      summary: "Administrator: remove a user's authenticator and recovery codes and end their sessions, with a reason for the audit log",
+      access: { scopes: ["users:write"] },
+      request: { params: idParams, body: secondFactorResetRequest },
+      response: secondFactorResetResponse,
+      handler: ({ auth, params, body }, req) => factors.reset(auth, params.id, body.reason, req),
     })
     .endpoint({
       method: "post",
