@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { isoDateTime } from "./common";
 import { CONDITIONS } from "./enums";
 
 const AGE_BAND = /^(\d{1,2}-\d{1,2}|90\+)$/;
@@ -15,9 +16,15 @@ export const cohortDefinition = z.object({
 });
 export type CohortDefinition = z.infer<typeof cohortDefinition>;
 
+/**
+ * A released cell names its condition and age band; a suppressed one names neither (null), so the
+ * preview never says which small group exists — only that some group of fewer than k was held back.
+ */
 export const cohortCell = z.object({
-  condition: z.enum(CONDITIONS),
-  ageBand: z.string(),
+  condition: z.enum(CONDITIONS).nullable(),
+  ageBand: z.string().nullable(),
+  /** "stroke, 60-64" or "suppressed group (n < 5)". */
+  label: z.string(),
   /** Null when suppressed (fewer than k subjects): the count itself would disclose the small group. */
   subjects: z.number().int().nullable(),
   sessions: z.number().int().nullable(),
@@ -34,6 +41,8 @@ export const cohortPreview = z.object({
 
 /** GET /api/research/cohort-metrics: the definition as query parameters (comma-separated lists). */
 export const cohortMetricsQuery = z.object({
+  /** The research project whose pseudonym key names the subjects (see GET /api/research/projects). */
+  projectId: z.uuid({ error: "projectId must be the UUID of one of your research projects" }),
   format: z.enum(["json", "csv", "fhir"]).default("json"),
   conditions: z.string().max(200).optional(),
   ageBands: z.string().max(400).optional(),
@@ -47,6 +56,7 @@ export const researchRow = z.object({
   sessionRef: z.string(),
   condition: z.enum(CONDITIONS),
   ageBand: z.string(),
+  /** First week of the subject's 4-week study block since enrolment (0, 4, 8 …); 52 = week 52 or later. */
   weeksSinceEnrolment: z.number().int(),
   algorithmVersion: z.string().nullable(),
   metrics: z.record(z.string(), z.number().nullable()),
@@ -54,9 +64,35 @@ export const researchRow = z.object({
   counts: z.record(z.string(), z.number().int().nullable()).optional(),
 });
 
+export const exportPrecisionEntry = z.object({ key: z.string(), unit: z.string(), label: z.string(), step: z.number(), decimals: z.number().int(), why: z.string() });
+
+export const studyClock = z.object({ blockWeeks: z.number().int(), capWeeks: z.number().int(), releaseLagDays: z.number().int() });
+
 export const cohortMetricsJson = z.object({
   k: z.number().int(),
-  metrics: z.array(z.object({ key: z.string(), unit: z.string(), countNoun: z.string().optional() })),
+  project: z.object({ id: z.uuid(), name: z.string() }),
+  metrics: z.array(z.object({ key: z.string(), unit: z.string(), countNoun: z.string().optional(), step: z.number(), countStep: z.number() })),
+  studyClock,
   rows: z.array(researchRow),
   suppressedCells: z.number().int(),
 });
+
+export const researchProject = z.object({
+  id: z.uuid(),
+  name: z.string(),
+  purpose: z.string().nullable(),
+  owner: z.object({ id: z.uuid(), displayName: z.string() }),
+  createdAt: isoDateTime,
+});
+export type ResearchProject = z.infer<typeof researchProject>;
+export const researchProjectList = z.object({ items: z.array(researchProject) });
+
+export const createResearchProjectRequest = z
+  .object({
+    name: z.string().trim().min(3, { error: "a project name has at least 3 characters" }).max(120),
+    purpose: z.string().trim().max(1000).optional(),
+  })
+  .strict();
+
+/** How each metric and the study clock leave the server (GET /api/research/export-rules). */
+export const exportRules = z.object({ k: z.number().int(), metrics: z.array(exportPrecisionEntry), countStep: z.number(), studyClock });

@@ -12,7 +12,8 @@ import { METRICS, metricDefinition } from "../metrics/metric-catalog";
 export const FHIR_BASE = "https://pendula.example/fhir";
 export const METRIC_CODE_SYSTEM = `${FHIR_BASE}/CodeSystem/gait-metrics`;
 export const SUBJECT_ID_SYSTEM = `${FHIR_BASE}/NamingSystem/research-subject`;
-export const EXT_WEEKS = `${FHIR_BASE}/StructureDefinition/weeks-since-enrolment`;
+/** valueInteger: the first week of the 4-week study block (0, 4, 8 …; 52 = week 52 or later). */
+export const EXT_WEEKS = `${FHIR_BASE}/StructureDefinition/weeks-since-enrolment-block`;
 export const EXT_AGE_BAND = `${FHIR_BASE}/StructureDefinition/age-band`;
 export const EXT_CONDITION = `${FHIR_BASE}/StructureDefinition/study-condition`;
 /** On a component: how many strides/steps/arm cycles the value rests on (UCUM annotation unit). */

@@ -13,15 +13,32 @@ import { createHmac } from "node:crypto";
  */
 export const MIN_CELL_SUBJECTS = 5;
 
+const SEP = "\u0000";
+
+/**
+ * A research project's own pseudonym key, derived from the server's research secret and the
+ * project's random 32-byte salt (HMAC-SHA256, RFC 2104). The salt is stored with the project, the
+ * secret only in the server's environment, so a database copy alone cannot recompute any key.
+ */
+export function projectKey(serverSecret: string, salt: Buffer): Buffer {
+  if (serverSecret.length < 16) throw new RangeError("research HMAC key must be at least 16 characters");
+  if (salt.length !== 32) throw new RangeError("a project key salt is 32 bytes");
+  return createHmac("sha256", serverSecret).update("pendula-research-project-key").update(salt).digest();
+}
+
 /**
  * 164.514(b)(2)(i)(R) and (c): a re-identification code must not be derived from an identifier in a
- * way that can be reversed. A keyed HMAC-SHA256 of the internal patient id cannot be inverted
- * without the key, stays stable for the whole study (same key → same id) and differs between
- * studies that use different keys. The key never leaves the server.
+ * way that can be reversed. The subject id is HMAC-SHA256(project key, project id ‖ 0x00 ‖ patient
+ * id): it cannot be inverted without the key, stays the same for one patient in every export of one
+ * project, and two projects (two keys, two project ids) give ids that cannot be joined.
  */
-export function pseudonymousSubjectId(key: string, patientId: string): string {
-  if (key.length < 16) throw new RangeError("research HMAC key must be at least 16 characters");
-  return `sub-${createHmac("sha256", key).update(patientId, "utf8").digest("hex").slice(0, 24)}`;
+export function pseudonymousSubjectId(key: Buffer, projectId: string, patientId: string): string {
+  return `sub-${createHmac("sha256", key).update(`${projectId}${SEP}${patientId}`, "utf8").digest("hex").slice(0, 24)}`;
+}
+
+/** A session's reference in one project's exports: keyed like the subject id, so it cannot be joined across projects either. */
+export function pseudonymousSessionRef(key: Buffer, projectId: string, sessionId: string): string {
+  return `ses-${createHmac("sha256", key).update(`session${SEP}${projectId}${SEP}${sessionId}`, "utf8").digest("hex").slice(0, 32)}`;
 }
 
 /**
@@ -57,6 +74,30 @@ const MS_PER_WEEK = 7 * 24 * 3600 * 1000;
  */
 export function weeksSinceEnrolment(recordedAt: Date, enrolledOn: Date): number {
   return Math.floor((recordedAt.getTime() - enrolledOn.getTime()) / MS_PER_WEEK);
+}
+
+/**
+ * The study clock as exported. Exact weeks plus the day of an export would give away the enrolment
+ * day (an active subject's highest week ≈ export date − enrolment date), so:
+ * - weeks are published as 4-week blocks, named by their first week (0, 4, 8, …);
+ * - every week from 52 on is published as 52 ("52 or more"), so long-term subjects carry no date;
+ * - sessions recorded in the 28 days before the export are held back (RELEASE_LAG_DAYS), so the last
+ *   visible block never touches the export day.
+ * Together the enrolment day can be narrowed to a window of at least eight weeks, never to a day or
+ * a week. Block width, cap and lag are common practice (our choice), not values from a source.
+ */
+export const STUDY_WEEK_BLOCK = 4;
+export const STUDY_WEEK_CAP = 52;
+export const RELEASE_LAG_DAYS = 28;
+
+export function studyWeekBlock(weeks: number): number {
+  if (!Number.isInteger(weeks) || weeks < 0) throw new RangeError(`weeks since enrolment must be a whole number ≥ 0, got ${weeks}`);
+  return Math.min(STUDY_WEEK_CAP, Math.floor(weeks / STUDY_WEEK_BLOCK) * STUDY_WEEK_BLOCK);
+}
+
+/** Sessions recorded at or after this instant are held back from an export made at `now`. */
+export function releaseCutoff(now: Date): Date {
+  return new Date(now.getTime() - RELEASE_LAG_DAYS * 24 * 3600 * 1000);
 }
 
 /**

@@ -1,0 +1,39 @@
+import { z } from "zod";
+import { isoDateTime } from "./common";
+import { CONSENT_KINDS, CONSENT_RECORDER_ROLES } from "../research/consent-periods";
+
+/** One recorded change of a patient's research consent. */
+export const consentEvent = z.object({
+  id: z.uuid(),
+  kind: z.enum(CONSENT_KINDS),
+  at: isoDateTime,
+  recorderRole: z.enum(CONSENT_RECORDER_ROLES),
+  /** Null when the account was removed, or for the flag that predates the history. */
+  recordedBy: z.object({ id: z.uuid(), displayName: z.string() }).nullable(),
+  reason: z.string().nullable(),
+  /** False for a clinician's "given", which waits for the patient's own confirmation. */
+  counts: z.boolean(),
+});
+export type ConsentEvent = z.infer<typeof consentEvent>;
+
+export const consentState = z.object({
+  patientId: z.uuid(),
+  /** Research use allowed now, by the counting events. */
+  inForce: z.boolean(),
+  /** When the current period in force began (null when not in force). */
+  since: isoDateTime.nullable(),
+  /** A "given" recorded by staff (or the earlier flag) that the patient has not confirmed or declined yet. */
+  awaitingConfirmation: z.boolean(),
+  /** Newest first. */
+  events: z.array(consentEvent),
+});
+export type ConsentState = z.infer<typeof consentState>;
+
+export const recordConsentRequest = z
+  .object({
+    kind: z.enum(CONSENT_KINDS),
+    /** Required from staff (at least 10 characters): what the record rests on, e.g. "signed paper form on file". */
+    reason: z.string().trim().max(500).optional(),
+  })
+  .strict();
+export type RecordConsentRequest = z.infer<typeof recordConsentRequest>;
