@@ -2,6 +2,7 @@ import type { RouteModule } from "../http/api-router";
 import { assignmentsRoutes } from "./assignments/assignments.router";
 import { auditRoutes } from "./audit/audit.router";
 import { authRoutes } from "./auth/auth.router";
+import { consentRoutes } from "./consent/consent.router";
 import { caseloadLinksRoutes } from "./caseload-links/caseload-links.router";
 import { devMailboxRoutes } from "./dev-mailbox/dev-mailbox.router";
 import { devicesRoutes } from "./devices/devices.router";
@@ -34,4 +35,5 @@ export const ROUTE_TABLE: RouteModule[] = [
   notesRoutes,
   trainingRoutes,
   researchRoutes,
+  consentRoutes,
 ];

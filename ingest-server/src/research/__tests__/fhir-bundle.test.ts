@@ -41,7 +41,7 @@ describe("observationBundle(rows)", () => {
     expect(text).not.toMatch(/effective|issued|\d{4}-\d{2}-\d{2}/);
     const obs = bundle.entry[1]?.resource as { id: string; extension: Array<{ url: string; valueInteger?: number }> };
     expect(obs.id).toBe(row.sessionRef);
-    expect(obs.extension.find((e) => e.url.endsWith("weeks-since-enrolment"))?.valueInteger).toBe(6);
+    expect(obs.extension.find((e) => e.url.endsWith("weeks-since-enrolment-block"))?.valueInteger).toBe(6);
   });
 });
 

@@ -1,32 +1,79 @@
 import { createHmac } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { AGE_BANDS, ageAtEnrolment, ageBand, pseudonymousSubjectId, suppressSmallCells, weeksSinceEnrolment } from "../safe-harbor";
+import {
+  AGE_BANDS,
+  ageAtEnrolment,
+  ageBand,
+  projectKey,
+  pseudonymousSessionRef,
+  pseudonymousSubjectId,
+  releaseCutoff,
+  studyWeekBlock,
+  suppressSmallCells,
+  weeksSinceEnrolment,
+} from "../safe-harbor";
 
-const KEY = "study-key-for-tests-0123456789";
+const SECRET = "server-research-secret-0123456789";
+const SALT_A = Buffer.alloc(32, 1);
+const SALT_B = Buffer.alloc(32, 2);
 
-describe("pseudonymousSubjectId(key, patientId)", () => {
-  it("is HMAC-SHA256 of the patient id under the study key (RFC 2104 via node:crypto)", () => {
-    const expected = createHmac("sha256", KEY).update("p-1").digest("hex").slice(0, 24);
-    expect(pseudonymousSubjectId(KEY, "p-1")).toBe(`sub-${expected}`);
-  });
-
-  it("matches the RFC 4231 test case 2 digest prefix (key 'Jefe', data 'what do ya want for nothing?') when the key guard is satisfied", () => {
+describe("project keys and pseudonyms (HMAC-SHA256, RFC 2104)", () => {
+  it("the HMAC primitive matches RFC 4231 test case 2 (key 'Jefe', data 'what do ya want for nothing?')", () => {
     // RFC 4231 §4.3: HMAC-SHA-256 = 5bdcc146bf60754e6a042426089575c75a003f089d2739839dec58b964ec3843.
-    // The guard needs ≥ 16 characters, so this checks the primitive the function relies on directly.
     expect(createHmac("sha256", "Jefe").update("what do ya want for nothing?").digest("hex")).toBe(
       "5bdcc146bf60754e6a042426089575c75a003f089d2739839dec58b964ec3843",
     );
   });
 
-  it("is stable for one key and differs between studies and patients", () => {
-    expect(pseudonymousSubjectId(KEY, "p-1")).toBe(pseudonymousSubjectId(KEY, "p-1"));
-    expect(pseudonymousSubjectId(KEY, "p-1")).not.toBe(pseudonymousSubjectId(`${KEY}-other`, "p-1"));
-    expect(pseudonymousSubjectId(KEY, "p-1")).not.toBe(pseudonymousSubjectId(KEY, "p-2"));
-    expect(pseudonymousSubjectId(KEY, "p-1")).not.toContain("p-1");
+  it("the project key is HMAC(secret, label ‖ salt) and the subject id HMAC(project key, project ‖ 0x00 ‖ patient), as node:crypto computes them", () => {
+    const key = projectKey(SECRET, SALT_A);
+    const expectedKey = createHmac("sha256", SECRET).update("pendula-research-project-key").update(SALT_A).digest();
+    expect(key.equals(expectedKey)).toBe(true);
+    const expected = createHmac("sha256", expectedKey).update("proj-1\u0000p-1").digest("hex").slice(0, 24);
+    expect(pseudonymousSubjectId(key, "proj-1", "p-1")).toBe(`sub-${expected}`);
+    expect(pseudonymousSessionRef(key, "proj-1", "s-1")).toBe(
+      `ses-${createHmac("sha256", expectedKey).update("session\u0000proj-1\u0000s-1").digest("hex").slice(0, 32)}`,
+    );
   });
 
-  it("refuses a short key", () => {
-    expect(() => pseudonymousSubjectId("short", "p-1")).toThrow(RangeError);
+  it("is stable within a project and differs between projects, patients and sessions", () => {
+    const a = projectKey(SECRET, SALT_A);
+    const b = projectKey(SECRET, SALT_B);
+    expect(pseudonymousSubjectId(a, "proj-a", "p-1")).toBe(pseudonymousSubjectId(projectKey(SECRET, SALT_A), "proj-a", "p-1"));
+    expect(pseudonymousSubjectId(a, "proj-a", "p-1")).not.toBe(pseudonymousSubjectId(b, "proj-b", "p-1"));
+    // Same key, other project id: still a different id, since the project is part of the message.
+    expect(pseudonymousSubjectId(a, "proj-a", "p-1")).not.toBe(pseudonymousSubjectId(a, "proj-b", "p-1"));
+    expect(pseudonymousSubjectId(a, "proj-a", "p-1")).not.toBe(pseudonymousSubjectId(a, "proj-a", "p-2"));
+    expect(pseudonymousSubjectId(a, "proj-a", "p-1")).not.toContain("p-1");
+    // "ab" + "c" and "a" + "bc" must not collide: the separator keeps the two parts apart.
+    expect(pseudonymousSubjectId(a, "ab", "c")).not.toBe(pseudonymousSubjectId(a, "a", "bc"));
+  });
+
+  it("refuses a short server secret or a salt that is not 32 bytes", () => {
+    expect(() => projectKey("short", SALT_A)).toThrow(RangeError);
+    expect(() => projectKey(SECRET, Buffer.alloc(16))).toThrow(RangeError);
+  });
+});
+
+describe("study clock: 4-week blocks, capped at 52 (common practice, see studyWeekBlock)", () => {
+  it.each([
+    [0, 0],
+    [3, 0],
+    [4, 4],
+    [7, 4],
+    [51, 48],
+    [52, 52],
+    [53, 52],
+    [260, 52],
+  ])("week %d → block %d", (w, block) => expect(studyWeekBlock(w)).toBe(block));
+
+  it("refuses negative or fractional weeks", () => {
+    expect(() => studyWeekBlock(-1)).toThrow(RangeError);
+    expect(() => studyWeekBlock(1.5)).toThrow(RangeError);
+  });
+
+  it("holds back the last 28 days", () => {
+    expect(releaseCutoff(new Date("2026-12-02T10:00:00Z")).toISOString()).toBe("2026-11-04T10:00:00.000Z");
   });
 });
 

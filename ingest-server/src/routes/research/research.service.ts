@@ -4,27 +4,40 @@ import type { CohortDefinition } from "../../contracts/research";
 import { CONDITIONS } from "../../contracts/enums";
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
+import type { AuthContext } from "../../middleware/authenticate";
 import { METRIC_KEYS, metricDefinition } from "../../metrics/metric-catalog";
+import { consentInForceAt, consentPeriods, type ConsentKind } from "../../research/consent-periods";
 import { toCsv, type CsvCell } from "../../research/csv";
+import { COUNT_STEP, EXPORT_PRECISION, exportCount, exportValue } from "../../research/export-precision";
 import { observationBundle, type ResearchSessionRow } from "../../research/fhir-bundle";
 import {
   ageAtEnrolment,
   ageBand,
   AGE_BANDS,
   MIN_CELL_SUBJECTS,
+  projectKey,
+  pseudonymousSessionRef,
   pseudonymousSubjectId,
+  releaseCutoff,
+  RELEASE_LAG_DAYS,
+  STUDY_WEEK_BLOCK,
+  STUDY_WEEK_CAP,
+  studyWeekBlock,
   suppressSmallCells,
   weeksSinceEnrolment,
 } from "../../research/safe-harbor";
-import { createHmac } from "node:crypto";
+import { ownProject } from "./projects.service";
 
 /**
- * Research cohorts under HIPAA Safe Harbor (45 CFR 164.514(b)(2)). What leaves this module:
- * a keyed pseudonym per subject, condition, 5-year age band (90+ grouped), whole weeks since
- * enrolment and metric values. What never does: names, e-mails, birth or session dates, device
- * serials, database ids, the clinic's research_id, free text (notes, condition detail) or raw signals.
- * Only patients with research_consent are read at all, and every condition × age-band cell with
- * fewer than MIN_CELL_SUBJECTS distinct subjects is withheld.
+ * Research cohorts under HIPAA Safe Harbor (45 CFR 164.514(b)(2)). What leaves this module: a
+ * pseudonym per subject keyed by the research project, condition, 5-year age band (90+ grouped),
+ * 4-week study blocks capped at 52, and metric values rounded to their export precision. What
+ * never does: names, e-mails, birth or session dates, device serials, database ids, the clinic's
+ * research_id, free text (notes, condition detail) or raw signals.
+ *
+ * A session is read only when research consent was in force, by the counting consent events, at
+ * the time it was recorded, and only when it is older than the release lag. Every condition ×
+ * age-band cell with fewer than MIN_CELL_SUBJECTS distinct subjects is withheld.
  */
 interface SourceRow {
   patient_id: string;
@@ -37,9 +50,15 @@ interface SourceRow {
   algorithm_version: string | null;
 }
 
-/** Derived session reference: a keyed hash, so a row cannot be joined back to the database without the key. */
-const sessionRefOf = (key: string, sessionId: string) =>
-  `ses-${createHmac("sha256", key).update(`session:${sessionId}`).digest("hex").slice(0, 32)}`;
+/** One session of the cohort before pseudonyms are applied; the patient and session ids never leave the server. */
+interface CohortRow {
+  patientId: string;
+  sessionId: string;
+  condition: SourceRow["condition"];
+  ageBand: string;
+  weekBlock: number;
+  algorithmVersion: string | null;
+}
 
 const cellOf = (r: { condition: string; ageBand: string }) => `${r.condition}|${r.ageBand}`;
 
@@ -54,108 +73,150 @@ function validate(def: CohortDefinition): string[] {
 /** The enrolment day as UTC midnight: the week arithmetic in safe-harbor.ts works in UTC. */
 const enrolledDate = (day: string) => new Date(`${day}T00:00:00Z`);
 
-/** Consenting patients' processed sessions inside the definition, de-identified, before suppression. */
-async function cohortRows(deps: AppDeps, def: CohortDefinition, keys: string[]): Promise<ResearchSessionRow[]> {
+/**
+ * Processed sessions inside the definition, recorded while the patient's research consent was in
+ * force and before the release cutoff. The week window of the definition applies to the 4-week
+ * blocks, so narrowing it cannot reveal a session's exact week.
+ */
+async function cohortRows(deps: AppDeps, def: CohortDefinition, now: Date): Promise<CohortRow[]> {
   const q = deps.db("walk_sessions as s")
     .join("patients as p", "p.id", "s.patient_id")
-    .where("p.research_consent", true)
-    .andWhere("s.status", "done")
+    .where("s.status", "done")
+    .andWhere("s.recorded_at", "<", releaseCutoff(now))
+    .whereExists(deps.db("consent_events as c").whereRaw("c.patient_id = p.id").andWhere("c.counts", true).andWhere("c.kind", "given"))
     .select("p.id as patient_id", "s.id as session_id", "p.condition", "p.birth_year", "p.enrolled_on", "s.recorded_at", "s.algorithm_version")
-    .orderBy([{ column: "p.id" }, { column: "s.recorded_at" }]);
+    .orderBy([{ column: "p.id" }, { column: "s.recorded_at" }, { column: "s.id" }]);
   if (def.conditions.length) q.whereIn("p.condition", def.conditions);
   const source: SourceRow[] = await q;
-  const key = deps.config.researchHmacKey;
-  const rows: ResearchSessionRow[] = [];
+  if (source.length === 0) return [];
+  const patientIds = [...new Set(source.map((s) => s.patient_id))];
+  const events: Array<{ patient_id: string; kind: ConsentKind; counts: boolean; at: Date }> = await deps.db("consent_events")
+    .whereIn("patient_id", patientIds)
+    .andWhere("counts", true)
+    .orderBy([{ column: "patient_id" }, { column: "at" }, { column: "seq" }])
+    .select("patient_id", "kind", "counts", "at");
+  const byPatient = new Map<string, typeof events>();
+  for (const e of events) byPatient.set(e.patient_id, [...(byPatient.get(e.patient_id) ?? []), e]);
+  const periods = new Map(patientIds.map((id) => [id, consentPeriods((byPatient.get(id) ?? []).map((e) => ({ ...e, at: new Date(e.at) })))]));
+
+  const rows: CohortRow[] = [];
   for (const r of source) {
+    const recordedAt = new Date(r.recorded_at);
+    if (!consentInForceAt(periods.get(r.patient_id) ?? [], recordedAt)) continue;
     const enrolled = enrolledDate(r.enrolled_on);
     const band = ageBand(Math.max(0, ageAtEnrolment(r.birth_year, enrolled)));
-    const week = weeksSinceEnrolment(new Date(r.recorded_at), enrolled);
+    const block = studyWeekBlock(Math.max(0, weeksSinceEnrolment(recordedAt, enrolled)));
     if (def.ageBands.length && !def.ageBands.includes(band)) continue;
-    if (week < def.weeksSinceEnrolment.from || week > def.weeksSinceEnrolment.to) continue;
-    rows.push({
-      subjectId: pseudonymousSubjectId(key, r.patient_id),
-      sessionRef: sessionRefOf(key, r.session_id),
-      condition: r.condition,
-      ageBand: band,
-      weeksSinceEnrolment: week,
-      algorithmVersion: r.algorithm_version,
-      metrics: {},
-    });
-  }
-  if (rows.length === 0) return rows;
-  const metricRows = await deps.db("session_metrics as m")
-    .join("patients as p", "p.id", "m.patient_id")
-    .where("p.research_consent", true)
-    .whereIn("m.metric_key", keys)
-    .whereIn("m.session_id", source.map((s) => s.session_id))
-    .select("m.session_id", "m.metric_key", "m.value", "m.n");
-  const bySession = new Map<string, Record<string, number | null>>();
-  const countsBySession = new Map<string, Record<string, number | null>>();
-  for (const m of metricRows) {
-    const v = bySession.get(m.session_id) ?? {};
-    v[m.metric_key] = Number(m.value);
-    bySession.set(m.session_id, v);
-    const c = countsBySession.get(m.session_id) ?? {};
-    c[m.metric_key] = m.n === null || m.n === undefined ? null : Number(m.n);
-    countsBySession.set(m.session_id, c);
-  }
-  const refs = new Map(source.map((s) => [sessionRefOf(key, s.session_id), s.session_id]));
-  for (const row of rows) {
-    const id = refs.get(row.sessionRef)!;
-    const values = bySession.get(id) ?? {};
-    const counts = countsBySession.get(id) ?? {};
-    row.metrics = Object.fromEntries(keys.map((k) => [k, values[k] ?? null]));
-    row.counts = Object.fromEntries(keys.map((k) => [k, counts[k] ?? null]));
+    if (block < def.weeksSinceEnrolment.from || block > def.weeksSinceEnrolment.to) continue;
+    rows.push({ patientId: r.patient_id, sessionId: r.session_id, condition: r.condition, ageBand: band, weekBlock: block, algorithmVersion: r.algorithm_version });
   }
   return rows;
 }
 
-export async function previewCohort(deps: AppDeps, req: Request, def: CohortDefinition) {
+export const SUPPRESSED_LABEL = `suppressed group (n < ${MIN_CELL_SUBJECTS})`;
+
+export async function previewCohort(deps: AppDeps, req: Request, def: CohortDefinition, now = new Date()) {
   const keys = validate(def);
-  const rows = await cohortRows(deps, def, keys);
-  const { cells } = suppressSmallCells(rows, cellOf, (r) => r.subjectId);
+  const rows = await cohortRows(deps, def, now);
+  const { cells } = suppressSmallCells(rows, cellOf, (r) => r.patientId);
   const sessionsPerCell = new Map<string, number>();
   for (const r of rows) sessionsPerCell.set(cellOf(r), (sessionsPerCell.get(cellOf(r)) ?? 0) + 1);
-  const shown = cells.map((c) => {
-    const [condition, band] = c.cell.split("|") as [SourceRow["condition"], string];
-    return {
-      condition,
-      ageBand: band,
-      subjects: c.suppressed ? null : c.subjects,
-      sessions: c.suppressed ? null : (sessionsPerCell.get(c.cell) ?? 0),
-      suppressed: c.suppressed,
-    };
-  });
-  const visible = shown.filter((c) => !c.suppressed);
+  const released = cells
+    .filter((c) => !c.suppressed)
+    .map((c) => {
+      const [condition, band] = c.cell.split("|") as [SourceRow["condition"], string];
+      return { condition, ageBand: band, label: `${condition}, ${band}`, subjects: c.subjects, sessions: sessionsPerCell.get(c.cell) ?? 0, suppressed: false };
+    });
+  // Suppressed cells come last and carry no attributes, so neither their names nor their place in the sorted list tell which group it is.
+  const withheld = cells
+    .filter((c) => c.suppressed)
+    .map(() => ({ condition: null, ageBand: null, label: SUPPRESSED_LABEL, subjects: null, sessions: null, suppressed: true }));
   await audit(deps.db, req, { action: "research.cohort_preview", resourceType: "cohort", details: { definition: def, cells: cells.length } });
   return {
     k: MIN_CELL_SUBJECTS,
     definition: def,
     metrics: keys,
-    cells: shown,
+    cells: [...released, ...withheld],
     totals: {
-      subjects: visible.reduce((n, c) => n + (c.subjects ?? 0), 0),
-      sessions: visible.reduce((n, c) => n + (c.sessions ?? 0), 0),
-      suppressedCells: shown.length - visible.length,
+      subjects: released.reduce((n, c) => n + c.subjects, 0),
+      sessions: released.reduce((n, c) => n + c.sessions, 0),
+      suppressedCells: withheld.length,
     },
   };
 }
 
-export async function exportCohort(deps: AppDeps, req: Request, def: CohortDefinition, format: "json" | "csv" | "fhir") {
+const STUDY_CLOCK = { blockWeeks: STUDY_WEEK_BLOCK, capWeeks: STUDY_WEEK_CAP, releaseLagDays: RELEASE_LAG_DAYS };
+
+/** The precision table and study clock as the export applies them, for the researcher's screen. */
+export function exportRules() {
+  return {
+    k: MIN_CELL_SUBJECTS,
+    countStep: COUNT_STEP,
+    studyClock: STUDY_CLOCK,
+    metrics: METRIC_KEYS.map((key) => {
+      const def = metricDefinition(key)!;
+      const p = EXPORT_PRECISION[key]!;
+      return { key, unit: def.unit, label: def.label, step: p.step, decimals: p.decimals, why: p.why };
+    }),
+  };
+}
+
+export async function exportCohort(
+  deps: AppDeps,
+  req: Request,
+  auth: AuthContext,
+  projectId: string,
+  def: CohortDefinition,
+  format: "json" | "csv" | "fhir",
+  now = new Date(),
+) {
   const keys = validate(def);
-  const all = await cohortRows(deps, def, keys);
-  const { kept, cells } = suppressSmallCells(all, cellOf, (r) => r.subjectId);
+  const project = await ownProject(deps, auth, projectId);
+  const key = projectKey(deps.config.researchHmacKey, project.key_salt);
+  const all = await cohortRows(deps, def, now);
+  const { kept, cells } = suppressSmallCells(all, cellOf, (r) => r.patientId);
   const suppressedCells = cells.filter((c) => c.suppressed).length;
+
+  const rows: ResearchSessionRow[] = kept.map((r) => ({
+    subjectId: pseudonymousSubjectId(key, project.id, r.patientId),
+    sessionRef: pseudonymousSessionRef(key, project.id, r.sessionId),
+    condition: r.condition,
+    ageBand: r.ageBand,
+    weeksSinceEnrolment: r.weekBlock,
+    algorithmVersion: r.algorithmVersion,
+    metrics: {},
+    counts: {},
+  }));
+  if (rows.length) {
+    const metricRows = await deps.db("session_metrics")
+      .whereIn("metric_key", keys)
+      .whereIn("session_id", kept.map((r) => r.sessionId))
+      .select("session_id", "metric_key", "value", "n");
+    const bySession = new Map<string, Map<string, { value: number; n: number | null }>>();
+    for (const m of metricRows) {
+      const map = bySession.get(m.session_id) ?? new Map();
+      map.set(m.metric_key, { value: Number(m.value), n: m.n === null || m.n === undefined ? null : Number(m.n) });
+      bySession.set(m.session_id, map);
+    }
+    kept.forEach((r, i) => {
+      const values = bySession.get(r.sessionId);
+      const out = rows[i]!;
+      // One rounding for JSON, CSV and FHIR alike (research/export-precision.ts).
+      out.metrics = Object.fromEntries(keys.map((k) => [k, exportValue(k, values?.get(k)?.value ?? null)]));
+      out.counts = Object.fromEntries(keys.map((k) => [k, exportCount(values?.get(k)?.n ?? null)]));
+    });
+  }
   await audit(deps.db, req, {
     action: "export.cohort_metrics",
-    resourceType: "cohort",
-    details: { format, definition: def, rows: kept.length, subjects: new Set(kept.map((r) => r.subjectId)).size, suppressedCells },
+    resourceType: "research_project",
+    resourceId: project.id,
+    details: { format, projectId: project.id, definition: def, rows: rows.length, subjects: new Set(kept.map((r) => r.patientId)).size, suppressedCells },
   });
-  if (format === "fhir") return { kind: "fhir" as const, body: observationBundle(kept, keys) };
+  if (format === "fhir") return { kind: "fhir" as const, body: observationBundle(rows, keys) };
   if (format === "csv") {
-    // Each metric is followed by `<key>_n`, the strides/steps/arm cycles its value rests on (empty when unknown).
-    const header = ["subject_id", "session_ref", "condition", "age_band", "weeks_since_enrolment", "algorithm_version", ...keys.flatMap((k) => [k, `${k}_n`])];
-    const rows: CsvCell[][] = kept.map((r) => [
+    // Each metric is followed by `<key>_n`, the strides/steps/arm cycles its value rests on (nearest 5; empty when unknown).
+    const header = ["subject_id", "session_ref", "condition", "age_band", "weeks_since_enrolment_block", "algorithm_version", ...keys.flatMap((k) => [k, `${k}_n`])];
+    const body: CsvCell[][] = rows.map((r) => [
       r.subjectId,
       r.sessionRef,
       r.condition,
@@ -164,14 +225,16 @@ export async function exportCohort(deps: AppDeps, req: Request, def: CohortDefin
       r.algorithmVersion,
       ...keys.flatMap((k) => [r.metrics[k], r.counts?.[k] ?? null]),
     ]);
-    return { kind: "csv" as const, body: toCsv(header, rows) };
+    return { kind: "csv" as const, body: toCsv(header, body) };
   }
   return {
     kind: "json" as const,
     body: {
       k: MIN_CELL_SUBJECTS,
-      metrics: keys.map((k) => ({ key: k, unit: metricDefinition(k)!.unit, countNoun: metricDefinition(k)!.countNoun })),
-      rows: kept,
+      project: { id: project.id, name: project.name },
+      metrics: keys.map((k) => ({ key: k, unit: metricDefinition(k)!.unit, countNoun: metricDefinition(k)!.countNoun, step: EXPORT_PRECISION[k]!.step, countStep: COUNT_STEP })),
+      studyClock: STUDY_CLOCK,
+      rows,
       suppressedCells,
     },
   };
