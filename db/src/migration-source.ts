@@ -6,7 +6,6 @@ import * as trendCoveringIndex from "../migrations/20261202090000_trend_covering
 import * as heightWalkingAidCounts from "../migrations/20261202120000_height_walking_aid_counts";
 import * as refreshReuseGrace from "../migrations/20261202160000_refresh_reuse_grace";
 import * as consentEventsResearchProjects from "../migrations/20261203100000_consent_events_research_projects";
-import * as consentEventsResearchProjects from "../migrations/20261203100000_consent_events_research_projects";
 import * as caseloadLinksAuditAppendOnly from "../migrations/20261203110000_caseload_links_audit_append_only";
 import * as secondFactor from "../migrations/20261203120000_second_factor";
 import * as demoAccounts from "../migrations/20261203130000_demo_accounts";
@@ -24,7 +23,6 @@ export const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261202090000_trend_covering_index": trendCoveringIndex,
   "20261202120000_height_walking_aid_counts": heightWalkingAidCounts,
   "20261202160000_refresh_reuse_grace": refreshReuseGrace,
-  "20261203100000_consent_events_research_projects": consentEventsResearchProjects,
   "20261203100000_consent_events_research_projects": consentEventsResearchProjects,
   "20261203110000_caseload_links_audit_append_only": caseloadLinksAuditAppendOnly,
   "20261203120000_second_factor": secondFactor,
