@@ -65,29 +65,29 @@ function npmDependencies() {
   return [...names].sort();
 }
 
+/** The esbuild options of one entry (also used by the test that compares built and source CLI). */
+export function entryOptions(entry, outfile) {
+  return {
+    absWorkingDir: ROOT,
+    entryPoints: [entry],
+    outfile,
+    bundle: true,
+    platform: "node",
+    format: "esm",
+    target: "node20",
+    sourcemap: "linked",
+    sourcesContent: false,
+    external: npmDependencies(),
+    metafile: true,
+    logLevel: "warning",
+  };
+}
+
 export async function build() {
   const esbuild = await import("esbuild");
   // Taken before reading, so a file saved during the build counts as newer than the build.
   const startedMs = Date.now();
-  const external = npmDependencies();
-  const results = await Promise.all(
-    ENTRIES.map(([entry, out]) =>
-      esbuild.build({
-        absWorkingDir: ROOT,
-        entryPoints: [entry],
-        outfile: out,
-        bundle: true,
-        platform: "node",
-        format: "esm",
-        target: "node20",
-        sourcemap: "linked",
-        sourcesContent: false,
-        external,
-        metafile: true,
-        logLevel: "warning",
-      }),
-    ),
-  );
+  const results = await Promise.all(ENTRIES.map(([entry, out]) => esbuild.build(entryOptions(entry, out))));
   const inputs = new Set();
   for (const r of results) for (const input of Object.keys(r.metafile.inputs)) inputs.add(relative(ROOT, resolve(ROOT, input)));
   mkdirSync(dirname(STAMP), { recursive: true });
