@@ -359,7 +359,34 @@ const RULES: Record<string, Rule> = {
   },
   "GET /api/research/cohort-metrics": {
     expect: { own: S(403, 403, 200, 403, 401) },
-    build: async () => ({ method: "get", url: "/api/research/cohort-metrics?format=json" }),
+    build: async () => {
+      // An export is made under one of the caller's own research projects.
+      const [p] = await ctx.db("research_projects").insert({ name: `Matrix study ${uniq()}`, owner_id: f.researcher.id, key_salt: randomBytes(32) }).returning("id");
+      return { method: "get", url: `/api/research/cohort-metrics?format=json&projectId=${p.id}` };
+    },
+  },
+  // Research projects: researchers own theirs; an admin may list every project.
+  "GET /api/research/projects": { expect: { own: S(403, 403, 200, 200, 401) }, build: async () => ({ method: "get", url: "/api/research/projects" }) },
+  "POST /api/research/projects": {
+    expect: { own: S(403, 403, 201, 403, 401) },
+    build: async () => ({ method: "post", url: "/api/research/projects", body: { name: `Matrix project ${uniq()}` } }),
+  },
+  "GET /api/research/export-rules": { expect: { own: S(403, 403, 200, 403, 401) }, build: async () => ({ method: "get", url: "/api/research/export-rules" }) },
+  // Research consent: the patient, their clinicians and admins read and record it; researchers never.
+  "GET /api/consent/patients/:id": {
+    expect: { own: S(200, 200, 403, 200, 401), other: S(404, 404, 403, 200, 401) },
+    build: async (v) => ({ method: "get", url: `/api/consent/patients/${side(v).patientId}` }),
+  },
+  "POST /api/consent/patients/:id/events": {
+    expect: { own: S(201, 201, 403, 201, 401), other: S(404, 404, 403, 201, 401) },
+    build: async (v) => {
+      // Whatever the earlier rows left, ask for a real change (a no-op is a 409).
+      const pid = side(v).patientId;
+      const inForce = (await ctx.db("patients").where({ id: pid }).first("research_consent")).research_consent as boolean;
+      const last = await ctx.db("consent_events").where({ patient_id: pid }).orderBy("seq", "desc").first("counts", "kind");
+      const kind = inForce || (last && !last.counts && last.kind === "given") ? "withdrawn" : "given";
+      return { method: "post", url: `/api/consent/patients/${pid}/events`, body: { kind, reason: "matrix: recorded at the visit" } };
+    },
   },
 };
 
