@@ -56,9 +56,13 @@ start_fakes() {
   wait_for_line "$log" "fakes ready" 60 || { log "object-storage/e-mail fakes did not start:"; cat "$log" >&2; return 1; }
 }
 
-migrate_and_seed() {
+migrate_database() {
   pg_ensure_database "$PENDULA_DB"
   (cd "$ROOT" && node --enable-source-maps db/dist/migrate.js)
+}
+
+migrate_and_seed() {
+  migrate_database
   # PENDULA_SEED_MAX_WEEKS shortens each patient's history (the browser tests use 8 weeks).
   (cd "$ROOT" && node --enable-source-maps ingest-server/dist/seed-demo.js --if-empty ${PENDULA_SEED_MAX_WEEKS:+--max-weeks "$PENDULA_SEED_MAX_WEEKS"})
 }
@@ -68,14 +72,29 @@ build_portal() {
     { log "portal build failed:"; tail -40 "$PENDULA_DATA/portal-build.log" >&2; return 1; }
 }
 
-start_services() {
-  local slog="$PENDULA_DATA/server.log" wlog="$PENDULA_DATA/worker.log"
-  : >"$slog"; : >"$wlog"
+# start_worker [LOG]: one processing worker (node's own pid in WORKER_PID). Several may run side by
+# side; each takes one session at a time.
+start_worker() {
+  local wlog="${1:-$PENDULA_DATA/worker.log}"
   (cd "$ROOT" && exec node --enable-source-maps ingest-server/dist/worker.js) >>"$wlog" 2>&1 &
-  PRODUCT_PIDS+=($!)
+  WORKER_PID=$!
+  PRODUCT_PIDS+=("$WORKER_PID")
+}
+
+# start_server: the API server (pid in SERVER_PID); returns once it listens.
+start_server() {
+  local slog="$PENDULA_DATA/server.log"
+  : >"$slog"
   (cd "$ROOT" && exec node --enable-source-maps ingest-server/dist/server.js) >>"$slog" 2>&1 &
-  PRODUCT_PIDS+=($!)
+  SERVER_PID=$!
+  PRODUCT_PIDS+=("$SERVER_PID")
   wait_for_line "$slog" "^http://127.0.0.1:$PENDULA_PORT\$" 60 || { log "server did not start:"; cat "$slog" >&2; return 1; }
+}
+
+start_services() {
+  : >"$PENDULA_DATA/worker.log"
+  start_worker "$PENDULA_DATA/worker.log"
+  start_server
 }
 
 # Every descendant of a pid, deepest first (tsx runs the script in a child node process).
