@@ -8,6 +8,11 @@ import { WeeklyWalk } from "../components/weekly-walk";
 import { PREPARATION_ITEMS } from "../components/safety-checklist";
 import { runPrecheck } from "../precheck/run-precheck";
 
+const inputOf = (name: string, text: string) => {
+  const bytes = new TextEncoder().encode(text);
+  return { name, sizeBytes: bytes.length, bytes };
+};
+
 afterEach(() => vi.unstubAllGlobals());
 
 async function passChecklist(user: ReturnType<typeof userEvent.setup>) {
@@ -68,7 +73,7 @@ describe("in-browser pre-check", () => {
 
   it("finds the generator's strides and duration (truth from the generator's own events)", () => {
     const session = synthesizeSession({ seed: 3, durationS: 60, sampleRateHz: 100, strideTimeS: 1.1 });
-    const summary = runPrecheck(session.files.map((f) => ({ name: f.fileName, sizeBytes: f.text.length, text: f.text })));
+    const summary = runPrecheck(session.files.map((f) => inputOf(f.fileName, f.text)));
     const truthStrides = session.truth.left.strideTimesS.length + session.truth.right.strideTimesS.length;
     expect(summary.files.every((f) => f.recognised)).toBe(true);
     expect(Math.abs(summary.strideCount - truthStrides)).toBeLessThanOrEqual(2);
@@ -81,7 +86,7 @@ describe("in-browser pre-check", () => {
   }, 30_000);
 
   it("says in plain words when a file is not a sensor recording", () => {
-    const summary = runPrecheck([{ name: "shopping-list.csv", sizeBytes: 12, text: "milk,eggs\nbread,tea\n" }]);
+    const summary = runPrecheck([inputOf("shopping-list.csv", "milk,eggs\nbread,tea\n")]);
     expect(summary.verdict).toBe("redo");
     expect(summary.files[0]!.recognised).toBe(false);
     expect(summary.notices[0]!.text).toMatch(/shopping-list\.csv could not be read/);
@@ -89,7 +94,7 @@ describe("in-browser pre-check", () => {
 
   it("reports that no walking was found in a standing-only recording", () => {
     const session = synthesizeSession({ seed: 5, durationS: 30, standing: [{ startS: 0, durationS: 30 }] });
-    const summary = runPrecheck(session.files.map((f) => ({ name: f.fileName, sizeBytes: f.text.length, text: f.text })));
+    const summary = runPrecheck(session.files.map((f) => inputOf(f.fileName, f.text)));
     expect(summary.verdict).toBe("redo");
   }, 30_000);
 });

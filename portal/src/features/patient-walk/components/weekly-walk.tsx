@@ -1,10 +1,11 @@
 import { useState } from "react";
 import { IconInfo } from "@/components/icons";
-import { Button, ErrorState, FormMessage, LoadingState, PageHeader, TextField } from "@/components/ui";
+import { Button, ErrorState, FormMessage, PageHeader, TextField } from "@/components/ui";
 import { describeError, isApiError } from "@/lib/api-error";
 import { useUploadSession, type FileProgress } from "../api/upload-session";
-import { usePrecheck } from "../precheck/use-precheck";
+import { PrecheckCancelled, usePrecheck } from "../precheck/use-precheck";
 import { FileDrop } from "./file-drop";
+import { PrecheckProgressView } from "./precheck-progress";
 import { PrecheckSummaryView } from "./precheck-summary";
 import { SafetyChecklist } from "./safety-checklist";
 import { FileProgressList, ProcessingStatus } from "./upload-status";
@@ -65,8 +66,8 @@ export function WeeklyWalk() {
           <h2 className="text-lg font-bold">3. Add your sensor files</h2>
           {!upload.isPending && !upload.isSuccess ? <FileDrop onFiles={addFiles} /> : null}
 
-          {precheck.isPending ? <LoadingState label="Checking your recording on this device…" /> : null}
-          {precheck.isError ? <ErrorState title="The check could not run" error={precheck.error} /> : null}
+          {precheck.isPending ? <PrecheckProgressView progress={precheck.progress} onStop={reset} /> : null}
+          {precheck.isError && !(precheck.error instanceof PrecheckCancelled) ? <ErrorState title="The check could not run" error={precheck.error} /> : null}
           {precheck.data && !precheck.isPending ? <PrecheckSummaryView summary={precheck.data} /> : null}
 
           {hasBids && precheck.data && !upload.isPending && !upload.isSuccess ? (

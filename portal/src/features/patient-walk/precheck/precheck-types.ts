@@ -45,5 +45,20 @@ export interface PrecheckSummary {
 export interface PrecheckInputFile {
   name: string;
   sizeBytes: number;
-  text: string;
+  bytes: Uint8Array;
 }
+
+/** Where a running pre-check is, for the progress bar: 0–1 with words for the person waiting. */
+export interface PrecheckProgress {
+  stage: "reading" | "parsing" | "analysing";
+  /** 1-based file being read, while reading. */
+  fileNumber?: number;
+  fileCount: number;
+  fraction: number;
+}
+
+/** What the pre-check worker posts back: progress any number of times, then a summary or a failure. */
+export type PrecheckWorkerMessage =
+  | { kind: "progress"; progress: PrecheckProgress }
+  | { kind: "done"; summary: PrecheckSummary }
+  | { kind: "failed"; message: string };
