@@ -21,6 +21,7 @@ import type { AuthContext } from "../middleware/authenticate";
 import { processSession } from "../processing/process-session";
 import type { JobQueue } from "../queue/queue";
 import { uploadSession } from "../routes/sessions/upload.service";
+import { withUploadFiles } from "../uploads/temp-files";
 import { createRuntime } from "../runtime";
 
 /**
@@ -319,11 +320,8 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
       const plan = weekKinematicOptions(p, index, week, serials, at.toISOString());
       const files = demoSessionFiles(synthesizeKinematicSession(plan.options).recordings, plan.files);
       const req = { ip: "127.0.0.1", headers: { "user-agent": "pendula-demo-seed" }, get: () => "pendula-demo-seed" } as unknown as Request;
-      const result = await uploadSession(deps, req, {
-        auth: uploader,
-        patientId,
-        files: files.map((f) => ({ originalName: f.fileName, buffer: Buffer.from(f.text, "utf8") })),
-      });
+      const bodies = files.map((f) => ({ originalName: f.fileName, bytes: f.text }));
+      const result = await withUploadFiles(deps.config.upload.tmpDir, bodies, (paths) => uploadSession(deps, req, { auth: uploader, patientId, files: paths }));
       // Recorded before processing, as a clinician would at the visit, so the analysis is told about it.
       await db("walk_sessions").where({ id: result.id }).update({ walking_aid: demoWalkingAid(p, week) });
       await processSession(deps, result.id);

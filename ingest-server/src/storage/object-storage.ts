@@ -7,11 +7,15 @@ import {
   PutObjectCommand,
   S3Client,
 } from "@aws-sdk/client-s3";
+import { createReadStream } from "node:fs";
+import { stat } from "node:fs/promises";
 import type { Config } from "../config/env";
 
 /** Raw-file storage. Keys are opaque to callers' users: never built from names a patient chose. */
 export interface ObjectStorage {
   put(key: string, body: Buffer, contentType?: string): Promise<void>;
+  /** Streams a file from disk (uploads are never held whole in memory on their way to storage). */
+  putFile(key: string, filePath: string, contentType?: string): Promise<void>;
   /** Rejects with ObjectNotFoundError when the key does not exist. */
   get(key: string): Promise<Buffer>;
   /** Deleting a missing key is not an error (S3 semantics). */
@@ -54,6 +58,17 @@ export class S3ObjectStorage implements ObjectStorage {
     await this.client.send(
       new PutObjectCommand({ Bucket: this.bucket, Key: key, Body: body, ContentType: contentType, ContentLength: body.length }),
     );
+  }
+
+  async putFile(key: string, filePath: string, contentType = "application/octet-stream"): Promise<void> {
+    // ContentLength from the file itself: without it the SDK would buffer the stream to measure it.
+    const { size } = await stat(filePath);
+    const body = createReadStream(filePath);
+    try {
+      await this.client.send(new PutObjectCommand({ Bucket: this.bucket, Key: key, Body: body, ContentType: contentType, ContentLength: size }));
+    } finally {
+      body.destroy();
+    }
   }
 
   async get(key: string): Promise<Buffer> {

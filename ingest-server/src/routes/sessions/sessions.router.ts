@@ -18,14 +18,34 @@ import { ApiRouter, conformResponse, type RouteModule } from "../../http/api-rou
 import { getSessionJson, getSessionSignal, reprocessSession, updateSession } from "./sessions.service";
 import { unprocessableUnless } from "../unprocessable-body";
 import { uploadSession } from "./upload.service";
+import { answerAfterBody } from "../../middleware/answer-after-body";
+import { inFlightUploadLimit } from "../../uploads/in-flight-limit";
+import { requestUploadFolder, uploadFolderOf } from "../../uploads/temp-files";
 
-/** Multipart parsing in memory: the files are parsed and hashed before anything is stored. */
+/** Retry-After of a refusal for too many uploads in flight (common practice: a few seconds). */
+const UPLOAD_RETRY_AFTER_S = 10;
+
+/**
+ * Multipart bodies stream to the request's private folder (uploads/temp-files.ts), never into
+ * memory; parsing happens later, in a parse thread. multer removes what it wrote when it fails, and
+ * the folder itself goes when the response closes.
+ */
 function uploadMiddleware(deps: AppDeps): RequestHandler {
   const { maxFiles, maxFileBytes } = deps.config.upload;
   return multer({
-    storage: multer.memoryStorage(),
+    storage: multer.diskStorage({ destination: (req, _file, cb) => cb(null, uploadFolderOf(req)) }),
     limits: { files: maxFiles, fileSize: maxFileBytes, fields: 10, fieldSize: 4096, parts: maxFiles + 10 },
   }).array("files");
+}
+
+/**
+ * Refusals answered before the body is read (401, 403, 429, 413) wait until the client has sent
+ * it, so clients that write everything before reading still get the answer. Bounded by what an
+ * upload may legitimately carry, plus room for the multipart framing, and by two minutes.
+ */
+function refusalsAfterBody(deps: AppDeps): RequestHandler {
+  const { maxFiles, maxFileBytes } = deps.config.upload;
+  return answerAfterBody({ maxBytes: maxFiles * maxFileBytes + 1024 * 1024, maxMs: 120_000 });
 }
 
 /**
@@ -52,17 +72,25 @@ function uploadRateLimit(deps: AppDeps): RequestHandler {
 export function sessionsRouter(deps: AppDeps): ApiRouter {
   const api = new ApiRouter("/api/sessions", deps);
   const sessionCache = new AnswerCache(deps.config.sessionCacheBytes);
+  // Mounted ahead of the endpoint (and so of its authentication): see refusalsAfterBody.
+  api.router.post("/", refusalsAfterBody(deps));
   api.endpoint({
     method: "post",
     path: "/",
     summary: "Upload one walking test (multipart field `files`, one file per device); 202 queued, 200 when the same files were uploaded before",
     access: { scopes: ["sessions:write:own", "sessions:write:caseload"] },
-    before: [uploadRateLimit(deps), uploadMiddleware(deps)],
+    // In-flight cap first: a refused duplicate click should not use up the hourly allowance.
+    before: [
+      inFlightUploadLimit(deps.config.upload.inFlightPerUser, UPLOAD_RETRY_AFTER_S),
+      uploadRateLimit(deps),
+      requestUploadFolder(deps.config.upload.tmpDir),
+      uploadMiddleware(deps),
+    ],
     request: { body: uploadFields },
     status: 202,
     response: uploadResponse,
     handler: async ({ auth, body }, req, res) => {
-      const files = (Array.isArray(req.files) ? req.files : []).map((f) => ({ originalName: f.originalname, buffer: f.buffer }));
+      const files = (Array.isArray(req.files) ? req.files : []).map((f) => ({ originalName: f.originalname, path: f.path }));
       const result = await uploadSession(deps, req, { auth, files, patientId: body.patientId, bidsStartUtc: body.startUtc });
       if (result.duplicate) {
         res.status(200).json(uploadResponse.parse(result));

@@ -6,7 +6,9 @@ import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
 import { QUEUES } from "../../queue/queue";
-import { invalidFile, parseUpload, type IncomingFile, type ParsedUpload } from "./parse-upload";
+import { uploadParsePool } from "../../uploads/parse-pool";
+import type { UploadSummary } from "../../uploads/parse-job";
+import { invalidFile } from "./parse-upload";
 import {
   findDeviceAt,
   findSession,
@@ -22,9 +24,15 @@ export interface UploadResult {
   duplicate: boolean;
 }
 
+/** A file multer wrote to the request's private folder. */
+export interface UploadedFile {
+  originalName: string;
+  path: string;
+}
+
 export interface UploadInput {
   auth: AuthContext;
-  files: IncomingFile[];
+  files: UploadedFile[];
   /** Required when a clinician uploads; ignored (must match) for a patient. */
   patientId?: string;
   bidsStartUtc?: string;
@@ -55,13 +63,13 @@ function resolvePatient(auth: AuthContext, patientId: string | undefined): strin
  * Errors name the device and the file, but never another patient: a device worn by someone else at
  * that moment reads as "not assigned to this patient".
  *
- * BIDS Motion data names its placement itself (channels.tsv `tracked_point`, a field of the
- * standard) and has one serial per tracking system, not per sensor. A BIDS recording whose
- * `<DeviceSerialNumber>:<tracked point>` is registered goes through the registry like any file;
- * one that is not registered takes the placement of its tracked point, with no device attached.
+ * BIDS Motion data has one DeviceSerialNumber per tracking system, not per sensor, so its sensors
+ * are registered as `<DeviceSerialNumber>:<tracked point>` (the reader names each recording so) and
+ * go through the registry like any sensor file: an unregistered one is refused, so nobody can
+ * upload walks for a patient without the devices the clinic gave them.
  */
-async function mapPlacements(deps: AppDeps, patientId: string, upload: ParsedUpload) {
-  const mapped: Array<{ deviceId: string | null; placement: string }> = [];
+async function mapPlacements(deps: AppDeps, patientId: string, upload: UploadSummary) {
+  const mapped: Array<{ deviceId: string; placement: string }> = [];
   const byPlacement = new Map<string, string>();
   for (const [i, recording] of upload.recordings.entries()) {
     const file = upload.files[upload.recordingFile[i]!]!;
@@ -70,19 +78,13 @@ async function mapPlacements(deps: AppDeps, patientId: string, upload: ParsedUpl
     if (!serial) throw invalidFile(fileName, `${fileName}: no device serial in the file`);
     const device = await findDeviceAt(deps.db, serial, recording.startUtc);
     if (!device && file.format === "bids-motion") {
-      if (!recording.placement) {
-        throw invalidFile(fileName, `${recording.fileName}: the tracked point is not one of the placements Pendula reads (see the BIDS table in signal/README.md)`);
-      }
-      const other = byPlacement.get(recording.placement);
-      if (other) {
-        throw new HttpError(422, "duplicate_placement", `${recording.fileName}: ${recording.placement} is already covered by ${other} in this upload`, {
-          file: fileName,
-          placement: recording.placement,
-        });
-      }
-      byPlacement.set(recording.placement, recording.fileName);
-      mapped.push({ deviceId: null, placement: recording.placement });
-      continue;
+      const [system, trackedPoint] = splitBidsSerial(serial);
+      throw new HttpError(
+        422,
+        "unknown_device",
+        `${recording.fileName}: sensor ${serial} is not registered (BIDS sensors are registered as <DeviceSerialNumber>:<tracked point>, here DeviceSerialNumber ${system} and tracked point ${trackedPoint}); ask an administrator to register and assign it`,
+        { file: fileName, deviceSerial: serial },
+      );
     }
     if (!device) {
       throw new HttpError(422, "unknown_device", `${fileName}: device ${serial} is not registered`, { file: fileName, deviceSerial: serial });
@@ -109,11 +111,18 @@ async function mapPlacements(deps: AppDeps, patientId: string, upload: ParsedUpl
   return mapped;
 }
 
+/** `<DeviceSerialNumber>:<tracked point>` → its two parts (the serial itself may hold colons). */
+function splitBidsSerial(serial: string): [string, string] {
+  const at = serial.lastIndexOf(":");
+  return at < 0 ? [serial, "n/a"] : [serial.slice(0, at), serial.slice(at + 1)];
+}
+
 /**
  * POST /api/sessions. Order matters for "nothing lost, nothing orphaned":
- * 1. parse and validate everything in memory (a 4xx here stores nothing);
+ * 1. parse and validate everything in a parse thread, from the request's private folder (a 4xx
+ *    here stores nothing; the folder goes when the response closes);
  * 2. same patient + same content → the existing session (200 duplicate);
- * 3. raw files to object storage under keys unique to this attempt;
+ * 3. raw files streamed from disk to object storage under keys unique to this attempt;
  * 4. session + raw_files rows in one transaction; if it fails, this attempt's objects are deleted.
  *    A concurrent identical upload loses on the unique (patient_id, content_sha256) constraint,
  *    deletes its own objects and answers with the winner;
@@ -124,7 +133,11 @@ export async function uploadSession(deps: AppDeps, req: Request, input: UploadIn
   const patientId = resolvePatient(input.auth, input.patientId);
   await assertPatientAccess(deps.db, input.auth, patientId, "clinical");
 
-  const upload = parseUpload(input.files, { maxChars: deps.config.upload.maxFileBytes, bidsStartUtc: input.bidsStartUtc });
+  const upload = await uploadParsePool().run({
+    files: input.files,
+    maxChars: deps.config.upload.maxFileBytes,
+    ...(input.bidsStartUtc === undefined ? {} : { bidsStartUtc: input.bidsStartUtc }),
+  });
   const placements = await mapPlacements(deps, patientId, upload);
 
   const existing = await findSessionByContent(deps.db, patientId, upload.contentSha256);
@@ -147,7 +160,7 @@ export async function uploadSession(deps: AppDeps, req: Request, input: UploadIn
       // two concurrent uploads of the same bytes from ever sharing — and deleting — one object.
       storage_key: `raw/${patientId}/${sessionId}/${String(fileIndex).padStart(2, "0")}-${file.sha256}`,
       sha256: file.sha256,
-      size_bytes: file.buffer.length,
+      size_bytes: file.sizeBytes,
       original_name: file.originalName,
       format: file.format,
       device_serial: recording.deviceSerial,
@@ -168,7 +181,7 @@ export async function uploadSession(deps: AppDeps, req: Request, input: UploadIn
   try {
     for (const [i, row] of rows.entries()) {
       const contentType = upload.files[i]!.originalName.toLowerCase().endsWith(".json") ? "application/json" : "text/plain";
-      await deps.storage.put(row.storage_key, upload.files[i]!.buffer, contentType);
+      await deps.storage.putFile(row.storage_key, upload.files[i]!.path, contentType);
       stored.push(row.storage_key);
     }
     await insertSessionWithFiles(

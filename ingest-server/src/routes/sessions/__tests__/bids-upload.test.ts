@@ -30,7 +30,15 @@ afterAll(async () => {
 describe("POST /api/sessions with a BIDS Motion set", () => {
   const synth = () => synthFor({}, { seed: 23, strideTimeS: 1.15, startUtc: START });
 
-  it("stores the set, takes placements from the tracked points and processes to done", async () => {
+  it("stores the set, maps each registered <DeviceSerialNumber>:<tracked point> through its assignment and processes to done", async () => {
+    // The set names no DeviceSerialNumber, so the reader keys sensors by TrackingSystemName "imu".
+    const placementOf: Record<string, string> = { LeftShank: "left_shank", RightShank: "right_shank", LeftWrist: "left_wrist", RightWrist: "right_wrist" };
+    const deviceIds: string[] = [];
+    for (const [point, placement] of Object.entries(placementOf)) {
+      const [device] = await ctx.db("devices").insert({ serial: `imu:${point}`, kind: "imu6", firmware: "2.4.1", status: "assigned" }).returning("id");
+      await ctx.db("device_assignments").insert({ device_id: device.id, patient_id: patient.patientId, placement, valid_from: "2026-01-01T00:00:00Z" });
+      deviceIds.push(device.id as string);
+    }
     const files = bidsSetFromSynth(synth());
     const before = await storedCounts(ctx);
     const res = await upload(ctx, tokens[patient.id]!, files, { startUtc: START });
@@ -43,7 +51,8 @@ describe("POST /api/sessions with a BIDS Motion set", () => {
     expect(rows.map((r) => r.format)).toEqual(["bids-motion", "bids-motion", "bids-motion"]);
     const data = rows.find((r) => r.original_name.endsWith("_motion.tsv"))!;
     expect(Object.values(data.recording_placements).sort()).toEqual(["left_shank", "left_wrist", "right_shank", "right_wrist"]);
-    expect(rows.every((r) => r.device_id === null)).toBe(true);
+    // Every file of the set carries the device of its first recording; the data file maps all four.
+    expect(rows.every((r) => deviceIds.includes(r.device_id))).toBe(true);
 
     expect(await processSession(ctx.deps, res.body.id)).toBe("done");
     const session = await request(ctx.app).get(`/api/sessions/${res.body.id}`).set("Authorization", `Bearer ${tokens[clinician.id]}`);
@@ -54,6 +63,18 @@ describe("POST /api/sessions with a BIDS Motion set", () => {
     const expected = 120 / mean(synth().truth.strideTimesS);
     expect(Math.abs(session.body.analysis.metrics.cadenceStepsPerMin - expected) / expected).toBeLessThan(0.03);
     expect(session.body.analysis.metrics.armLeg.leftArmRightLeg.frequencyRatio).toBe(1);
+  });
+
+  it("an unregistered BIDS sensor → 422 unknown_device naming <DeviceSerialNumber>:<tracked point>, nothing stored", async () => {
+    const files = bidsSetFromSynth(synthFor({}, { seed: 27, startUtc: START }));
+    files[2]!.text = JSON.stringify({ ...JSON.parse(files[2]!.text), DeviceSerialNumber: "FHG-UNLISTED-77" });
+    const before = await storedCounts(ctx);
+    const res = await upload(ctx, tokens[clinician.id]!, files, { startUtc: START, patientId: patient.patientId! });
+    expect(res.status, JSON.stringify(res.body)).toBe(422);
+    expect(res.body.error.code).toBe("unknown_device");
+    expect(res.body.error.details.deviceSerial).toMatch(/^FHG-UNLISTED-77:(Left|Right)(Shank|Wrist)$/);
+    expect(res.body.error.message).toContain(res.body.error.details.deviceSerial);
+    expect(await storedCounts(ctx)).toEqual(before);
   });
 
   it("without startUtc (and no clock time in the files) → 422 asking for it, nothing stored", async () => {

@@ -146,7 +146,16 @@ describe("concurrent identical uploads", () => {
   it("end as one session: one 202, the others 200 duplicate with the same id, no orphaned objects", async () => {
     const files = synthFor(serials, { seed: 23, startUtc: "2026-11-30T08:00:00.000Z" }).files;
     const before = await storedCounts(ctx);
-    const results = await Promise.all([1, 2, 3].map(() => upload(ctx, tokens[patient.id]!, files)));
+    // Three accounts, since one account may have only two uploads in flight: the patient and two
+    // clinicians of their caseload send the same walk at the same moment.
+    const thirdClinician = await ctx.seedUser({ role: "clinician" });
+    await ctx.addToCaseload(thirdClinician.id, patient.patientId!);
+    const forPatient = { patientId: patient.patientId! };
+    const results = await Promise.all([
+      upload(ctx, tokens[patient.id]!, files),
+      upload(ctx, tokens[clinician.id]!, files, forPatient),
+      upload(ctx, await ctx.tokenFor(thirdClinician), files, forPatient),
+    ]);
     const statuses = results.map((r) => r.status).sort();
     expect(statuses).toEqual([200, 200, 202]);
     expect(new Set(results.map((r) => r.body.id)).size).toBe(1);
