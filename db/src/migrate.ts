@@ -1,7 +1,9 @@
-import { createDb } from "./connection";
+import { createDb, databaseUrl } from "./connection";
 
-// `npm run migrate -w db [-- down]`: latest by default, `down` rolls back every batch.
-const db = createDb();
+// `npm run migrate -w db [-- down]`: latest by default, `down` rolls back every batch. Runs as the
+// tables' owner (MIGRATION_DATABASE_URL) when that is set: the application's own role
+// (DATABASE_URL) may not change the schema.
+const db = createDb(process.env.MIGRATION_DATABASE_URL || databaseUrl());
 try {
   if (process.argv.includes("down")) {
     await db.migrate.rollback(undefined, true);
