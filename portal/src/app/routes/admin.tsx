@@ -52,6 +52,21 @@ export function adminRoutes(queryClient: QueryClient): RouteObject[] {
       lazy: async () => ({ Component: (await import("@/features/admin-users/components/invitations-page")).InvitationsPage }),
     },
     {
+      path: "caseloads",
+      lazy: async () => {
+        const [page, api] = await Promise.all([
+          import("@/features/admin-caseloads/components/caseload-links-page"),
+          import("@/features/admin-caseloads/api/caseload-links"),
+        ]);
+        return {
+          Component: page.CaseloadLinksPage,
+          loader: afterGuard(queryClient, "admin", async () => {
+            void queryClient.prefetchQuery(api.caseloadLinksQueryOptions({ state: "active", limit: api.CASELOAD_LINK_PAGE_SIZE, offset: 0 }));
+          }),
+        };
+      },
+    },
+    {
       path: "audit",
       lazy: async () => ({ Component: (await import("@/features/admin-audit/components/audit-log-page")).AuditLogPage }),
     },
@@ -67,6 +82,7 @@ export const adminNav: NavItem[] = [
   { to: "/admin/devices", label: "Devices" },
   { to: "/admin/users", label: "Users" },
   { to: "/admin/invitations", label: "Invitations" },
+  { to: "/admin/caseloads", label: "Caseloads" },
   { to: "/admin/audit", label: "Audit log" },
   { to: "/admin/mailbox", label: "Mailbox" },
 ];

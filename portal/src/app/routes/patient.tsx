@@ -16,17 +16,23 @@ export function patientRoutes(queryClient: QueryClient): RouteObject[] {
     {
       path: "progress",
       lazy: async () => {
-        const m = await import("@/features/patient-progress");
+        const [m, team] = await Promise.all([import("@/features/patient-progress"), import("@/features/care-team")]);
         return {
           loader: async () => {
             const me = await queryClient.ensureQueryData(meQueryOptions());
+            void queryClient.prefetchQuery(team.careTeamQueryOptions());
             if (me?.patientId) await m.prefetchMyWalks(queryClient, me.patientId);
             return null;
           },
           Component: function ProgressRoute() {
             const { data: me } = useMe();
             if (!me?.patientId) return <ErrorState title="This account is not linked to a patient record" />;
-            return <m.PatientProgress patientId={me.patientId} />;
+            return (
+              <>
+                <m.PatientProgress patientId={me.patientId} />
+                <team.CareTeamPanel />
+              </>
+            );
           },
         };
       },

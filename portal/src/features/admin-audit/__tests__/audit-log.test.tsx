@@ -18,6 +18,7 @@ const event = (n: number) => ({
   ip: "127.0.0.1",
   userAgent: null,
   details: { outcome: "ok" },
+  withheld: [] as string[],
 });
 
 afterEach(() => vi.unstubAllGlobals());
@@ -62,6 +63,34 @@ describe("AuditLogPage", () => {
     await userEvent.click(screen.getByRole("button", { name: "Apply filters" }));
     expect(screen.getByText("an actor id is a UUID")).toBeTruthy();
     expect(calls).toHaveLength(1);
+  });
+
+  it("says what it leaves out: a patient's address and clinical details", async () => {
+    mockApi({
+      "GET /api/audit": {
+        items: [
+          { ...event(1), actorRole: "patient", ip: null, withheld: ["ip", "userAgent"] },
+          { ...event(2), actorRole: "clinician", action: "training.create", details: null, withheld: ["details"] },
+        ],
+        total: 2,
+        limit: 50,
+        offset: 0,
+      },
+    });
+    renderAtRoute(<AuditLogPage />);
+    const table = await screen.findByRole("table");
+    expect(within(table).getByText("not shown (patient)")).toBeTruthy();
+    expect(within(table).getByText("clinical details not shown")).toBeTruthy();
+    const [patientRow, clinicianRow] = within(table).getAllByRole("row").slice(1);
+    expect(patientRow!.textContent).not.toContain("127.0.0.1");
+    expect(clinicianRow!.textContent).toContain("127.0.0.1");
+  });
+
+  it("refuses an answer that carries a patient's address instead of showing it", async () => {
+    mockApi({ "GET /api/audit": { items: [{ ...event(1), actorRole: "patient", ip: "198.51.100.7" }], total: 1, limit: 50, offset: 0 } });
+    renderAtRoute(<AuditLogPage />);
+    expect(await screen.findByText("The audit log could not be loaded")).toBeTruthy();
+    expect(screen.queryByText("198.51.100.7")).toBeNull();
   });
 
   it("shows the error state", async () => {

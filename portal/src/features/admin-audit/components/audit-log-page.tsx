@@ -15,7 +15,9 @@ function formatAt(iso: string): string {
   return new Date(iso).toLocaleString("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", second: "2-digit" });
 }
 
-function detailsText(details: AuditEventView["details"]): string {
+function detailsText(e: AuditEventView): string {
+  if (e.withheld.includes("details")) return "clinical details not shown";
+  const details = e.details;
   if (!details) return "";
   return Object.entries(details)
     .map(([k, v]) => `${k}: ${typeof v === "object" ? JSON.stringify(v) : String(v)}`)
@@ -53,7 +55,8 @@ export function AuditLogPage() {
   return (
     <div>
       <PageHeader eyebrow="Administration" title="Audit log">
-        Every sign-in, every read of a patient's data, every export and every administrative change, newest first.
+        Every sign-in, every read of a patient&apos;s data, every refused attempt to reach one, every export and every administrative change,
+        newest first. A patient&apos;s network address and browser, and training or walking-aid details, are not shown here.
       </PageHeader>
       <form onSubmit={apply} noValidate aria-label="Filter audit events" className="card mb-5 grid gap-4 p-5">
         <div className="grid gap-4 md:grid-cols-3 lg:grid-cols-5">
@@ -108,8 +111,8 @@ export function AuditLogPage() {
                     {e.resourceType}
                     {e.resourceId ? <span className="block break-all font-mono text-ink-soft">{e.resourceId}</span> : null}
                   </Td>
-                  <Td className="font-mono text-xs">{e.ip ?? "—"}</Td>
-                  <Td className="max-w-xs break-words text-xs text-ink-soft">{detailsText(e.details)}</Td>
+                  <Td className="font-mono text-xs">{e.withheld.includes("ip") ? <span className="font-sans text-ink-soft">not shown (patient)</span> : (e.ip ?? "—")}</Td>
+                  <Td className="max-w-xs break-words text-xs text-ink-soft">{detailsText(e)}</Td>
                 </tr>
               ))}
             </tbody>

@@ -1,0 +1,2 @@
+export { CareTeamPanel } from "./components/care-team-panel";
+export { careTeamQueryOptions, careTeamKeys } from "./api/care-team";
