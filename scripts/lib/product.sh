@@ -44,6 +44,8 @@ product_env() {
   export AWS_ACCESS_KEY_ID=S3RVER AWS_SECRET_ACCESS_KEY=S3RVER
   export SMTP_HOST=127.0.0.1 SMTP_PORT="$PENDULA_SMTP_PORT" MAIL_FROM="Pendula <no-reply@pendula.test>"
   export DEV_MAILBOX_DIR="$PENDULA_DATA/fakes/mailbox"
+  # Upload bodies between the socket and object storage (a private folder, mode 700).
+  export UPLOAD_TMP_DIR="$PENDULA_DATA/upload-tmp"
   export PORTAL_DIST="$ROOT/portal/dist"
 }
 

@@ -61,6 +61,11 @@ export class ParsePool {
     });
   }
 
+  /** Jobs being parsed right now. */
+  get running(): number {
+    return this.slots.filter((s) => s.task).length;
+  }
+
   /** Jobs waiting for a thread (not counting those running). */
   get waiting(): number {
     return this.queue.length;
