@@ -3,7 +3,7 @@ import { createBrowserRouter, type RouteObject } from "react-router-dom";
 import { AppShell, AuthLayout, PendingPage } from "./layout/app-shell";
 import { NotFound, RouteError } from "./layout/route-error";
 import { adminRoutes } from "./routes/admin";
-import { AcceptInvitationRoute, ResetConfirmRoute, ResetRequestRoute, SignInRoute } from "./routes/auth";
+import { AcceptInvitationRoute, AccountSecurityRoute, ResetConfirmRoute, ResetRequestRoute, SecondFactorSetupRoute, SignInRoute } from "./routes/auth";
 import { clinicianRoutes } from "./routes/clinician";
 import { homeRedirect, redirectSignedIn, requireRole, requireUser } from "./routes/guards";
 import { patientRoutes } from "./routes/patient";
@@ -42,6 +42,9 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
             { path: "clinician", loader: requireRole(queryClient, "clinician"), errorElement: <RouteError />, children: clinicianRoutes(queryClient) },
             { path: "research", loader: requireRole(queryClient, "researcher"), errorElement: <RouteError />, children: researcherRoutes(queryClient) },
             { path: "admin", loader: requireRole(queryClient, "admin"), errorElement: <RouteError />, children: adminRoutes(queryClient) },
+            // Every role: the authenticator app (a staff account without one is held on the setup screen).
+            { path: "second-factor/setup", element: <SecondFactorSetupRoute /> },
+            { path: "account/security", element: <AccountSecurityRoute /> },
           ],
         },
         { path: "*", element: <NotFound /> },

@@ -58,16 +58,30 @@ export function apiUrl(path: string): string {
 
 const NO_REFRESH_PATHS = ["/auth/login", "/auth/refresh", "/auth/logout"];
 
+/**
+ * Tabs of one browser share the refresh cookie, and each refresh rotates it. Where the Web Locks
+ * API exists, tabs take turns: the second tab's request leaves only after the first one's answer
+ * has set the new cookie, so it presents that one instead of the token just replaced (the server
+ * would accept that once within its grace window, but taking turns needs no grace at all).
+ */
+function oneTabAtATime<T>(fn: () => Promise<T>): Promise<T> {
+  const locks = typeof navigator !== "undefined" ? navigator.locks : undefined;
+  // request() resolves with the callback's return value, itself a promise here; then() flattens it.
+  return locks ? locks.request("pendula-refresh", fn).then((settled) => settled) : fn();
+}
+
 /** Asks the server for a new access token with the refresh cookie; concurrent 401s share one call. */
 export function refreshAccessToken(): Promise<string | null> {
   if (!hasSessionHint()) return Promise.resolve(null);
   refreshInFlight ??= (async () => {
     try {
-      const res = await fetch(apiUrl("/auth/refresh"), {
-        method: "POST",
-        credentials: "include",
-        headers: { Accept: "application/json" },
-      });
+      const res = await oneTabAtATime(() =>
+        fetch(apiUrl("/auth/refresh"), {
+          method: "POST",
+          credentials: "include",
+          headers: { Accept: "application/json" },
+        }),
+      );
       if (!res.ok) {
         setSessionHint(false);
         return null;

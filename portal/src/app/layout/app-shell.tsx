@@ -1,7 +1,7 @@
-import { NavLink, Outlet, useNavigate, useOutlet } from "react-router-dom";
+import { Link, NavLink, Outlet, useNavigate, useOutlet } from "react-router-dom";
 import { IconPendula, IconSignOut } from "@/components/icons";
 import { Button, ClinicalNotice, EmptyState, LoadingState } from "@/components/ui";
-import { useMe, useSignOut, type Role } from "@/features/auth";
+import { needsSecondFactorSetup, useMe, useSignOut, type Role } from "@/features/auth";
 import { adminNav } from "../routes/admin";
 import type { NavItem } from "../routes/nav";
 import { researcherNav } from "../routes/researcher";
@@ -49,7 +49,9 @@ export function AppShell() {
   const signOut = useSignOut();
   const navigate = useNavigate();
   const outlet = useOutlet();
-  const items = me ? NAV[me.role] : [];
+  const settingUp = needsSecondFactorSetup(me);
+  // Until a staff account has its second factor, there is nowhere else to go.
+  const items = me && !settingUp ? NAV[me.role] : [];
 
   return (
     <div className="flex min-h-dvh flex-col">
@@ -85,6 +87,11 @@ export function AppShell() {
                 <span className="font-semibold text-sand">{me.displayName ?? me.name ?? me.email}</span>
                 <span className="ml-1.5 rounded bg-white/10 px-1.5 py-0.5 text-xs">{ROLE_LABEL[me.role]}</span>
               </span>
+              {settingUp ? null : (
+                <Link to="/account/security" className="rounded-md px-2 py-1 font-semibold text-sand/90 hover:bg-white/10 hover:text-sand">
+                  Account security
+                </Link>
+              )}
               <Button
                 variant="quiet"
                 size="sm"

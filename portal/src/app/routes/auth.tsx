@@ -1,5 +1,5 @@
 import { useSearchParams } from "react-router-dom";
-import { AcceptInvitationForm, ResetConfirmForm, ResetRequestForm, SignInForm } from "@/features/auth";
+import { AcceptInvitationForm, AccountSecurity, ResetConfirmForm, ResetRequestForm, SecondFactorSetup, SignInForm } from "@/features/auth";
 
 export const SignInRoute = () => <SignInForm />;
 export const AcceptInvitationRoute = () => <AcceptInvitationForm />;
@@ -9,3 +9,5 @@ export function ResetRequestRoute() {
   return params.get("token") ? <ResetConfirmForm /> : <ResetRequestForm />;
 }
 export const ResetConfirmRoute = () => <ResetConfirmForm />;
+export const SecondFactorSetupRoute = () => <SecondFactorSetup />;
+export const AccountSecurityRoute = () => <AccountSecurity />;

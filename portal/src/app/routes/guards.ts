@@ -1,6 +1,6 @@
 import type { QueryClient } from "@tanstack/react-query";
 import { redirect, type LoaderFunctionArgs } from "react-router-dom";
-import { meQueryOptions, ROLE_HOME, type Me, type Role } from "@/features/auth";
+import { meQueryOptions, needsSecondFactorSetup, ROLE_HOME, SECOND_FACTOR_SETUP_PATH, type Me, type Role } from "@/features/auth";
 
 async function currentUser(queryClient: QueryClient): Promise<Me | null> {
   return queryClient.ensureQueryData(meQueryOptions());
@@ -15,8 +15,13 @@ export const requireUser =
       const url = new URL(request.url);
       throw redirect(`/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`);
     }
+    // A staff account without its second factor reaches the setup screen and nothing else.
+    if (needsSecondFactorSetup(me) && new URL(request.url).pathname !== SECOND_FACTOR_SETUP_PATH) throw redirect(SECOND_FACTOR_SETUP_PATH);
     return me;
   };
+
+/** Where a signed-in person belongs: their home, or the second-factor setup while it is missing. */
+const landing = (me: Me) => (needsSecondFactorSetup(me) ? SECOND_FACTOR_SETUP_PATH : ROLE_HOME[me.role]);
 
 /** A signed-in person in the wrong area is sent to their own home, not shown a 403 page. */
 export const requireRole =
@@ -30,13 +35,13 @@ export const requireRole =
 /** `/` and the sign-in pages send a signed-in person straight to their home. */
 export const redirectSignedIn = (queryClient: QueryClient) => async (): Promise<null> => {
   const me = await currentUser(queryClient).catch(() => null);
-  if (me) throw redirect(ROLE_HOME[me.role]);
+  if (me) throw redirect(landing(me));
   return null;
 };
 
 export const homeRedirect = (queryClient: QueryClient) => async (): Promise<never> => {
   const me = await currentUser(queryClient).catch(() => null);
-  throw redirect(me ? ROLE_HOME[me.role] : "/sign-in");
+  throw redirect(me ? landing(me) : "/sign-in");
 };
 
 /**
@@ -49,6 +54,6 @@ export const afterGuard =
   <A extends unknown[]>(queryClient: QueryClient, role: Role, load: (...args: A) => Promise<unknown>) =>
   async (...args: A): Promise<null> => {
     const me = await currentUser(queryClient).catch(() => null);
-    if (me?.role === role) await load(...args);
+    if (me?.role === role && !needsSecondFactorSetup(me)) await load(...args);
     return null;
   };

@@ -5,3 +5,6 @@ export * from "./api/passwords";
 export { SignInForm } from "./components/sign-in-form";
 export { AcceptInvitationForm } from "./components/accept-invitation-form";
 export { ResetRequestForm, ResetConfirmForm } from "./components/password-reset-forms";
+export * from "./api/second-factor";
+export { SecondFactorSetup } from "./components/second-factor-setup";
+export { AccountSecurity } from "./components/account-security";

@@ -4,15 +4,23 @@ import { Button, FormMessage, TextField } from "@/components/ui";
 import { isApiError } from "@/lib/api-error";
 import { describeError } from "@/lib/api-error";
 import { fieldErrors, formValues } from "@/lib/form";
-import { safeNextPath } from "../api/auth-keys";
+import { needsSecondFactorSetup, safeNextPath, SECOND_FACTOR_SETUP_PATH, type Me } from "../api/auth-keys";
 import { SignInInputSchema, useSignIn } from "../api/sign-in";
 import { AuthCard } from "./auth-card";
+import { SecondFactorStep } from "./second-factor-step";
 
 export function SignInForm() {
   const [params] = useSearchParams();
   const navigate = useNavigate();
   const signIn = useSignIn();
   const [errors, setErrors] = useState<Record<string, string>>({});
+  const [challenge, setChallenge] = useState<string | null>(null);
+  const [notice, setNotice] = useState<string | null>(null);
+
+  function goOn(me: Me) {
+    if (needsSecondFactorSetup(me)) navigate(SECOND_FACTOR_SETUP_PATH, { replace: true });
+    else navigate(safeNextPath(me.role, params.get("next")), { replace: true });
+  }
 
   async function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -22,9 +30,11 @@ export function SignInForm() {
       return;
     }
     setErrors({});
+    setNotice(null);
     try {
-      const me = await signIn.mutateAsync(parsed.data);
-      navigate(safeNextPath(me.role, params.get("next")), { replace: true });
+      const result = await signIn.mutateAsync(parsed.data);
+      if (result.kind === "second-factor") setChallenge(result.challenge);
+      else goOn(result.me);
     } catch {
       /* shown below from the mutation state */
     }
@@ -40,6 +50,22 @@ export function SignInForm() {
           ? describeError(failure)
           : null;
 
+  if (challenge) {
+    return (
+      <AuthCard title="Enter your sign-in code" intro="Your password is right. Open your authenticator app and enter the code it shows for Pendula.">
+        <SecondFactorStep
+          challenge={challenge}
+          onSignedIn={goOn}
+          onRestart={(why) => {
+            signIn.reset();
+            setChallenge(null);
+            setNotice(why);
+          }}
+        />
+      </AuthCard>
+    );
+  }
+
   return (
     <AuthCard
       title="Sign in to Pendula"
@@ -54,6 +80,7 @@ export function SignInForm() {
       }
     >
       <form noValidate onSubmit={onSubmit} className="flex flex-col gap-4" aria-label="Sign in">
+        {notice ? <FormMessage tone="error">{notice}</FormMessage> : null}
         {failureText ? <FormMessage tone="error">{failureText}</FormMessage> : null}
         <TextField label="E-mail" name="email" type="email" autoComplete="username" required error={errors.email} />
         <TextField label="Password" name="password" type="password" autoComplete="current-password" required error={errors.password} />
