@@ -11,7 +11,8 @@ import { strideMetrics } from "./gait/stride-metrics";
 import { buildSessionStrides } from "./gait/strides";
 import { describeExcludedStrides } from "./gait/excluded-strides";
 import { detectInvertedFoot, detectInvertedShank } from "./orientation/detect-inverted-segment";
-import { projectOnAxis, sagittalAxis } from "./orientation/sagittal-axis";
+import { type SagittalAxis, projectOnAxis, sagittalAxis } from "./orientation/sagittal-axis";
+import { sagittalSignals } from "./orientation/sagittal-signals";
 import { SATURATION_FLOOR_ACC_M_S2, SATURATION_FLOOR_GYRO_DEG_S, countSaturatedSamples } from "./quality/saturation";
 import { shankSwingAxisCheck } from "./quality/shank-swing-axis";
 import { MIN_STEADY_STRIDES_FOR_VARIABILITY, MISALIGNMENT_INFO_DEG, RATE_MISMATCH_FRACTION } from "./quality/thresholds";
@@ -42,6 +43,8 @@ export interface AnalyzeOptions {
   heightCm?: number;
   /** Walking aid used in this session (recorded by the clinician); any aid but "none" withholds arm–leg coupling. */
   walkingAid?: WalkingAid;
+  /** Also return each sensor's sagittal angular velocity and orientation decisions (`Analysis.sagittal`), e.g. for charts. */
+  sagittalSignals?: boolean;
 }
 
 const NO_COUPLING: ArmLegCoupling = { frequencyRatio: null, meanRelativePhaseDeg: null, couplingStrength: null, circularSdDeg: null, reason: "arm analysis skipped" };
@@ -51,6 +54,8 @@ interface LegSignal {
   placement: Placement;
   omega: Float64Array;
   events: LegEvents;
+  axis: SagittalAxis;
+  inverted: boolean;
 }
 
 /**
@@ -148,7 +153,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
       quality.push({ code: "inverted-sensor", severity: "warning", placement, message: `${placement} appears to be worn upside down or back to front (swing rotation has the wrong sign); the signal was inverted before analysis` });
     }
     const events = isFoot ? detectFootEvents(omega, mask, fs) : detectShankEvents(omega, mask, fs, s);
-    legs[side] = { side, placement, omega, events };
+    legs[side] = { side, placement, omega, events, axis, inverted: inversion.inverted };
   }
 
   // Turns: lower back when worn (cleanest yaw), else the mean over the leg sensors.
@@ -235,7 +240,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   const strideFrequencyHz = base.strideTimeMeanS ? 1 / base.strideTimeMeanS : Number.NaN;
   const legOf = (side: Side) => (legs[side] ? { omegaDegS: legs[side]!.omega, initialContactsS: legs[side]!.events.initialContactsS } : undefined);
   const arms = options.skipArmLeg
-    ? { armLeg: { leftArmRightLeg: { ...NO_COUPLING }, rightArmLeftLeg: { ...NO_COUPLING } }, armSwing: null, armSwingReason: "arm analysis skipped", counts: {}, quality: [] }
+    ? { armLeg: { leftArmRightLeg: { ...NO_COUPLING }, rightArmLeftLeg: { ...NO_COUPLING } }, armSwing: null, armSwingReason: "arm analysis skipped", counts: {}, quality: [], signCorrected: [] }
     : sessionArms({
         wrists: { left: sensors.get("left_wrist"), right: sensors.get("right_wrist") },
         legs: { left: legOf("left"), right: legOf("right") },
@@ -301,6 +306,9 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
     },
     quality,
     algorithm: { version: ALGORITHM_VERSION },
+    ...(options.sagittalSignals
+      ? { sagittal: sagittalSignals({ sensors, sampleRateHz: fs, boutMask, legs: Object.values(legs), invertedElsewhere: new Set(arms.signCorrected) }) }
+      : {}),
   };
 }
 

@@ -184,6 +184,29 @@ export interface Bout {
   endS: number;
 }
 
+/**
+ * One sensor's sagittal angular velocity on the session grid, with the orientation decisions behind
+ * it (returned by analyze() when asked with `sagittalSignals: true`; never part of the stored JSON).
+ */
+export interface SagittalSignal {
+  placement: Placement;
+  sampleRateHz: number;
+  /** Session time of sample 0. */
+  startS: number;
+  /** deg/s, sign as the analysis uses it; meaningless where `valid` is 0. */
+  omegaDegS: Float64Array;
+  /** 1 where the sensor has data (not outside its recording, not inside a long gap). */
+  valid: Uint8Array;
+  /** Unit rotation axis in the sensor frame, or null when too few samples (then the z axis). */
+  axis: [number, number, number] | null;
+  /** The samples the axis came from: walking bouts, the whole recording, or none (nominal z). */
+  axisFrom: "walking" | "recording" | "nominal";
+  /** The sign was reversed (sensor worn upside down or turned around). */
+  inverted: boolean;
+  /** This is the signal the leg's gait events were detected on. */
+  usedForEvents: boolean;
+}
+
 export interface Analysis {
   session: {
     startUtc: string;
@@ -199,6 +222,8 @@ export interface Analysis {
   metrics: Metrics;
   quality: QualityItem[];
   algorithm: { version: string };
+  /** Only with AnalyzeOptions.sagittalSignals: per placed sensor, in recording order. */
+  sagittal?: SagittalSignal[];
 }
 
 /** Thrown for input the analysis refuses: the message names file, line and column where known. */

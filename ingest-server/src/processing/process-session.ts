@@ -41,9 +41,13 @@ export async function processSession(deps: ProcessDeps, sessionId: string): Prom
   const recordings = await loadRecordings(deps, files);
   await setProgress(deps.db, sessionId, 30);
 
-  const analysis = analyze(recordings, await analysisOptions(deps.db, session.patient_id, session.walking_aid));
+  const { sagittal, ...analysis } = analyze(recordings, {
+    ...(await analysisOptions(deps.db, session.patient_id, session.walking_aid)),
+    sagittalSignals: true,
+  });
   await setProgress(deps.db, sessionId, 70);
-  const traces = sagittalTraces(recordings, analysis);
+  // The chart traces are the analysis' own signals; they are stored as arrays, not in the JSON.
+  const traces = sagittalTraces({ sagittal });
 
   await writeResults(deps.db, sessionId, session.patient_id, session.recorded_at, analysis, traces);
   return "done";

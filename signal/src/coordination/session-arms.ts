@@ -30,6 +30,8 @@ export interface SessionArms {
   armSwingReason: string | null;
   counts: Record<string, number>;
   quality: QualityItem[];
+  /** Wrists whose sagittal rotation was sign-corrected (worn upside down or turned around). */
+  signCorrected: Placement[];
 }
 
 const blank = (reason: string): ArmLegCoupling => ({ frequencyRatio: null, meanRelativePhaseDeg: null, couplingStrength: null, circularSdDeg: null, reason });
@@ -58,15 +60,16 @@ export function sessionArms(input: SessionArmsInput): SessionArms {
   const armLeg = { leftArmRightLeg: blank("no left wrist sensor"), rightArmLeftLeg: blank("no right wrist sensor") };
   const amplitude: Record<Side, number | null> = { left: null, right: null };
   const amplitudeReason: string[] = [];
+  const signCorrected: Placement[] = [];
   const cycleCounts: number[] = [];
   const facing: Partial<Record<Side, boolean | null>> = {};
   const anyWrist = input.wrists.left || input.wrists.right;
   if (!anyWrist) {
-    return { armLeg, armSwing: null, armSwingReason: "no wrist sensors in this session", counts, quality };
+    return { armLeg, armSwing: null, armSwingReason: "no wrist sensors in this session", counts, quality, signCorrected };
   }
   if (!Number.isFinite(f) || f <= 0 || input.steadyStrides.length === 0) {
     const reason = "no steady strides to time the arm swing against";
-    return { armLeg: { leftArmRightLeg: blank(reason), rightArmLeftLeg: blank(reason) }, armSwing: null, armSwingReason: reason, counts, quality };
+    return { armLeg: { leftArmRightLeg: blank(reason), rightArmLeftLeg: blank(reason) }, armSwing: null, armSwingReason: reason, counts, quality, signCorrected };
   }
 
   const n = (input.wrists.left ?? input.wrists.right)!.valid.length;
@@ -93,6 +96,7 @@ export function sessionArms(input: SessionArmsInput): SessionArms {
     const wear: string[] = [];
     if (orientation.upsideDown) wear.push("upside down (gravity points along its forearm axis the other way)");
     if (orientation.turnedAround) wear.push("turned around (its forward axis faces backward: worn on the inner wrist or on the other arm)");
+    if (orientation.flippedFromNominal) signCorrected.push(placement);
     if (orientation.flippedFromNominal || wear.length > 0) {
       quality.push({
         code: "inverted-sensor",
@@ -176,6 +180,7 @@ export function sessionArms(input: SessionArmsInput): SessionArms {
     armSwingReason: amplitudeReason.length > 0 ? amplitudeReason.join("; ") : !input.wrists.left ? "no left wrist sensor" : !input.wrists.right ? "no right wrist sensor" : null,
     counts,
     quality,
+    signCorrected,
   };
 }
 
