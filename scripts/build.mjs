@@ -25,6 +25,7 @@ export const ENTRIES = [
   ["ingest-server/src/dev/fakes.ts", "ingest-server/dist/fakes.js"],
   ["ingest-server/src/dev/seed-demo.ts", "ingest-server/dist/seed-demo.js"],
   ["db/src/migrate.ts", "db/dist/migrate.js"],
+  ["ingest-server/src/prepare-database.ts", "ingest-server/dist/prepare-database.js"],
 ];
 
 /** Files whose change alters every bundle although no bundle imports them. */

@@ -4,9 +4,9 @@
 set -euo pipefail
 . "$(dirname "$0")/lib/common.sh"
 ensure_postgres
-url="${DATABASE_URL:-postgres://postgres@127.0.0.1:${PENDULA_PG_PORT:-55433}/${PENDULA_DB:-pendula}}"
+product_database_connection
 out="${1:-$ROOT/.pendula/backups/pendula-$(date -u +%Y%m%dT%H%M%SZ).dump}"
 mkdir -p "$(dirname "$out")"
-"$PG_BIN/pg_dump" --format=custom --no-owner --no-privileges --file="$out" "$url"
+"$PG_BIN/pg_dump" --format=custom --no-owner --no-privileges --file="$out" "$PG_URL"
 log "backup written: $out ($(stat -c %s "$out") bytes)"
 echo "$out"

@@ -6,6 +6,7 @@ set -euo pipefail
 ensure_postgres
 in="${1:?usage: npm run db:restore -- FILE}"
 [ -f "$in" ] || { log "no such backup file: $in"; exit 2; }
-url="${DATABASE_URL:-postgres://postgres@127.0.0.1:${PENDULA_PG_PORT:-55433}/${PENDULA_DB:-pendula}}"
-"$PG_BIN/pg_restore" --clean --if-exists --no-owner --no-privileges --single-transaction --exit-on-error --dbname="$url" "$in"
+product_database_connection
+"$PG_BIN/pg_restore" --clean --if-exists --no-owner --no-privileges --single-transaction --exit-on-error --dbname="$PG_URL" "$in"
 log "restored $in"
+log "the next start (migrations and prepare-database) grants the application role its rights on the restored tables again"

@@ -34,12 +34,13 @@ cleanup() {
 }
 trap cleanup EXIT INT TERM
 
-pg_cluster_up "$PG_DIR" "$PENDULA_PG_PORT"
+product_cluster_up "$PG_DIR" "$PENDULA_PG_PORT"
 product_env
 start_fakes
 migrate_and_seed
 build_portal
 start_services
+log "DEMO MODE — demo accounts with a published password, captured mail at /api/dev/mailbox; not for patient data (README: production start)"
 log "Pendula is running. Sign in with the demo accounts in README.md. Ctrl-C stops it."
 echo "http://127.0.0.1:$PENDULA_PORT"
 wait

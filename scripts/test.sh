@@ -20,9 +20,11 @@ TMP="$(mktemp -d)"
 chmod 755 "$TMP"
 REPORTS="$TMP/reports"; mkdir -p "$REPORTS"
 PG_DIR="$TMP/pg"
+E2E_PG_DIR="$TMP/product-pg"
 cleanup() {
   trap - EXIT INT TERM
   stop_product
+  pg_cluster_down "$E2E_PG_DIR"
   pg_cluster_down "$PG_DIR"
   rm -rf "$TMP"
 }
@@ -57,8 +59,9 @@ E2E_RC=0
 if [ "${PENDULA_SKIP_E2E:-}" != "1" ] && [ -f tests/e2e/vitest.e2e.config.ts ]; then
   log "browser tests against the running product (throwaway database, demo seed)"
   PENDULA_DATA="$TMP/product"; PENDULA_DB=pendula_e2e; PENDULA_PORT="$(free_port)"; PENDULA_SEED_MAX_WEEKS=8
-  product_env
-  if start_fakes && migrate_and_seed && build_portal && start_services; then
+  # A cluster of its own, with passwords and the application role, as `npm start` runs it (the unit
+  # tests' cluster above trusts local connections, which only a throwaway folder may).
+  if product_cluster_up "$E2E_PG_DIR" "$(free_port)" throwaway && product_env && start_fakes && migrate_and_seed && build_portal && start_services; then
     PENDULA_E2E_URL="http://127.0.0.1:$PENDULA_PORT" npx vitest run --config tests/e2e/vitest.e2e.config.ts \
       --reporter=default --reporter=json --outputFile.json="$REPORTS/e2e.json"
     E2E_RC=$?

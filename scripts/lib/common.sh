@@ -54,14 +54,24 @@ as_pg() {
   if [ "$(id -u)" -eq 0 ]; then runuser -u "$u" -- "$@"; else "$@"; fi
 }
 
-# pg_cluster_up DIR PORT [throwaway]
+# pg_cluster_up DIR PORT [throwaway] [SUPERUSER_PASSWORD]
+# With a password (the product's clusters) every connection, on the socket and on 127.0.0.1, must
+# give its role's password (scram-sha-256); a cluster made earlier with trust is switched over.
+# Without one every local connection is trusted: throwaway test clusters only, in a private folder.
 pg_cluster_up() {
-  local dir="$1" port="$2" throwaway="${3:-}"
+  local dir="$1" port="$2" throwaway="${3:-}" password="${4:-}"
   mkdir -p "$dir"
   if [ "$(id -u)" -eq 0 ]; then chown "$(pg_user)" "$dir"; fi
   chmod 700 "$dir"
   if [ ! -f "$dir/data/PG_VERSION" ]; then
-    as_pg "$PG_BIN/initdb" -D "$dir/data" -U postgres --auth=trust -E UTF8 --locale=C.UTF-8 --no-sync >/dev/null
+    if [ -n "$password" ]; then
+      # initdb reads the password from a file the cluster's user can read, inside the private folder.
+      printf '%s\n' "$password" | as_pg tee "$dir/.initdb-pw" >/dev/null
+      as_pg "$PG_BIN/initdb" -D "$dir/data" -U postgres --auth=scram-sha-256 --pwfile="$dir/.initdb-pw" -E UTF8 --locale=C.UTF-8 --no-sync >/dev/null
+      as_pg rm -f "$dir/.initdb-pw"
+    else
+      as_pg "$PG_BIN/initdb" -D "$dir/data" -U postgres --auth=trust -E UTF8 --locale=C.UTF-8 --no-sync >/dev/null
+    fi
     {
       echo "listen_addresses = '127.0.0.1'"
       echo "port = $port"
@@ -76,6 +86,39 @@ pg_cluster_up() {
     as_pg "$PG_BIN/pg_ctl" -D "$dir/data" -l "$dir/postgres.log" -w -t 30 start >/dev/null
   fi
   export PGHOST=127.0.0.1 PGPORT="$port" PGUSER=postgres
+  # Not exported: psql and createdb get it per command (pg_psql), the product's processes never.
+  PG_SUPERUSER_PASSWORD="$password"
+  if [ -n "$password" ]; then pg_require_passwords "$dir"; fi
+}
+
+# The superuser's password in PGPASSWORD for this one command only.
+pg_psql() {
+  PGPASSWORD="${PG_SUPERUSER_PASSWORD:-}" "$PG_BIN/psql" -X -q -h 127.0.0.1 -p "$PGPORT" -U postgres -v ON_ERROR_STOP=1 "$@"
+}
+
+# pg_hba.conf of a product cluster: passwords on the socket and on loopback, nothing else.
+pg_require_passwords() {
+  local dir="$1" hba="$1/data/pg_hba.conf" want
+  want="$(printf '%s\n' \
+    "# Written by scripts/lib/common.sh: every connection gives its role's password." \
+    "# TYPE  DATABASE  USER  ADDRESS       METHOD" \
+    "local   all       all                 scram-sha-256" \
+    "host    all       all   127.0.0.1/32  scram-sha-256")"
+  if [ "$(as_pg cat "$hba")" != "$want" ]; then
+    if as_pg grep -qE '^[[:space:]]*(local|host)[^#]*[[:space:]]trust([[:space:]]|$)' "$hba"; then
+      # Made before passwords: trust still lets us in to give the superuser its password.
+      log "the cluster in $dir trusted every local connection: giving the superuser a password and switching to scram-sha-256"
+      printf "SET password_encryption = 'scram-sha-256';\nALTER ROLE postgres PASSWORD '%s';\n" "$PG_SUPERUSER_PASSWORD" |
+        "$PG_BIN/psql" -X -q -h 127.0.0.1 -p "$PGPORT" -U postgres -d postgres -v ON_ERROR_STOP=1 >/dev/null
+    fi
+    printf '%s\n' "$want" | as_pg tee "$hba" >/dev/null
+    as_pg "$PG_BIN/pg_ctl" -D "$dir/data" reload >/dev/null
+    sleep 0.2
+  fi
+  if ! pg_psql -d postgres -tAc "SELECT 1" >/dev/null 2>&1; then
+    log "the cluster in $dir refuses the superuser password from the secrets file; if that file was replaced, delete the cluster folder to start over"
+    return 1
+  fi
 }
 
 pg_cluster_down() {
@@ -87,7 +130,37 @@ pg_cluster_down() {
 
 pg_ensure_database() {
   local name="$1"
-  if ! "$PG_BIN/psql" -h 127.0.0.1 -p "$PGPORT" -U postgres -d postgres -tAc "SELECT 1 FROM pg_database WHERE datname='$name'" | grep -q 1; then
-    "$PG_BIN/createdb" -h 127.0.0.1 -p "$PGPORT" -U postgres "$name"
+  if ! pg_psql -d postgres -tAc "SELECT 1 FROM pg_database WHERE datname='$name'" | grep -q 1; then
+    PGPASSWORD="${PG_SUPERUSER_PASSWORD:-}" "$PG_BIN/createdb" -h 127.0.0.1 -p "$PGPORT" -U postgres "$name"
   fi
+}
+
+# secret_value FILE NAME: one NAME=value line of a secrets file (empty when absent).
+secret_value() {
+  [ -f "$1" ] || return 0
+  sed -n "s/^$2=//p" "$1" | head -n 1
+}
+
+# For db-backup.sh and db-restore.sh, sets PG_URL (without password) and exports PGPASSWORD, so the
+# password never appears on a command line (which any local user can list). The database is
+# MIGRATION_DATABASE_URL's (the tables' owner), else DATABASE_URL's, else that of the cluster
+# `npm start` runs, as its superuser with the password from .pendula/secrets.env. The application
+# role could do neither: it may not read the migration bookkeeping nor create tables.
+product_database_connection() {
+  local url="${MIGRATION_DATABASE_URL:-${DATABASE_URL:-}}" pw=""
+  if [ -z "$url" ]; then
+    url="postgres://postgres@127.0.0.1:${PENDULA_PG_PORT:-55433}/${PENDULA_DB:-pendula}"
+    pw="$(secret_value "${PENDULA_DATA:-$ROOT/.pendula}/secrets.env" PG_SUPERUSER_PASSWORD)"
+  fi
+  local split
+  split="$(PENDULA_URL_IN="$url" node -e '
+    const u = new URL(process.env.PENDULA_URL_IN);
+    const pw = decodeURIComponent(u.password);
+    u.password = "";
+    console.log(u.toString());
+    console.log(pw);
+  ')"
+  PG_URL="$(printf '%s\n' "$split" | sed -n 1p)"
+  [ -n "$pw" ] || pw="$(printf '%s\n' "$split" | sed -n 2p)"
+  if [ -n "$pw" ]; then export PGPASSWORD="$pw"; fi
 }
