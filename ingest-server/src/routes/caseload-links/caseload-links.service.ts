@@ -64,8 +64,14 @@ export function createCaseloadLinksService({ db }: AppDeps) {
       await audit(db, req, {
         action: "caseload_link.list",
         resourceType: "caseload_link",
-        patientId: filter.patientId ?? null,
-        details: { count: page.items.length, state: filter.state, ...(filter.clinicianId ? { clinicianId: filter.clinicianId } : {}) },
+        // The column names a patient only when the filter matched one: a made-up id stays in details.
+        patientId: filter.patientId && page.total > 0 ? filter.patientId : null,
+        details: {
+          count: page.items.length,
+          state: filter.state,
+          ...(filter.clinicianId ? { clinicianId: filter.clinicianId } : {}),
+          ...(filter.patientId ? { patientId: filter.patientId } : {}),
+        },
       });
       return { ...page, limit: query.limit, offset: query.offset };
     },

@@ -71,6 +71,9 @@ describe("caseload links", () => {
     expect(history.body.items[0]).toMatchObject({ active: false, reason: "joined the stroke pathway", endReason: "discharged to community team" });
     const activeOnly = await request(ctx.app).get(`/api/caseload-links?patientId=${patientId}`).set(as(adminToken));
     expect(activeOnly.body.total).toBe(0);
+    const unknown = await request(ctx.app).get("/api/caseload-links?patientId=00000000-0000-4000-8000-0000000000ff&state=all").set(as(adminToken));
+    expect([unknown.status, unknown.body.total]).toEqual([200, 0]);
+    expect((await request(ctx.app).get("/api/caseload-links?state=current").set(as(adminToken))).status).toBe(400);
 
     // A new link after the end is a new row; the old one stays.
     expect((await link(adminToken, { clinicianId: clinician.id, patientId, reason: "re-referred" })).status).toBe(201);
