@@ -24,7 +24,10 @@ let server: Server;
 let base: string;
 
 beforeAll(async () => {
-  ctx = await createTestContext();
+  // Five uploads per patient are in flight here at once, above the default cap of two per account
+  // (that cap and its 429 are tested in ingest-server/src/uploads/__tests__): this test is about
+  // the duplicate race, so it lifts the cap rather than measure it.
+  ctx = await createTestContext({ env: { UPLOAD_IN_FLIGHT_PER_USER: String(SESSIONS_EACH + 1) } });
   server = ctx.app.listen(0, "127.0.0.1");
   await new Promise<void>((r) => server.once("listening", () => r()));
   base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
