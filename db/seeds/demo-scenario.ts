@@ -3,6 +3,12 @@
 // ingest-server/src/dev/seed-demo.ts turns it into rows, sensor files and processed sessions.
 
 export const DEMO_PASSWORD = "demo-walk-2026";
+/**
+ * The demo staff accounts' authenticator secret (base32, RFC 4648), published like the password so
+ * anyone can try the demo: add it to an authenticator app, or print the current code with
+ * `npm run demo:code`. Seeded in demo mode only; a real account's secret is made at enrolment.
+ */
+export const DEMO_TOTP_SECRET = "PENDULADEMOSTAFFWALKTESTKEYQRSTU";
 export const DEMO_CLINIC = "Fernhollow Community Gait Service";
 
 export type DemoCondition = "incomplete_sci" | "stroke" | "parkinsons" | "other";

@@ -21,6 +21,7 @@ import type { AuthContext } from "../middleware/authenticate";
 import { processSession } from "../processing/process-session";
 import type { JobQueue } from "../queue/queue";
 import { uploadSession } from "../routes/sessions/upload.service";
+import { enrolDemoStaff } from "./demo-second-factor";
 import { withUploadFiles } from "../uploads/temp-files";
 import { createRuntime } from "../runtime";
 
@@ -262,6 +263,8 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
       .returning("id");
     staff.set(s.key, row.id as string);
   }
+  // Staff roles sign in with a second factor; the demo staff share the published demo secret.
+  await enrolDemoStaff(db, deps.config);
   // The scenario ends last week, whenever the seed runs, so the demo always looks current and
   // "this week's test" is still open for the demo patients.
   const thisMonday = mondayUtc(new Date());
