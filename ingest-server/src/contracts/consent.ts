@@ -1,6 +1,11 @@
 import { z } from "zod";
 import { isoDateTime } from "./common";
-import { CONSENT_KINDS, CONSENT_RECORDER_ROLES } from "../research/consent-periods";
+
+export const CONSENT_KINDS = ["given", "withdrawn"] as const;
+export type ConsentKind = (typeof CONSENT_KINDS)[number];
+/** 'migration': the yes/no flag that predates the history (never counts as a "given"). */
+export const CONSENT_RECORDER_ROLES = ["patient", "clinician", "admin", "migration"] as const;
+export type ConsentRecorderRole = (typeof CONSENT_RECORDER_ROLES)[number];
 
 /** One recorded change of a patient's research consent. */
 export const consentEvent = z.object({

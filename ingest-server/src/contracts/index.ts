@@ -16,3 +16,4 @@ export * from "./notes";
 export * from "./training";
 export * from "./research";
 export * from "./caseload-links";
+export * from "./consent";

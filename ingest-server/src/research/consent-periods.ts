@@ -5,10 +5,9 @@
  * - a "given" counts when the patient records it themself, or an admin records it with a reason;
  * - a "given" recorded by a clinician is a proposal the patient still has to confirm.
  */
-export const CONSENT_KINDS = ["given", "withdrawn"] as const;
-export type ConsentKind = (typeof CONSENT_KINDS)[number];
-export const CONSENT_RECORDER_ROLES = ["patient", "clinician", "admin", "migration"] as const;
-export type ConsentRecorderRole = (typeof CONSENT_RECORDER_ROLES)[number];
+import type { ConsentKind, ConsentRecorderRole } from "../contracts/consent";
+
+export type { ConsentKind, ConsentRecorderRole };
 
 export function consentEventCounts(kind: ConsentKind, recorderRole: ConsentRecorderRole): boolean {
   return kind === "withdrawn" || recorderRole === "patient" || recorderRole === "admin";

@@ -7,8 +7,9 @@ export type ExportFormat = "csv" | "fhir";
 const EXTENSION: Record<ExportFormat, string> = { csv: "csv", fhir: "fhir.json" };
 
 /** The definition travels as query parameters so the export is a plain, repeatable GET. */
-export function exportQuery(definition: CohortDefinition, format: ExportFormat): Record<string, string> {
+export function exportQuery(definition: CohortDefinition, format: ExportFormat, projectId: string): Record<string, string> {
   return {
+    projectId,
     format,
     conditions: definition.conditions.join(","),
     ageBands: definition.ageBands.join(","),
@@ -29,8 +30,8 @@ function fileNameFrom(res: Response, format: ExportFormat): string {
   return match?.[1] ?? `pendula-cohort.${EXTENSION[format]}`;
 }
 
-export async function fetchCohortExport(definition: CohortDefinition, format: ExportFormat): Promise<CohortExportFile> {
-  const res = await request<Response>("/research/cohort-metrics", { query: exportQuery(definition, format), raw: true });
+export async function fetchCohortExport(definition: CohortDefinition, format: ExportFormat, projectId: string): Promise<CohortExportFile> {
+  const res = await request<Response>("/research/cohort-metrics", { query: exportQuery(definition, format, projectId), raw: true });
   return { blob: await res.blob(), fileName: fileNameFrom(res, format) };
 }
 
@@ -51,8 +52,8 @@ export function saveFile({ blob, fileName }: CohortExportFile): void {
 export function cohortExportMutationOptions() {
   return {
     mutationKey: ["research", "export"] as const,
-    mutationFn: async ({ definition, format }: { definition: CohortDefinition; format: ExportFormat }) => {
-      const file = await fetchCohortExport(definition, format);
+    mutationFn: async ({ definition, format, projectId }: { definition: CohortDefinition; format: ExportFormat; projectId: string }) => {
+      const file = await fetchCohortExport(definition, format, projectId);
       saveFile(file);
       return file;
     },

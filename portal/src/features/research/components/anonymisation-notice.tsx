@@ -9,21 +9,23 @@ export function AnonymisationNotice({ k = 5 }: { k?: number }) {
         How this export is anonymised
       </h2>
       <p className="mt-1 text-sm text-ink-soft">
-        Only patients who gave research consent are included. The rules follow the HIPAA Safe Harbor method,
+        Only walks recorded while the patient's research consent was in force are included — consent the patient
+        confirmed themself, or that an admin recorded with a reason. The rules follow the HIPAA Safe Harbor method,
         45 CFR 164.514(b)(2).
       </p>
       <ul className="mt-3 grid gap-2 text-sm text-ink [&>li]:flex [&>li]:gap-2">
         <li>
           <span aria-hidden="true">•</span>
           <span>
-            <strong>Pseudonymous subject ids</strong>: a keyed code, stable within this study, that cannot be traced back
-            to a name or record without the server's key.
+            <strong>Subject codes per project</strong>: a keyed code, stable within one research project, different in
+            every other project, that cannot be traced back to a name or record without the server's key.
           </span>
         </li>
         <li>
           <span aria-hidden="true">•</span>
           <span>
-            <strong>Weeks, not dates</strong>: each session is placed by whole weeks since enrolment; no calendar dates.
+            <strong>Week blocks, not dates</strong>: each session is placed in a 4-week block since enrolment (week 52
+            and later together); walks of the last 28 days are held back; no calendar dates.
           </span>
         </li>
         <li>
@@ -36,7 +38,13 @@ export function AnonymisationNotice({ k = 5 }: { k?: number }) {
           <span aria-hidden="true">•</span>
           <span>
             <strong>Small groups suppressed</strong>: any condition × age band group with fewer than k = {k} subjects is
-            withheld and shown as "suppressed (&lt; {k} subjects)".
+            withheld and shown only as "suppressed group (n &lt; {k})", without its condition or age band.
+          </span>
+        </li>
+        <li>
+          <span aria-hidden="true">•</span>
+          <span>
+            <strong>Rounded values</strong>: each metric to a clinically meaningful step (see the table under Export).
           </span>
         </li>
         <li>

@@ -3,7 +3,7 @@ import { conditionLabel, type CohortDefinition } from "../api/cohort-definition"
 import { useCohortPreview, type CohortPreview } from "../api/preview-cohort";
 
 export function suppressedText(k: number): string {
-  return `suppressed (< ${k} subjects)`;
+  return `suppressed group (n < ${k})`;
 }
 
 function Totals({ preview }: { preview: CohortPreview }) {
@@ -31,7 +31,7 @@ export function CohortPreviewTable({ preview }: { preview: CohortPreview }) {
   return (
     <div className="grid gap-3">
       <Totals preview={preview} />
-      <Table caption={`Subjects and sessions per condition and age band; groups under ${preview.k} subjects are suppressed.`}>
+      <Table caption={`Subjects and sessions per condition and age band; groups under ${preview.k} subjects are suppressed and not named.`}>
         <thead>
           <tr>
             <Th>Condition</Th>
@@ -41,23 +41,24 @@ export function CohortPreviewTable({ preview }: { preview: CohortPreview }) {
           </tr>
         </thead>
         <tbody>
-          {preview.cells.map((cell) => (
-            <tr key={`${cell.condition}|${cell.ageBand}`}>
-              <Td className="font-semibold">{conditionLabel(cell.condition)}</Td>
-              <Td className="tabular">{cell.ageBand}</Td>
-              {cell.suppressed ? (
-                <Td colSpan={2} className="bg-ochre-wash text-right font-semibold text-ochre">
+          {preview.cells.map((cell, index) =>
+            cell.suppressed ? (
+              // The server names neither the condition nor the age band of a withheld group.
+              <tr key={`suppressed-${index}`}>
+                <Td colSpan={4} className="bg-ochre-wash font-semibold text-ochre">
                   <span aria-hidden="true">⊘ </span>
                   {suppressedText(preview.k)}
                 </Td>
-              ) : (
-                <>
-                  <Td className="text-right tabular">{cell.subjects ?? "—"}</Td>
-                  <Td className="text-right tabular">{cell.sessions ?? "—"}</Td>
-                </>
-              )}
-            </tr>
-          ))}
+              </tr>
+            ) : (
+              <tr key={`${cell.condition}|${cell.ageBand}`}>
+                <Td className="font-semibold">{cell.condition ? conditionLabel(cell.condition) : "—"}</Td>
+                <Td className="tabular">{cell.ageBand}</Td>
+                <Td className="text-right tabular">{cell.subjects ?? "—"}</Td>
+                <Td className="text-right tabular">{cell.sessions ?? "—"}</Td>
+              </tr>
+            ),
+          )}
         </tbody>
       </Table>
     </div>

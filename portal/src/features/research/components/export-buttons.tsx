@@ -4,13 +4,13 @@ import type { CohortDefinition } from "../api/cohort-definition";
 import { useCohortExport, type ExportFormat } from "../api/download-cohort-export";
 
 const FORMATS: Array<{ format: ExportFormat; label: string; hint: string }> = [
-  { format: "csv", label: "Download CSV", hint: "One row per subject and session week, one column per metric." },
-  { format: "fhir", label: "Download FHIR bundle", hint: "FHIR R4 Observations with UCUM units, one bundle per session." },
+  { format: "csv", label: "Download CSV", hint: "One row per session, one column per metric and the count behind it." },
+  { format: "fhir", label: "Download FHIR bundle", hint: "One FHIR R4 Bundle: an Observation per session, UCUM units." },
 ];
 
-export function ExportButtons({ definition }: { definition: CohortDefinition | null }) {
+export function ExportButtons({ definition, projectId }: { definition: CohortDefinition | null; projectId: string | null }) {
   const exporter = useCohortExport();
-  const disabled = definition === null || exporter.isPending;
+  const disabled = definition === null || projectId === null || exporter.isPending;
   return (
     <div className="grid gap-3">
       <div className="flex flex-wrap gap-3">
@@ -20,7 +20,7 @@ export function ExportButtons({ definition }: { definition: CohortDefinition | n
               variant="secondary"
               disabled={disabled}
               busy={exporter.isPending && exporter.variables?.format === format}
-              onClick={() => definition && exporter.mutate({ definition, format })}
+              onClick={() => definition && projectId && exporter.mutate({ definition, format, projectId })}
             >
               {label}
             </Button>
@@ -28,6 +28,7 @@ export function ExportButtons({ definition }: { definition: CohortDefinition | n
           </div>
         ))}
       </div>
+      {projectId === null ? <p className="text-sm text-ink-soft">Choose a research project first; its subject codes name the rows.</p> : null}
       {definition === null ? (
         <p className="text-sm text-ink-soft">Preview a cohort first; the export uses the same definition.</p>
       ) : null}
