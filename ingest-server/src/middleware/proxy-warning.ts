@@ -6,7 +6,7 @@ import type { RequestHandler } from "express";
  * proxy gives itself away by adding X-Forwarded-For or Forwarded; the first such request logs one
  * warning per process. Nothing is trusted automatically: a client can send those headers too.
  */
-export function proxyWarning(trustProxy: boolean, warn: (message: string) => void = console.warn): RequestHandler {
+export function proxyWarning(trustProxy: boolean, warn: (message: string) => void = (m) => console.warn(m)): RequestHandler {
   let warned = trustProxy;
   return (req, _res, next) => {
     if (!warned && (req.headers["x-forwarded-for"] !== undefined || req.headers.forwarded !== undefined)) {
