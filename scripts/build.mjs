@@ -22,6 +22,8 @@ export const ENTRIES = [
   ["signal/bench/bench.ts", "signal/dist/bench.js"],
   ["ingest-server/src/server.ts", "ingest-server/dist/server.js"],
   ["ingest-server/src/worker.ts", "ingest-server/dist/worker.js"],
+  // The upload parse threads' entry, found beside the bundled server (ingest-server/src/uploads/parse-pool.ts).
+  ["ingest-server/src/uploads/parse-worker.ts", "ingest-server/dist/parse-worker.js"],
   ["ingest-server/src/dev/fakes.ts", "ingest-server/dist/fakes.js"],
   ["ingest-server/src/dev/seed-demo.ts", "ingest-server/dist/seed-demo.js"],
   ["db/src/migrate.ts", "db/dist/migrate.js"],
