@@ -20,6 +20,7 @@ import type { AppDeps } from "../deps";
 import type { AuthContext } from "../middleware/authenticate";
 import { processSession } from "../processing/process-session";
 import type { JobQueue } from "../queue/queue";
+import { insertConsentEvent } from "../routes/consent/consent.service";
 import { uploadSession } from "../routes/sessions/upload.service";
 import { enrolDemoStaff } from "./demo-second-factor";
 import { withUploadFiles } from "../uploads/temp-files";
@@ -282,7 +283,6 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
         condition: p.condition,
         condition_detail: p.conditionDetail,
         enrolled_on: enrolledAt.toISOString().slice(0, 10),
-        research_consent: p.researchConsent,
         expected_uploads_per_week: 1,
         height_cm: DEMO_HEIGHTS_CM[p.key] ?? null,
       })
@@ -295,6 +295,18 @@ async function seed(deps: AppDeps, maxWeeks: number, log: (s: string) => void): 
         .insert({ email: p.email, display_name: p.displayName, password_hash: hash, role: "patient", status: "active", patient_id: patientId, is_demo: true })
         .returning("id");
       patientUserId = u.id as string;
+    }
+    if (p.researchConsent) {
+      // Consent given on the enrolment day: demo patients with an account confirmed it themselves in
+      // the portal; for the others the admin recorded the signed paper form (both count).
+      await insertConsentEvent(db, {
+        patientId,
+        kind: "given",
+        at: enrolledAt,
+        ...(patientUserId
+          ? { recorderRole: "patient" as const, recordedBy: patientUserId }
+          : { recorderRole: "admin" as const, recordedBy: staff.get("admin")!, reason: "signed paper consent form filed at the enrolment visit" }),
+      });
     }
     const serials: Record<string, string> = {};
     for (const placement of PLACEMENTS) {
