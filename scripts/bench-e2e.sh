@@ -61,6 +61,11 @@ stop_workers() {
   WORKERS=()
 }
 worker_pids() { local IFS=,; echo "${WORKERS[*]}"; }
+# For the driver's CPU and memory figures (read from /proc; nothing is signalled).
+BENCH_SERVER_PID="$SERVER_PID"
+BENCH_FAKES_PID="$(pgrep -f "fakes.js --data $PENDULA_DATA/fakes" | head -1 || true)"
+BENCH_PG_PID="$(head -1 "$TMP/pg/data/postmaster.pid")"
+export BENCH_SERVER_PID BENCH_FAKES_PID BENCH_PG_PID
 
 echo "machine: $(nproc) cores, $(awk '/MemTotal/ {printf "%.1f GB", $2 / 1048576}' /proc/meminfo) memory; load average $(cut -d' ' -f1-3 /proc/loadavg) (1, 5, 15 min)"
 echo "server: node ingest-server/dist/server.js (pid $SERVER_PID); workers: node ingest-server/dist/worker.js, one session at a time each; database: durable (fsync on)"
@@ -68,14 +73,14 @@ driver prepare --patients "$BURST" --minutes "$MINUTES"
 
 # Week 0: one session at a time, one worker.
 start_workers 1
-BENCH_WORKER_PIDS="$(worker_pids)" BENCH_SERVER_PID="$SERVER_PID" driver single --count "$SINGLE" --week 0 --workers-label "1 worker"
+BENCH_WORKER_PIDS="$(worker_pids)" driver single --count "$SINGLE" --week 0 --workers-label "1 worker"
 stop_workers
 
 # Weeks 1, 2, 3: the burst with each worker count (fresh workers, so each peak RSS is this pass's).
 week=1
 for n in $WORKER_COUNTS; do
   start_workers "$n"
-  BENCH_WORKER_PIDS="$(worker_pids)" BENCH_SERVER_PID="$SERVER_PID" driver burst --count "$BURST" --week "$week" --workers "$n"
+  BENCH_WORKER_PIDS="$(worker_pids)" driver burst --count "$BURST" --week "$week" --workers "$n"
   stop_workers
   week=$((week + 1))
 done

@@ -12,7 +12,7 @@
  * clock of this process; database states are sampled by polling walk_sessions. Figures are
  * printed, never asserted.
  */
-import { readFileSync, writeFileSync } from "node:fs";
+import { readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { loadavg } from "node:os";
 import path from "node:path";
 import { createDb } from "@pendula/db";
@@ -207,6 +207,52 @@ function memoryOf(pid: number): { peakMb: number; rssMb: number } | null {
   }
 }
 
+/** CPU seconds (user + system) a process has used so far, from /proc/<pid>/stat; 0 when it is gone. */
+function cpuSecondsOf(pid: number): number {
+  try {
+    const f = readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]!.split(" ");
+    return (Number(f[11]) + Number(f[12])) / 100; // fields 14 and 15; USER_HZ is 100 on Linux
+  } catch {
+    return 0;
+  }
+}
+
+/** The cluster's postmaster and every process it started (backends and background workers). */
+function databasePids(): number[] {
+  const postmaster = Number(process.env.BENCH_PG_PID ?? 0);
+  if (!postmaster) return [];
+  const out = [postmaster];
+  for (const d of readdirSync("/proc")) {
+    if (!/^\d+$/.test(d)) continue;
+    try {
+      const ppid = Number(readFileSync(`/proc/${d}/stat`, "utf8").split(") ")[1]!.split(" ")[1]);
+      if (ppid === postmaster) out.push(Number(d));
+    } catch {
+      // ended meanwhile
+    }
+  }
+  return out;
+}
+
+/** CPU seconds so far of the server, the workers, the object-storage fake and the database. */
+function cpuSnapshot(): Record<string, number> {
+  const pids = (v: string | undefined) => (v ?? "").split(",").filter(Boolean).map(Number);
+  const sum = (list: number[]) => list.reduce((a, pid) => a + cpuSecondsOf(pid), 0);
+  return {
+    server: sum(pids(process.env.BENCH_SERVER_PID)),
+    workers: sum(pids(process.env.BENCH_WORKER_PIDS)),
+    "storage fake": sum(pids(process.env.BENCH_FAKES_PID)),
+    PostgreSQL: sum(databasePids()),
+  };
+}
+
+/** CPU used between two snapshots, per session. Backends that ended in between are not counted. */
+function cpuLine(before: Record<string, number>, after: Record<string, number>, sessions: number): string {
+  return Object.keys(after)
+    .map((k) => `${k} ${((after[k]! - (before[k] ?? 0)) / sessions).toFixed(2)} s`)
+    .join(", ");
+}
+
 function printMemory(): void {
   const workers = (process.env.BENCH_WORKER_PIDS ?? "").split(",").filter(Boolean).map(Number);
   const server = Number(process.env.BENCH_SERVER_PID ?? 0);
@@ -231,6 +277,7 @@ async function single(): Promise<void> {
   console.log(`one session at a time: ${count} sessions, ${arg("workers-label")}; load average before ${load()} (1, 5, 15 min)`);
   const totals: number[] = [];
   const parts: Record<string, number[]> = { upload: [], pickup: [], read: [], analysis: [], write: [] };
+  const cpu0 = cpuSnapshot();
   for (let i = 0; i < count; i++) {
     const t = await uploadOne(s, bodies, s.patients[i]!, week);
     await watch([t], 20, 300_000);
@@ -252,6 +299,7 @@ async function single(): Promise<void> {
   const med = (k: string) => s1(percentile([...parts[k]!].sort((a, b) => a - b), 0.5));
   console.log(`  upload→done p50 ${s1(percentile(sorted, 0.5))} s, p95 ${s1(percentile(sorted, 0.95))} s (n = ${count}; target p50 < 4 s)`);
   console.log(`  median parts: upload ${med("upload")}, pick-up ${med("pickup")}, fetch and read ${med("read")}, analysis ${med("analysis")}, traces and write ${med("write")} s (sampled every 20 ms)`);
+  console.log(`  CPU per session: ${cpuLine(cpu0, cpuSnapshot(), count)} (wall times above include waiting for a core)`);
   printMemory();
   console.log(`  load average after ${load()}`);
 }
@@ -264,6 +312,7 @@ async function burst(): Promise<void> {
   const workers = Number(arg("workers"));
   if (s.patients.length < count) throw new Error(`${count} sessions at once need ${count} patients (one upload each); prepared ${s.patients.length}`);
   console.log(`${count} sessions uploaded at once by ${count} patients, ${workers} worker process(es); load average before ${load()}`);
+  const cpu0 = cpuSnapshot();
   const t0 = performance.now();
   const timelines = await Promise.all(s.patients.slice(0, count).map((p) => uploadOne(s, bodies, p, week)));
   const lastAccepted = Math.max(...timelines.map((t) => t.acceptedMs));
@@ -277,6 +326,7 @@ async function burst(): Promise<void> {
     `  all uploads accepted after ${s1(lastAccepted - t0)} s; all done after ${s1(spanMs)} s → ${((count / spanMs) * 60_000).toFixed(1)} sessions/minute ` +
       `(upload→done p50 ${s1(percentile(latencies, 0.5))} s, p95 ${s1(percentile(latencies, 0.95))} s; sampled every 250 ms)`,
   );
+  console.log(`  CPU per session: ${cpuLine(cpu0, cpuSnapshot(), count)}`);
   printMemory();
   console.log(`  load average after ${load()}`);
 }

@@ -167,7 +167,7 @@ export class PgBossQueue implements JobQueue {
       // The job is committed; waking workers is best effort (they poll anyway).
       await this.boss
         .getDb()
-        .executeSql("SELECT pg_notify($1, $2)", ["nobody_listens", name])
+        .executeSql("SELECT pg_notify($1, $2)", [NOTIFY_CHANNEL, name])
         .catch((err: unknown) => console.error("[queue] notify failed; workers will poll", err));
     }
     return id;
