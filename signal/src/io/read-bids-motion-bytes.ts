@@ -53,17 +53,21 @@ function readMotionRows(bytes: Uint8Array, pos: number, layout: BidsLayout, rows
   const n = bytes.length;
   const nCols = layout.channels.length;
   const columns = rows.columns;
+  // Rows up to the last \n go to the fast scanner; a last row without one to the general path.
+  const lastNewline = bytes.lastIndexOf(10);
   let lineNo = 0;
   while (pos < n) {
-    let end = bytes.indexOf(10, pos);
-    if (end < 0) end = n;
     lineNo++;
-    const lineEnd = end > pos && bytes[end - 1] === 13 ? end - 1 : end;
-    if (scanTabRow(bytes, pos, lineEnd, nCols, columns, rows.count)) {
+    let end = pos > lastNewline ? -1 : scanTabRow(bytes, pos, nCols, columns, rows.count);
+    if (end >= 0) {
       rows.commit(lineNo);
-    } else if (!isAsciiBlank(bytes, pos, lineEnd)) {
-      const line = UTF8.decode(bytes.subarray(pos, lineEnd));
-      rows.readLine(line, 0, line.length, lineNo);
+    } else {
+      end = pos > lastNewline ? n : bytes.indexOf(10, pos);
+      const lineEnd = end > pos && bytes[end - 1] === 13 ? end - 1 : end;
+      if (!isAsciiBlank(bytes, pos, lineEnd)) {
+        const line = UTF8.decode(bytes.subarray(pos, lineEnd));
+        rows.readLine(line, 0, line.length, lineNo);
+      }
     }
     pos = end + 1;
   }
@@ -71,71 +75,75 @@ function readMotionRows(bytes: Uint8Array, pos: number, layout: BidsLayout, rows
 }
 
 /**
- * One row of exactly `nCols` tab-separated plain decimals in bytes[pos, lineEnd), written to
- * `columns[col][row]` with `parseDecimal`'s arithmetic (mantissa of ≤ 15 digits and a power of ten
- * within ±22 are both exact, so the quotient or product is the correctly rounded double). Returns
- * false for anything else, leaving the line to the text path; columns may then be partly written,
- * which the text path overwrites.
+ * One row of exactly `nCols` tab-separated plain decimals from `pos`, ended by `\n` or `\r\n`,
+ * written to `columns[col][row]` with `parseDecimal`'s arithmetic (a mantissa of ≤ 15 digits and a
+ * power of ten within ±22 are both exact, so the quotient or product is the correctly rounded
+ * double). Returns the index of the row's `\n`, or −1 for anything else, leaving the line to the
+ * text path (columns may then be partly written; the text path overwrites them). Every byte looked
+ * for is ASCII, and in UTF-8 an ASCII byte is always that character. The scanner never steps over a
+ * `\n`, so it needs no bounds checks when a `\n` follows (the caller makes sure of that).
  */
-function scanTabRow(bytes: Uint8Array, pos: number, lineEnd: number, nCols: number, columns: Float64Array[], row: number): boolean {
+function scanTabRow(bytes: Uint8Array, pos: number, nCols: number, columns: Float64Array[], row: number): number {
   let p = pos;
-  for (let col = 0; col < nCols; col++) {
-    let c = p < lineEnd ? bytes[p]! : -1;
+  const lastCol = nCols - 1;
+  for (let col = 0; ; col++) {
+    let c = bytes[p]!;
     let sign = 1;
-    if (c === 45 || c === 43) {
-      if (c === 45) sign = -1;
-      p++;
-      c = p < lineEnd ? bytes[p]! : -1;
+    if (c === 45) {
+      sign = -1;
+      c = bytes[++p]!;
+    } else if (c === 43) {
+      c = bytes[++p]!;
     }
     let mantissa = 0;
     const intStart = p;
     while (c >= 48 && c <= 57) {
       mantissa = mantissa * 10 + (c - 48);
-      p++;
-      c = p < lineEnd ? bytes[p]! : -1;
+      c = bytes[++p]!;
     }
     let digits = p - intStart;
     let scale = 0;
     if (c === 46) {
       const fracStart = ++p;
-      c = p < lineEnd ? bytes[p]! : -1;
+      c = bytes[p]!;
       while (c >= 48 && c <= 57) {
         mantissa = mantissa * 10 + (c - 48);
-        p++;
-        c = p < lineEnd ? bytes[p]! : -1;
+        c = bytes[++p]!;
       }
       scale = p - fracStart;
       digits += scale;
     }
-    if (digits === 0 || digits > 15) return false;
+    if (digits === 0 || digits > 15) return -1;
     let exponent = 0;
     if (c === 101 || c === 69) {
-      p++;
-      c = p < lineEnd ? bytes[p]! : -1;
+      c = bytes[++p]!;
       let expSign = 1;
-      if (c === 45 || c === 43) {
-        if (c === 45) expSign = -1;
-        p++;
-        c = p < lineEnd ? bytes[p]! : -1;
+      if (c === 45) {
+        expSign = -1;
+        c = bytes[++p]!;
+      } else if (c === 43) {
+        c = bytes[++p]!;
       }
       const expStart = p;
       while (c >= 48 && c <= 57) {
         exponent = exponent * 10 + (c - 48);
-        p++;
-        c = p < lineEnd ? bytes[p]! : -1;
+        c = bytes[++p]!;
       }
-      if (p === expStart) return false;
+      if (p === expStart) return -1;
       exponent *= expSign;
     }
     const e = exponent - scale;
-    if (e > 22 || e < -22) return false;
+    if (e > 22 || e < -22) return -1;
     columns[col]![row] = sign * (e >= 0 ? mantissa * POW10[e]! : mantissa / POW10[-e]!);
-    if (col < nCols - 1) {
-      if (c !== 9) return false;
+    if (col !== lastCol) {
+      if (c !== 9) return -1;
       p++;
-    } else if (p !== lineEnd) return false;
+      continue;
+    }
+    if (c === 10) return p;
+    if (c === 13 && bytes[p + 1] === 10) return p + 1;
+    return -1;
   }
-  return true;
 }
 
 /** The ASCII characters String.prototype.trim removes: tab, LF, VT, FF, CR, space. */

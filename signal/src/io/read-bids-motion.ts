@@ -283,18 +283,13 @@ export class BidsRows {
     return usable.map((p) => {
       const timeS = new Float64Array(rows);
       const out = Array.from({ length: 6 }, () => new Float32Array(rows));
-      let m = 0;
-      for (let r = 0; r < rows; r++) {
-        let ok = true;
-        for (let k = 0; k < 6; k++) if (Number.isNaN(data[p.cols[k]!]![r]!)) ok = false;
-        if (!ok) continue;
-        timeS[m] = latencyCol >= 0 ? data[latencyCol]![r]! * latencyScale : r / sampleRateHz;
-        for (let k = 0; k < 6; k++) {
-          out[k]![m] = data[p.cols[k]!]![r]! * p.scale[k]!;
-          // Stored in single precision: a value beyond its range would become Infinity.
-          if (!Number.isFinite(out[k]![m]!)) bidsFail(fileName, undefined, channels[p.cols[k]!]!.name, `value ${data[p.cols[k]!]![r]} is beyond any sensor's range`);
-        }
-        m++;
+      const latency = latencyCol >= 0 ? data[latencyCol]! : null;
+      const cols = Array.from({ length: 6 }, (_, k) => data[p.cols[k]!]!);
+      const m = completeSamples(cols, p.scale, latency, latencyScale, sampleRateHz, rows, timeS, out);
+      if (m < 0) {
+        const k = (-1 - m) % 6;
+        const r = Math.floor((-1 - m) / 6);
+        bidsFail(fileName, undefined, channels[p.cols[k]!]!.name, `value ${cols[k]![r]} is beyond any sensor's range`);
       }
       if (m === 0) bidsFail(fileName, undefined, undefined, `tracked point ${p.label} has no complete samples`);
       return {
@@ -313,6 +308,57 @@ export class BidsRows {
       };
     });
   }
+}
+
+/**
+ * A tracked point's rows with all six values (a row with n/a in any is dropped, which the time base
+ * treats as a gap), scaled to m/s² and deg/s in single precision, time from the LATENCY column or
+ * the row number. Returns the number of samples, or −1 − (k + 6·r) when channel k of row r is the
+ * first to overflow single precision (the caller names it). A function of its own that ends with its loop (see readSensorCsvBytes).
+ */
+function completeSamples(
+  cols: Float64Array[],
+  scale: Float64Array,
+  latency: Float64Array | null,
+  latencyScale: number,
+  sampleRateHz: number,
+  rows: number,
+  timeS: Float64Array,
+  out: Float32Array[],
+): number {
+  const [a0, a1, a2, a3, a4, a5] = cols as [Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array];
+  const [o0, o1, o2, o3, o4, o5] = out as [Float32Array, Float32Array, Float32Array, Float32Array, Float32Array, Float32Array];
+  const s0 = scale[0]!;
+  const s1 = scale[1]!;
+  const s2 = scale[2]!;
+  const s3 = scale[3]!;
+  const s4 = scale[4]!;
+  const s5 = scale[5]!;
+  let m = 0;
+  for (let r = 0; r < rows; r++) {
+    const v0 = a0[r]!;
+    const v1 = a1[r]!;
+    const v2 = a2[r]!;
+    const v3 = a3[r]!;
+    const v4 = a4[r]!;
+    const v5 = a5[r]!;
+    // NaN (n/a) in any channel: x − x is NaN only for NaN among these finite-or-NaN doubles.
+    if (Number.isNaN(v0 - v0 + v1 - v1 + v2 - v2 + v3 - v3 + v4 - v4 + v5 - v5)) continue;
+    timeS[m] = latency !== null ? latency[r]! * latencyScale : r / sampleRateHz;
+    o0[m] = v0 * s0;
+    o1[m] = v1 * s1;
+    o2[m] = v2 * s2;
+    o3[m] = v3 * s3;
+    o4[m] = v4 * s4;
+    o5[m] = v5 * s5;
+    // Stored in single precision: a value beyond its range would become Infinity.
+    const sum = o0[m]! + o1[m]! + o2[m]! + o3[m]! + o4[m]! + o5[m]!;
+    if (sum - sum !== 0) {
+      for (let k = 0; k < 6; k++) if (!Number.isFinite(out[k]![m]!)) return -1 - (k + 6 * r);
+    }
+    m++;
+  }
+  return m;
 }
 
 /** Sidecar names BIDS gives a `*_motion.tsv`: same entities, `_channels.tsv` and `_motion.json`. */
