@@ -69,6 +69,8 @@ export const envSchema = z.object({
   SESSION_CACHE_MB: int(128, 0, 8192),
   UPLOAD_RATE_WINDOW_S: int(900, 1, 86_400),
   RESEARCH_HMAC_KEY: secret("RESEARCH_HMAC_KEY"),
+  // Seals authenticator secrets at rest (auth/secret-box.ts). Unset: derived from JWT_SECRET with HKDF.
+  SECOND_FACTOR_KEY: secret("SECOND_FACTOR_KEY").optional(),
   // Only behind a reverse proxy on this machine: then X-Forwarded-For from loopback names the client.
   TRUST_PROXY: z.enum(["0", "1", "false", "true"]).default("0"),
   QUEUE_SCHEMA: z
@@ -121,6 +123,8 @@ export interface Config {
   trendCacheBytes: number;
   sessionCacheBytes: number;
   researchHmacKey: string;
+  /** Key material for sealing authenticator secrets; when absent, one is derived from jwtSecret. */
+  secondFactorKey?: string;
   trustProxy: boolean;
   queueSchema: string;
   queue: { expireS: number; maintenanceS: number };
@@ -183,6 +187,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): Config {
     trendCacheBytes: e.TREND_CACHE_MB * 1024 * 1024,
     sessionCacheBytes: e.SESSION_CACHE_MB * 1024 * 1024,
     researchHmacKey: e.RESEARCH_HMAC_KEY,
+    ...(e.SECOND_FACTOR_KEY ? { secondFactorKey: e.SECOND_FACTOR_KEY } : {}),
     trustProxy: e.TRUST_PROXY === "1" || e.TRUST_PROXY === "true",
     queueSchema: e.QUEUE_SCHEMA,
     queue: { expireS: e.QUEUE_EXPIRE_S, maintenanceS: e.QUEUE_MAINTENANCE_S },

@@ -11,10 +11,7 @@ import { isDemoMode, type Config } from "../config/env";
 export async function enrolDemoStaff(db: Knex, config: Config): Promise<number> {
   if (!isDemoMode(config)) throw new Error("the demo authenticator secret is only seeded in demo mode (PENDULA_MODE=demo)");
   const users = await db("users")
-    .whereIn(
-      db.raw("lower(email)"),
-      DEMO_STAFF.map((s) => s.email.toLowerCase()),
-    )
+    .whereRaw("lower(email) = ANY(?)", [DEMO_STAFF.map((s) => s.email.toLowerCase())])
     .select("id");
   for (const u of users) {
     await db("user_totp")
