@@ -17,6 +17,7 @@ import type { Request, RequestHandler } from "express";
 const STALE_PROCESS_FOLDER_MS = 6 * 60 * 60 * 1000; // common practice: far beyond any upload's life
 
 const processFolders = new Map<string, string>();
+const defaultRoot = () => path.join(tmpdir(), "pendula-uploads");
 
 let exitHook = false;
 
@@ -30,7 +31,7 @@ function removeProcessFoldersOnExit(): void {
 
 /** This process's private folder under `root` (made on first use; stale siblings are swept then). */
 export function processUploadFolder(root: string | undefined): string {
-  const base = path.resolve(root ?? path.join(tmpdir(), "pendula-uploads"));
+  const base = path.resolve(root ?? defaultRoot());
   const known = processFolders.get(base);
   if (known) return known;
   mkdirSync(base, { recursive: true, mode: 0o700 });
@@ -70,7 +71,7 @@ declare module "express-serve-static-core" {
  */
 export function requestUploadFolder(root: string | undefined): RequestHandler {
   return async (req, res, next) => {
-    const folder = await mkdtemp(path.join(processUploadFolder(root), "r-"));
+    const folder = await newRequestFolder(root);
     req.uploadFolder = folder;
     res.once("close", () => {
       void rm(folder, { recursive: true, force: true }).catch((err: unknown) => {
@@ -79,6 +80,17 @@ export function requestUploadFolder(root: string | undefined): RequestHandler {
     });
     next();
   };
+}
+
+/** A fresh folder in this process's folder, which is made again if a temp cleaner removed it. */
+async function newRequestFolder(root: string | undefined): Promise<string> {
+  try {
+    return await mkdtemp(path.join(processUploadFolder(root), "r-"));
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code !== "ENOENT") throw err;
+    processFolders.delete(path.resolve(root ?? defaultRoot()));
+    return await mkdtemp(path.join(processUploadFolder(root), "r-"));
+  }
 }
 
 export function uploadFolderOf(req: Request): string {
@@ -95,7 +107,7 @@ export async function withUploadFiles<T>(
   files: ReadonlyArray<{ originalName: string; bytes: Buffer | string }>,
   use: (files: Array<{ originalName: string; path: string }>) => Promise<T>,
 ): Promise<T> {
-  const folder = await mkdtemp(path.join(processUploadFolder(root), "r-"));
+  const folder = await newRequestFolder(root);
   try {
     const written = await Promise.all(
       files.map(async (f, i) => {

@@ -202,4 +202,13 @@ describe("upload bodies on disk", () => {
     await expectNoLeftovers();
     expect(await storedCounts(ctx)).toEqual(before);
   });
+
+  it("makes the process's folder again when a temp cleaner removed it", async () => {
+    const { token, serials } = await patientWithDevices("RFCLN");
+    const root = path.join(tmpRoot, "uploads");
+    for (const p of readdirSync(root)) rmSync(path.join(root, p), { recursive: true, force: true });
+    const res = await upload(ctx, token, synthFor(serials, { seed: 10 }).files);
+    expect(res.status, JSON.stringify(res.body)).toBe(202);
+    await expectNoLeftovers();
+  });
 });
