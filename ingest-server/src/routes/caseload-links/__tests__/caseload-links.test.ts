@@ -9,7 +9,7 @@ let adminToken: string;
 beforeAll(async () => {
   ctx = await createTestContext();
   admin = await ctx.seedUser({ role: "admin" });
-  clinician = await ctx.seedUser({ role: "clinician", displayName: "Wren Halloway" });
+  clinician = await ctx.seedUser({ role: "clinician", displayName: "Tobin Ashgrove" });
   adminToken = await ctx.tokenFor(admin);
 });
 afterAll(() => ctx?.close());
@@ -30,7 +30,7 @@ describe("caseload links", () => {
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({
       clinicianId: clinician.id,
-      clinicianName: "Wren Halloway",
+      clinicianName: "Tobin Ashgrove",
       patientId,
       patientName: "Orla Penhaligon",
       active: true,
@@ -111,7 +111,7 @@ describe("caseload links", () => {
   });
 
   it("only admins create or end links; a clinician lists only their own; a patient reads their care team in plain terms", async () => {
-    const other = await ctx.seedUser({ role: "clinician", displayName: "Ansel Merriweather" });
+    const other = await ctx.seedUser({ role: "clinician", displayName: "Petra Quillfeather" });
     const patient = await ctx.seedUser({ role: "patient", caseloadOf: [clinician.id] });
     const { body: created } = await link(adminToken, { clinicianId: other.id, patientId: patient.patientId!, reason: "second opinion on arm swing" });
     const clinicianToken = await ctx.tokenFor(clinician);
@@ -132,7 +132,7 @@ describe("caseload links", () => {
 
     const team = await request(ctx.app).get("/api/caseload-links/care-team").set(as(patientToken));
     expect(team.status).toBe(200);
-    expect(team.body.map((m: { clinicianName: string }) => m.clinicianName).sort()).toEqual(["Ansel Merriweather", clinician.displayName].sort());
+    expect(team.body.map((m: { clinicianName: string }) => m.clinicianName).sort()).toEqual(["Petra Quillfeather", clinician.displayName].sort());
     expect(team.body.every((m: object) => Object.keys(m).sort().join() === "active,clinicianName,since,until")).toBe(true);
     expect((await request(ctx.app).get("/api/caseload-links/care-team").set(as(clinicianToken))).status).toBe(403);
     expect((await request(ctx.app).get("/api/caseload-links")).status).toBe(401);
