@@ -4,6 +4,7 @@ import { ROLES, USER_STATUSES } from "@pendula/ingest-server/contracts";
 import { Badge, Button, EmptyState, ErrorState, LoadingState, PageHeader, SelectField, Table, Td, TextField, Th } from "@/components/ui";
 import { USER_PAGE_SIZE, useUsers, type UserFilters } from "../api/users";
 import { formatWhen, ROLE_LABEL, STATUS_BADGE } from "./labels";
+import { SecondFactorReset } from "./second-factor-reset";
 import { UserRowEditor } from "./user-row-editor";
 
 type Role = (typeof ROLES)[number];
@@ -113,6 +114,7 @@ export function UsersPage() {
                   <Td className="whitespace-nowrap tabular text-xs">{formatWhen(u.lastLoginAt)}</Td>
                   <Td>
                     <UserRowEditor key={`${u.id}-${u.role}-${u.status}`} user={u} isSelf={me?.id === u.id} />
+                    {me?.id === u.id || u.status !== "active" ? null : <SecondFactorReset userId={u.id} displayName={u.displayName} />}
                   </Td>
                 </tr>
               ))}
