@@ -69,7 +69,7 @@ export BENCH_SERVER_PID BENCH_FAKES_PID BENCH_PG_PID
 
 echo "machine: $(nproc) cores, $(awk '/MemTotal/ {printf "%.1f GB", $2 / 1048576}' /proc/meminfo) memory; load average $(cut -d' ' -f1-3 /proc/loadavg) (1, 5, 15 min)"
 echo "server: node ingest-server/dist/server.js (pid $SERVER_PID); workers: node ingest-server/dist/worker.js, one session at a time each; database: durable (fsync on)"
-driver prepare --patients "$BURST" --minutes "$MINUTES"
+driver prepare --patients "$(( BURST > SINGLE ? BURST : SINGLE ))" --minutes "$MINUTES"
 
 # Week 0: one session at a time, one worker.
 start_workers 1

@@ -274,6 +274,7 @@ async function single(): Promise<void> {
   const bodies = loadBodies(s);
   const count = Number(arg("count"));
   const week = Number(arg("week"));
+  if (s.patients.length < count) throw new Error(`${count} sessions need ${count} patients; prepared ${s.patients.length}`);
   console.log(`one session at a time: ${count} sessions, ${arg("workers-label")}; load average before ${load()} (1, 5, 15 min)`);
   const totals: number[] = [];
   const parts: Record<string, number[]> = { upload: [], pickup: [], read: [], analysis: [], write: [] };
