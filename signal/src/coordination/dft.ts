@@ -22,15 +22,34 @@ interface BluesteinPlan {
 // fft.js accepts any indexable buffers; Float64Array avoids its boxed Array (createComplexArray).
 
 // Plans are cached by size: the analysis transforms a few signals of one length per session.
+// Small ones stay for the process. Large ones (a 30-minute session's 2²⁰-point Bluestein plan is
+// ~70 MB with its fft.js tables) are held through a WeakRef: a WeakRef's target survives at least
+// until the current synchronous job ends, so within one analyze() call the forward and inverse
+// transforms of every Hilbert pair share one plan (it used to be rebuilt four times per arm),
+// and the memory is released once the analysis returns. Plans are pure functions of the size, so
+// reuse changes no value.
+const SMALL_PLAN_MAX = 1 << 18;
 const fftCache = new Map<number, FFT>();
+let largeFft: WeakRef<FFT> | null = null;
+let largeFftSize = 0;
 let lastPlan: BluesteinPlan | null = null;
+let lastLargePlan: WeakRef<BluesteinPlan> | null = null;
 
 function fftOfSize(size: number): FFT {
+  if (size > SMALL_PLAN_MAX) {
+    let big = largeFftSize === size ? largeFft?.deref() : undefined;
+    if (!big) {
+      big = new FFT(size);
+      largeFft = new WeakRef(big);
+      largeFftSize = size;
+    }
+    return big;
+  }
   let f = fftCache.get(size);
   if (!f) {
     if (fftCache.size > 8) fftCache.clear();
     f = new FFT(size);
-    if (size <= 1 << 18) fftCache.set(size, f);
+    fftCache.set(size, f);
   }
   return f;
 }
@@ -41,6 +60,8 @@ function isPowerOfTwo(n: number): boolean {
 
 function bluesteinPlan(n: number): BluesteinPlan {
   if (lastPlan && lastPlan.n === n) return lastPlan;
+  const large = lastLargePlan?.deref();
+  if (large && large.n === n) return large;
   let m = 2;
   while (m < 2 * n - 1) m *= 2;
   const fft = fftOfSize(m);
@@ -68,9 +89,10 @@ function bluesteinPlan(n: number): BluesteinPlan {
   const filterSpectrum = new Float64Array(2 * m);
   fft.transform(filterSpectrum, filter);
   const plan = { n, m, fft, chirp, filterSpectrum, work: filter, workSpectrum: new Float64Array(2 * m) };
-  // Keep at most one plan, and only a modest one (≤ 2¹⁸ points ≈ 12 MB of buffers), so a single
-  // transform of a long signal does not pin its buffers for the rest of the process.
-  lastPlan = m <= 1 << 18 ? plan : null;
+  // At most one plan of each kind; a large one only weakly (see above), so a single transform of
+  // a long signal does not pin its buffers for the rest of the process.
+  if (m <= SMALL_PLAN_MAX) lastPlan = plan;
+  else lastLargePlan = new WeakRef(plan);
   return plan;
 }
 

@@ -164,3 +164,147 @@ function runEnd(valid: Uint8Array, i: number): number {
   while (j < valid.length && (valid[j] ? 1 : 0) === on) j++;
   return j;
 }
+
+/**
+ * Three zero-phase filterings over the same mask in one pass: channel c is x[c] filtered by
+ * sections[c] on each run of valid samples, exactly as `lowPassZeroPhaseSegments` (same padding,
+ * same initial conditions, same operations in the same order for each channel), with invalid
+ * samples copied through. The three recursions are independent, so running them side by side in
+ * one loop lets the processor overlap them; each result equals the single-channel one bit for bit.
+ * All three cascades must have the same number of sections.
+ */
+export function zeroPhaseSegments3(
+  x: readonly [ArrayLike<number>, ArrayLike<number>, ArrayLike<number>],
+  sections: readonly [readonly Biquad[], readonly Biquad[], readonly Biquad[]],
+  valid: Uint8Array,
+): [Float64Array, Float64Array, Float64Array] {
+  const count = sections[0].length;
+  if (sections[1].length !== count || sections[2].length !== count) throw new RangeError("zeroPhaseSegments3: the three cascades differ in length");
+  const n = x[0].length;
+  if (x[1].length !== n || x[2].length !== n) throw new RangeError("zeroPhaseSegments3: the three channels differ in length");
+  const out: [Float64Array, Float64Array, Float64Array] = [new Float64Array(n), new Float64Array(n), new Float64Array(n)];
+  let longest = 0;
+  for (let i = 0; i < n; ) {
+    const j = runEnd(valid, i);
+    if (!valid[i]) for (let c = 0; c < 3; c++) copyInto(out[c]!, i, x[c]!, i, j);
+    else longest = Math.max(longest, j - i);
+    i = j;
+  }
+  if (longest === 0) return out;
+  const size = longest + 2 * padLength(sections[0], longest);
+  const scratch: [Float64Array, Float64Array, Float64Array] = [new Float64Array(size), new Float64Array(size), new Float64Array(size)];
+  for (let i = 0; i < n; ) {
+    const j = runEnd(valid, i);
+    if (valid[i]) sosFiltFiltRange3(sections, x, i, j, scratch, out);
+    i = j;
+  }
+  return out;
+}
+
+function sosFiltFiltRange3(
+  sections: readonly [readonly Biquad[], readonly Biquad[], readonly Biquad[]],
+  x: readonly [ArrayLike<number>, ArrayLike<number>, ArrayLike<number>],
+  from: number,
+  to: number,
+  scratch: [Float64Array, Float64Array, Float64Array],
+  out: [Float64Array, Float64Array, Float64Array],
+): void {
+  const n = to - from;
+  if (n === 1) {
+    for (let c = 0; c < 3; c++) out[c]![from] = x[c]![from]!;
+    return;
+  }
+  const padLen = padLength(sections[0], n);
+  const m = n + 2 * padLen;
+  const ext = [scratch[0].subarray(0, m), scratch[1].subarray(0, m), scratch[2].subarray(0, m)] as const;
+  for (let c = 0; c < 3; c++) {
+    const e = ext[c]!;
+    const xc = x[c]!;
+    const x0 = xc[from]!;
+    const xn = xc[to - 1]!;
+    for (let i = 0; i < padLen; i++) e[i] = 2 * x0 - xc[from + padLen - i]!;
+    copyInto(e, padLen, xc, from, to);
+    for (let i = 0; i < padLen; i++) e[padLen + n + i] = 2 * xn - xc[to - 2 - i]!;
+  }
+  filterInPlace3(sections, ext[0], ext[1], ext[2], false);
+  filterInPlace3(sections, ext[0], ext[1], ext[2], true);
+  for (let c = 0; c < 3; c++) out[c]!.set(ext[c]!.subarray(padLen, padLen + n), from);
+}
+
+/** `filterInPlace` of three channels, section by section, each with its own cascade and state. */
+function filterInPlace3(
+  sections: readonly [readonly Biquad[], readonly Biquad[], readonly Biquad[]],
+  y0: Float64Array,
+  y1: Float64Array,
+  y2: Float64Array,
+  reverse: boolean,
+): void {
+  const m = y0.length;
+  const level = reverse ? [y0[m - 1]!, y1[m - 1]!, y2[m - 1]!] : [y0[0]!, y1[0]!, y2[0]!];
+  const z = new Float64Array(6);
+  for (let k = 0; k < sections[0].length; k++) {
+    const s = [sections[0][k]!, sections[1][k]!, sections[2][k]!] as const;
+    for (let c = 0; c < 3; c++) {
+      const b = s[c]!;
+      const gain = (b.b0 + b.b1 + b.b2) / (1 + b.a1 + b.a2);
+      const z2 = (b.b2 - b.a2 * gain) * level[c]!;
+      z[2 * c] = (b.b1 - b.a1 * gain) * level[c]! + z2;
+      z[2 * c + 1] = z2;
+      level[c] = level[c]! * gain;
+    }
+    if (!reverse) sectionForward3(s[0], s[1], s[2], z, y0, y1, y2);
+    else sectionBackward3(s[0], s[1], s[2], z, y0, y1, y2);
+  }
+}
+
+// The two three-channel loops, like the single-channel ones, are small functions of their own so
+// they are compiled once for every caller.
+
+function sectionForward3(p: Biquad, q: Biquad, r: Biquad, z: Float64Array, y0: Float64Array, y1: Float64Array, y2: Float64Array): void {
+  const pb0 = p.b0, pb1 = p.b1, pb2 = p.b2, pa1 = p.a1, pa2 = p.a2;
+  const qb0 = q.b0, qb1 = q.b1, qb2 = q.b2, qa1 = q.a1, qa2 = q.a2;
+  const rb0 = r.b0, rb1 = r.b1, rb2 = r.b2, ra1 = r.a1, ra2 = r.a2;
+  let p1 = z[0]!, p2 = z[1]!, q1 = z[2]!, q2 = z[3]!, r1 = z[4]!, r2 = z[5]!;
+  const m = y0.length;
+  for (let i = 0; i < m; i++) {
+    const u = y0[i]!;
+    const v = y1[i]!;
+    const w = y2[i]!;
+    const yu = pb0 * u + p1;
+    const yv = qb0 * v + q1;
+    const yw = rb0 * w + r1;
+    p1 = pb1 * u - pa1 * yu + p2;
+    q1 = qb1 * v - qa1 * yv + q2;
+    r1 = rb1 * w - ra1 * yw + r2;
+    p2 = pb2 * u - pa2 * yu;
+    q2 = qb2 * v - qa2 * yv;
+    r2 = rb2 * w - ra2 * yw;
+    y0[i] = yu;
+    y1[i] = yv;
+    y2[i] = yw;
+  }
+}
+
+function sectionBackward3(p: Biquad, q: Biquad, r: Biquad, z: Float64Array, y0: Float64Array, y1: Float64Array, y2: Float64Array): void {
+  const pb0 = p.b0, pb1 = p.b1, pb2 = p.b2, pa1 = p.a1, pa2 = p.a2;
+  const qb0 = q.b0, qb1 = q.b1, qb2 = q.b2, qa1 = q.a1, qa2 = q.a2;
+  const rb0 = r.b0, rb1 = r.b1, rb2 = r.b2, ra1 = r.a1, ra2 = r.a2;
+  let p1 = z[0]!, p2 = z[1]!, q1 = z[2]!, q2 = z[3]!, r1 = z[4]!, r2 = z[5]!;
+  for (let i = y0.length - 1; i >= 0; i--) {
+    const u = y0[i]!;
+    const v = y1[i]!;
+    const w = y2[i]!;
+    const yu = pb0 * u + p1;
+    const yv = qb0 * v + q1;
+    const yw = rb0 * w + r1;
+    p1 = pb1 * u - pa1 * yu + p2;
+    q1 = qb1 * v - qa1 * yv + q2;
+    r1 = rb1 * w - ra1 * yw + r2;
+    p2 = pb2 * u - pa2 * yu;
+    q2 = qb2 * v - qa2 * yv;
+    r2 = rb2 * w - ra2 * yw;
+    y0[i] = yu;
+    y1[i] = yv;
+    y2[i] = yw;
+  }
+}

@@ -1,4 +1,5 @@
-import { lowPassZeroPhaseSegments } from "../filter/zero-phase-butterworth";
+import { butterworthSections } from "../filter/butterworth-sections";
+import { zeroPhaseSegments3 } from "../filter/zero-phase-butterworth";
 import type { LegEvents } from "./gait-events";
 import {
   MS_LOW_PASS_HZ,
@@ -60,9 +61,16 @@ export function detectShankEvents(
   acceleration?: ShankAcceleration,
 ): LegEvents {
   const fs = sampleRateHz;
-  const msSignal = lowPassZeroPhaseSegments(omegaDegS, mask, fs, MS_LOW_PASS_HZ, 4);
-  const ev = lowPassZeroPhaseSegments(omegaDegS, mask, fs, Math.min(SHANK_EVENT_LOW_PASS_HZ, 0.4 * fs), 4);
-  const lobe = lowPassZeroPhaseSegments(omegaDegS, mask, fs, Math.min(SHANK_LOBE_LOW_PASS_HZ, 0.4 * fs), 4);
+  // The three low-passed copies in one pass (each identical to its own lowPassZeroPhaseSegments).
+  const [msSignal, ev, lobe] = zeroPhaseSegments3(
+    [omegaDegS, omegaDegS, omegaDegS],
+    [
+      butterworthSections("lowpass", 4, MS_LOW_PASS_HZ, fs),
+      butterworthSections("lowpass", 4, Math.min(SHANK_EVENT_LOW_PASS_HZ, 0.4 * fs), fs),
+      butterworthSections("lowpass", 4, Math.min(SHANK_LOBE_LOW_PASS_HZ, 0.4 * fs), fs),
+    ],
+    mask,
+  );
   const thr = signalRelativeThresholds(msSignal, mask);
   const peaks = findPeaks(msSignal, mask, thr.midSwingDegS, Math.round(SALARIAN_MIN_PEAK_DISTANCE_S * fs));
   // Re-centre each MS on the less-smoothed signal (the 3 Hz copy shifts asymmetric peaks a little).

@@ -1,4 +1,5 @@
-import { lowPassZeroPhaseSegments } from "../filter/zero-phase-butterworth";
+import { butterworthSections } from "../filter/butterworth-sections";
+import { zeroPhaseSegments3 } from "../filter/zero-phase-butterworth";
 import { quantileOfMasked } from "../orientation/quantile";
 import { IMPACT_HIGH_PASS_HZ } from "../timebase/impact-signal";
 
@@ -39,9 +40,10 @@ export function shankImpactMagnitude(acc: ShankAcceleration, mask: Uint8Array, s
   if (IMPACT_HIGH_PASS_HZ >= 0.4 * sampleRateHz) return null;
   const n = mask.length;
   const out = new Float64Array(n);
-  for (const axis of [acc.accX, acc.accY, acc.accZ]) {
-    addSquaredResidual(out, axis, lowPassZeroPhaseSegments(axis, mask, sampleRateHz, IMPACT_HIGH_PASS_HZ, 4), mask);
-  }
+  const sections = butterworthSections("lowpass", 4, IMPACT_HIGH_PASS_HZ, sampleRateHz);
+  const axes = [acc.accX, acc.accY, acc.accZ] as const;
+  const low = zeroPhaseSegments3(axes, [sections, sections, sections], mask);
+  for (let c = 0; c < 3; c++) addSquaredResidual(out, axes[c]!, low[c]!, mask);
   sqrtInPlace(out);
   return out;
 }

@@ -124,3 +124,22 @@ describe("hilbertPhasePair(x, y)", () => {
     expect(() => hilbertPhasePair([1, 2], [1])).toThrow(RangeError);
   });
 });
+
+describe("dft(real, imag) above the cached plan size", () => {
+  // 2¹⁷ + 1 points need a 2¹⁹-point Bluestein plan, which is held only weakly (dft.ts): repeated
+  // transforms in one job reuse it. Reuse must not change a value, and the inverse must still undo it.
+  it("gives the same spectrum on repeated calls and inverseDft(dft(x)) returns x (1e-9; common practice)", { timeout: 60_000 }, () => {
+    const n = (1 << 17) + 1;
+    const x = new Float64Array(n);
+    for (let i = 0; i < n; i++) x[i] = Math.sin(0.001 * i * i) + ((i * 7919) % 101) / 101;
+    const a = dft(x, null);
+    const b = dft(x, null);
+    let differing = 0;
+    for (let k = 0; k < n; k++) if (a.re[k] !== b.re[k] || a.im[k] !== b.im[k]) differing++;
+    expect(differing).toBe(0);
+    const back = inverseDft(a.re, a.im);
+    let worst = 0;
+    for (let i = 0; i < n; i++) worst = Math.max(worst, Math.abs(back.re[i]! - x[i]!), Math.abs(back.im[i]!));
+    expect(worst).toBeLessThan(1e-9);
+  });
+});
