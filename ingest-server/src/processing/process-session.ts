@@ -2,6 +2,7 @@ import {
   ALGORITHM_VERSION,
   analyze,
   readUploadSet,
+  SignalInputError,
   type Analysis,
   type AnalyzeOptions,
   type Placement,
@@ -86,7 +87,8 @@ export async function loadRecordings(deps: Pick<ProcessDeps, "storage">, files: 
   const startOf = new Map(files.map((f) => [f.original_name, new Date(f.start_utc).toISOString()]));
   const set = readUploadSet(input, { bidsStartUtc: (motionFileName) => startOf.get(motionFileName) });
   const first = set.errors[0];
-  if (first) throw new Error(`stored file ${first.file} could not be read: ${first.message}`);
+  // Bad input, as the reader words it: session-job fails it at once (a retry cannot fix it).
+  if (first) throw new SignalInputError(first.message, first.file, first.line, first.column);
   return set.recordings.map((r, i) => {
     const f = files[set.recordingFile[i]!]!;
     const placement = f.format === "bids-motion" ? (f.recording_placements?.[r.deviceSerial] ?? f.placement) : f.placement;
