@@ -24,7 +24,7 @@ export function clinicianRoutes(queryClient: QueryClient): RouteObject[] {
     {
       path: "patients/:patientId",
       lazy: async () => {
-        const [trends, notes] = await Promise.all([import("@/features/patient-trends"), import("@/features/notes")]);
+        const [trends, notes, consent] = await Promise.all([import("@/features/patient-trends"), import("@/features/notes"), import("@/features/research-consent")]);
         return {
           loader: afterGuard(queryClient, "clinician", async ({ params }: LoaderFunctionArgs) => {
             const id = params.patientId!;
@@ -40,7 +40,18 @@ export function clinicianRoutes(queryClient: QueryClient): RouteObject[] {
             const id = useParams().patientId!;
             const { data: n } = notes.useNotes(id);
             const { data: t } = notes.useTraining(id);
-            return <trends.PatientTrendsPage patientId={id} markers={notes.notesToMarkers(n.items, t.items)} notesPanel={<notes.NotesPanel patientId={id} />} />;
+            return (
+              <trends.PatientTrendsPage
+                patientId={id}
+                markers={notes.notesToMarkers(n.items, t.items)}
+                notesPanel={
+                  <>
+                    <notes.NotesPanel patientId={id} />
+                    <consent.ConsentHistoryPanel patientId={id} role="clinician" />
+                  </>
+                }
+              />
+            );
           },
         };
       },

@@ -16,11 +16,12 @@ export function patientRoutes(queryClient: QueryClient): RouteObject[] {
     {
       path: "progress",
       lazy: async () => {
-        const [m, team] = await Promise.all([import("@/features/patient-progress"), import("@/features/care-team")]);
+        const [m, team, consent] = await Promise.all([import("@/features/patient-progress"), import("@/features/care-team"), import("@/features/research-consent")]);
         return {
           loader: async () => {
             const me = await queryClient.ensureQueryData(meQueryOptions());
             void queryClient.prefetchQuery(team.careTeamQueryOptions());
+            if (me?.patientId) void queryClient.prefetchQuery(consent.consentQueryOptions(me.patientId));
             if (me?.patientId) await m.prefetchMyWalks(queryClient, me.patientId);
             return null;
           },
@@ -31,6 +32,7 @@ export function patientRoutes(queryClient: QueryClient): RouteObject[] {
               <>
                 <m.PatientProgress patientId={me.patientId} />
                 <team.CareTeamPanel />
+                <consent.PatientConsentPanel patientId={me.patientId} />
               </>
             );
           },
