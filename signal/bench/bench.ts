@@ -1,12 +1,15 @@
 // Parse and analysis time and peak memory for a 6-minute and a 30-minute four-sensor 200 Hz
-// session from the project's synthetic generator. Run from the repository root: `npm run bench`.
-// Each size is generated in one child process and measured in a fresh one (so the generator's
-// memory is not counted), pinned to one CPU with `taskset` when it exists. Figures are printed,
-// never asserted; the machine may be shared, so the load average is printed too.
+// session from the project's synthetic generator. Run from the repository root: `npm run bench`
+// (it runs the built bundle, signal/dist/bench.js). Each size is generated in one child process and
+// measured in a fresh one (so the generator's memory is not counted), pinned to one CPU with
+// `taskset` when it exists. Then, on the same files, the built CLI runs as a whole process,
+// alternated with a NumPy/SciPy script doing the same steps (numpy_pipeline.py beside this file),
+// and the median ratio of their times is printed. Figures are printed, never asserted; the
+// machine may be shared, so the load average is printed too.
 import { spawnSync } from "node:child_process";
-import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { loadavg, tmpdir } from "node:os";
-import { join } from "node:path";
+import { dirname, join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
 import { analyze } from "../src/analyze";
 import { readSensorCsv } from "../src/io/read-sensor-csv";
@@ -15,8 +18,14 @@ import { synthesizeSession, type SynthOptions } from "../src/synth";
 import type { SensorRecording } from "../src/types";
 
 const SIZES_MIN = [6, 30];
-const TARGETS_30_MIN = { analysisS: 1, endToEndS: 2, peakMb: 300 };
+const TARGETS_30_MIN = { analysisS: 1, endToEndS: 2, peakMb: 300, wholeProcessRatio: 0.33 };
 const SELF = fileURLToPath(import.meta.url);
+/** The same paths whether this runs as signal/dist/bench.js or from source (signal/bench/bench.ts). */
+const BUILT_CLI = resolve(dirname(SELF), "..", "dist", "cli.js");
+const NUMPY_SCRIPT = resolve(dirname(SELF), "..", "bench", "numpy_pipeline.py");
+const REPO_ROOT = resolve(dirname(SELF), "..", "..");
+/** Runs of each program in the whole-process comparison (alternated). */
+const WHOLE_PROCESS_RUNS = 5;
 
 /** A home walking test: 180° turns every 20 s, a 20 s rest every 5 minutes, 1:1 arm swing. */
 function scenario(minutes: number): SynthOptions {
@@ -113,15 +122,99 @@ function runChild(args: string[]): Record<string, number> {
   return JSON.parse(result.stdout) as Record<string, number>;
 }
 
+interface ProcessRun {
+  wallS: number;
+  cpuS: number;
+  peakRssMb: number | null;
+}
+
+const loadLine = () => loadavg().map((x) => x.toFixed(2)).join(" ");
+
+/**
+ * One whole process, pinned to CPU 0 like the measurements above so both programs get one core.
+ * Wall time from here; CPU seconds and peak RSS from GNU time (`/usr/bin/time`) when installed.
+ */
+function timeProcess(command: string[], label: string): ProcessRun {
+  const gnuTime = existsSync("/usr/bin/time");
+  const dir = mkdtempSync(join(tmpdir(), "pendula-time-"));
+  const out = join(dir, "time.txt");
+  const pinned = spawnSync("taskset", ["--version"], { encoding: "utf8" }).error ? [] : ["taskset", "-c", "0"];
+  const argv = [...pinned, ...(gnuTime ? ["/usr/bin/time", "-f", "%U %S %M", "-o", out] : []), ...command];
+  try {
+    const t0 = performance.now();
+    const r = spawnSync(argv[0]!, argv.slice(1), { cwd: REPO_ROOT, encoding: "utf8", maxBuffer: 64 << 20 });
+    const wallS = (performance.now() - t0) / 1000;
+    if (r.error || r.status !== 0) throw new Error(`${label} failed (${r.error?.message ?? `exit ${r.status}`}):\n${r.stderr}`);
+    if (!gnuTime) return { wallS, cpuS: Number.NaN, peakRssMb: null };
+    const [user, sys, maxKb] = readFileSync(out, "utf8").trim().split("\n").pop()!.split(/\s+/).map(Number);
+    return { wallS, cpuS: user! + sys!, peakRssMb: maxKb! / 1024 };
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
+}
+
+/** Python 3 with NumPy and SciPy, or the reason the comparison cannot run. */
+function pythonWithScipy(): { ok: true; versions: string } | { ok: false; reason: string } {
+  const r = spawnSync("python3", ["-c", "import numpy, scipy, sys; print(sys.version.split()[0], numpy.__version__, scipy.__version__)"], { encoding: "utf8" });
+  if (r.error) return { ok: false, reason: "python3 not found" };
+  if (r.status !== 0) return { ok: false, reason: `python3 cannot import NumPy/SciPy: ${r.stderr.trim().split("\n").pop()}` };
+  const [py, np, sp] = r.stdout.trim().split(" ");
+  return { ok: true, versions: `Python ${py}, NumPy ${np}, SciPy ${sp}` };
+}
+
+/**
+ * The built CLI (`node signal/dist/cli.js … --json`, and the same through `npm run --silent
+ * analyze`) against numpy_pipeline.py on the same files, alternated WHOLE_PROCESS_RUNS times.
+ */
+function wholeProcessComparison(dir: string, minutes: number): string[] {
+  const files = readdirSync(dir).filter((n) => n.endsWith(".csv")).sort().map((n) => join(dir, n));
+  const python = pythonWithScipy();
+  if (!python.ok) return [`${minutes} min: whole-process comparison skipped (${python.reason}).`];
+  if (!existsSync(BUILT_CLI)) return [`${minutes} min: whole-process comparison skipped (no ${BUILT_CLI}; run npm run build:node).`];
+  const programs = [
+    { label: "node signal/dist/cli.js --json", command: [process.execPath, BUILT_CLI, ...files, "--json"] },
+    { label: "npm run --silent analyze -- … --json", command: ["npm", "run", "--silent", "analyze", "--", ...files, "--json"] },
+    { label: "python3 numpy_pipeline.py", command: ["python3", NUMPY_SCRIPT, ...files] },
+  ];
+  const runs: ProcessRun[][] = programs.map(() => []);
+  const loadBefore = loadLine();
+  for (let i = 0; i < WHOLE_PROCESS_RUNS; i++) {
+    programs.forEach((p, j) => runs[j]!.push(timeProcess(p.command, p.label)));
+  }
+  const loadAfter = loadLine();
+  const py = runs[programs.length - 1]!;
+  const lines = [`${minutes} min, ${WHOLE_PROCESS_RUNS} alternated runs each (${python.versions}); load average ${loadBefore} before, ${loadAfter} after:`];
+  const fmt = (xs: number[]) => xs.map((x) => x.toFixed(2)).join(" ");
+  programs.forEach((p, j) => {
+    const r = runs[j]!;
+    const rss = r.map((x) => x.peakRssMb).filter((x): x is number => x !== null);
+    const ratio = j < programs.length - 1
+      ? `; ratio to NumPy/SciPy (median of per-pair ratios): wall ${median(r.map((x, k) => x.wallS / py[k]!.wallS)).toFixed(2)}, CPU ${median(r.map((x, k) => x.cpuS / py[k]!.cpuS)).toFixed(2)}`
+      : "";
+    lines.push(
+      `  ${p.label.padEnd(38)} wall s median ${median(r.map((x) => x.wallS)).toFixed(2)} [${fmt(r.map((x) => x.wallS))}], ` +
+        `CPU s median ${median(r.map((x) => x.cpuS)).toFixed(2)}, peak RSS ${rss.length ? `${Math.max(...rss).toFixed(0)} MB` : "n/a (no /usr/bin/time)"}${ratio}`,
+    );
+  });
+  return lines;
+}
+
 function main(): void {
   const [mode, a, b] = process.argv.slice(2);
   if (mode === "--generate") return generate(Number(a), b!);
   if (mode === "--measure") return measure(a!);
 
-  console.log(`Pendula signal benchmark — node ${process.version}, load average ${loadavg().map((x) => x.toFixed(2)).join(" ")}`);
+  console.log(`Pendula signal benchmark — node ${process.version}, load average ${loadLine()}`);
   console.log("Session: four sensors (shanks, wrists), 200 Hz, synthetic home walk (turns every 20 s, rests every 5 min).");
   const rows: string[][] = [];
   const parseLines: string[] = [];
+  const processLines: string[] = [];
   const mbPerS = (bytes: number, s: number) => (bytes / 1048576 / s).toFixed(0);
   for (const minutes of SIZES_MIN) {
     const dir = mkdtempSync(join(tmpdir(), "pendula-bench-"));
@@ -146,6 +239,7 @@ function main(): void {
         `${minutes} min, ${mb(m.csvBytes!)} MB of CSV: text reader ${mbPerS(m.csvBytes!, m.parseCpuS!)} MB/s (after decoding the files to strings); ` +
           `byte reader ${mbPerS(m.csvBytes!, m.bytesParseCpuS!)} MB/s first run, ${mbPerS(m.csvBytes!, m.bytesParseWarmCpuS!)} MB/s warm (best of 3).`,
       );
+      processLines.push(...wholeProcessComparison(dir, minutes));
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
@@ -157,12 +251,16 @@ function main(): void {
   for (const r of rows) console.log(line(r));
   console.log("Parse throughput, CPU seconds of one core (MB = 2^20 bytes, as above):");
   for (const p of parseLines) console.log(`  ${p}`);
+  console.log("Whole process, the built CLI against a NumPy/SciPy script doing the same steps on the same files (one core each):");
+  for (const p of processLines) console.log(`  ${p}`);
   console.log(
-    `Targets (30 min): analysis after parsing < ${TARGETS_30_MIN.analysisS} s, end to end (read + parse + analysis) < ${TARGETS_30_MIN.endToEndS} s, peak RSS < ${TARGETS_30_MIN.peakMb} MB.`,
+    `Targets (30 min): analysis after parsing < ${TARGETS_30_MIN.analysisS} s, end to end (read + parse + analysis) < ${TARGETS_30_MIN.endToEndS} s, peak RSS < ${TARGETS_30_MIN.peakMb} MB, ` +
+      `whole-process time ≤ ${TARGETS_30_MIN.wholeProcessRatio} × NumPy/SciPy's.`,
   );
+  console.log(`Load average at the end: ${loadLine()}.`);
   console.log("Times are wall seconds (CPU seconds of the process in brackets; CPU includes GC and JIT helper threads).");
   console.log("Generation is not part of the targets; 'warm' is a second analysis in the same process, for information.");
-  console.log("Start RSS is the Node + tsx runtime before any file is read.");
+  console.log("Start RSS is the Node runtime with the bundle loaded, before any file is read.");
 }
 
 main();
