@@ -63,11 +63,20 @@ export class S3ObjectStorage implements ObjectStorage {
   async putFile(key: string, filePath: string, contentType = "application/octet-stream"): Promise<void> {
     // ContentLength from the file itself: without it the SDK would buffer the stream to measure it.
     const { size } = await stat(filePath);
-    const body = createReadStream(filePath);
-    try {
-      await this.client.send(new PutObjectCommand({ Bucket: this.bucket, Key: key, Body: body, ContentType: contentType, ContentLength: size }));
-    } finally {
-      body.destroy();
+    // The SDK retries a Buffer body itself but never a stream (it cannot rewind one), so a socket
+    // the server closed just as it was reused ("socket hang up") would fail the upload. A file can
+    // be read again: retry with a fresh stream. PUT of the same key and bytes is idempotent.
+    for (let attempt = 1; ; attempt++) {
+      const body = createReadStream(filePath);
+      try {
+        await this.client.send(new PutObjectCommand({ Bucket: this.bucket, Key: key, Body: body, ContentType: contentType, ContentLength: size }));
+        return;
+      } catch (err) {
+        if (attempt >= PUT_FILE_ATTEMPTS || !isTransient(err)) throw err;
+        await new Promise((r) => setTimeout(r, 100 * 4 ** (attempt - 1)));
+      } finally {
+        body.destroy();
+      }
     }
   }
 
@@ -99,6 +108,16 @@ export class S3ObjectStorage implements ObjectStorage {
   destroy(): void {
     this.client.destroy();
   }
+}
+
+const PUT_FILE_ATTEMPTS = 3;
+
+/** Connection-level failures and 5xx answers; a 4xx would only repeat itself. */
+export function isTransient(err: unknown): boolean {
+  const e = err as { code?: string; name?: string; $metadata?: { httpStatusCode?: number } };
+  const status = e?.$metadata?.httpStatusCode;
+  if (status !== undefined) return status >= 500;
+  return ["ECONNRESET", "EPIPE", "ECONNREFUSED", "ETIMEDOUT"].includes(e?.code ?? "") || e?.name === "TimeoutError";
 }
 
 function isNotFound(err: unknown): boolean {
