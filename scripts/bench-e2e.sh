@@ -71,10 +71,12 @@ echo "machine: $(nproc) cores, $(awk '/MemTotal/ {printf "%.1f GB", $2 / 1048576
 echo "server: node ingest-server/dist/server.js (pid $SERVER_PID); workers: node ingest-server/dist/worker.js, one session at a time each; database: durable (fsync on)"
 driver prepare --patients "$(( BURST > SINGLE ? BURST : SINGLE ))" --minutes "$MINUTES"
 
-# Week 0: one session at a time, one worker.
-start_workers 1
-BENCH_WORKER_PIDS="$(worker_pids)" driver single --count "$SINGLE" --week 0 --workers-label "1 worker"
-stop_workers
+# Week 0: one session at a time, one worker (BENCH_SINGLE=0 skips it).
+if [ "$SINGLE" -gt 0 ]; then
+  start_workers 1
+  BENCH_WORKER_PIDS="$(worker_pids)" driver single --count "$SINGLE" --week 0 --workers-label "1 worker"
+  stop_workers
+fi
 
 # Weeks 1, 2, 3: the burst with each worker count (fresh workers, so each peak RSS is this pass's).
 week=1
