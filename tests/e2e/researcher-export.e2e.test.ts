@@ -25,16 +25,38 @@ describe("a researcher previews a cohort and downloads the anonymised export", (
     expect(focus.outlineStyle).not.toBe("none");
     expect(parseFloat(focus.outlineWidth)).toBeGreaterThanOrEqual(2);
     await page.keyboard.press("Enter");
-    const table = page.getByRole("table");
+    const table = page.getByRole("table", { name: /Subjects and sessions/ });
     await table.waitFor();
     // The seed clusters ages so some cells reach k = 5 and leaves a few below it (db/seeds/demo-scenario.ts).
-    expect(await table.getByText("suppressed (< 5 subjects)").count()).toBeGreaterThan(0);
+    const withheld = table.locator("tbody tr").filter({ hasText: "suppressed group (n < 5)" });
+    expect(await withheld.count()).toBeGreaterThan(0);
+    // A withheld group names neither its condition nor its age band.
+    for (const text of await withheld.allTextContents()) expect(text).not.toMatch(/Stroke|Parkinson|spinal|Other|\d+-\d+|90\+/);
     const published = table.locator("tbody tr").filter({ hasNotText: "suppressed" });
     expect(await published.count()).toBeGreaterThan(0);
     await saveScreenshot(page, "researcher-cohort-preview");
   });
 
-  it("downloads a CSV with pseudonymous ids and weeks, and no names, e-mails or serials", async () => {
+  it("creates a research project, and the export waits for one", async () => {
+    const { page } = t;
+    expect(await page.getByRole("button", { name: "Download CSV" }).isDisabled()).toBe(true);
+    const select = page.getByLabel("Export under project");
+    if (!(await select.count())) {
+      await page.getByLabel("Project name").fill("Fernhollow recovery audit");
+    } else {
+      await page.getByRole("button", { name: "New project" }).click();
+      await page.getByLabel("Project name").fill(`Fernhollow recovery audit ${Date.now()}`);
+    }
+    await page.getByLabel("Purpose (optional)").fill("Cadence and coordination over the first months of home testing");
+    await page.getByRole("button", { name: "Create project" }).click();
+    await page.getByLabel("Export under project").waitFor();
+    expect(await page.getByLabel("Export under project").inputValue()).not.toBe("");
+    await page.getByText("How precisely each value is exported").click();
+    await page.getByRole("table", { name: "Export precision per metric" }).getByText("0.05 m/s").first().waitFor();
+    await saveScreenshot(page, "researcher-project-and-precision");
+  });
+
+  it("downloads a CSV with pseudonymous ids, week blocks and rounded values, and no names, e-mails or serials", async () => {
     const { page } = t;
     const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download CSV" }).click()]);
     expect(download.suggestedFilename()).toMatch(/\.csv$/);
@@ -43,7 +65,16 @@ describe("a researcher previews a cohort and downloads the anonymised export", (
     const [header, ...rows] = csv.trim().split(/\r?\n/);
     expect(header).toBeDefined();
     expect(rows.length).toBeGreaterThan(0);
-    expect(header!.toLowerCase()).toContain("week");
+    expect(header!.split(",")).toContain("weeks_since_enrolment_block");
+    const cols = header!.split(",");
+    const cadence = cols.indexOf("cadenceStepsPerMin");
+    const week = cols.indexOf("weeks_since_enrolment_block");
+    for (const row of rows) {
+      const cells = row.split(",");
+      // Cadence to whole steps/min and weeks in 4-week blocks (research/export-precision.ts, safe-harbor.ts).
+      if (cadence >= 0 && cells[cadence]) expect(cells[cadence]).toMatch(/^\d+$/);
+      expect(Number(cells[week]) % 4).toBe(0);
+    }
     // Direct identifiers the seed holds must not appear (HIPAA Safe Harbor, 45 CFR 164.514(b)(2)).
     expect(csv).not.toMatch(/@demo\.pendula\.test/);
     expect(csv).not.toMatch(/FHG-IMU-\d{4}/);
