@@ -49,7 +49,8 @@ describe("processSession → analyze(recordings, options)", () => {
     expect(res.status, JSON.stringify(res.body)).toBe(202);
     calls.length = 0;
     expect(await processSession(ctx.deps, res.body.id)).toBe("done");
-    expect(calls).toEqual([{}]);
+    // sagittalSignals: the chart traces are the analysis' own signals (session-traces.ts).
+    expect(calls).toEqual([{ sagittalSignals: true }]);
   });
 
   it("passes the patient's height and the session's walking aid, and stores the count behind each metric", async () => {
@@ -59,7 +60,7 @@ describe("processSession → analyze(recordings, options)", () => {
     await ctx.db("walk_sessions").where({ id: res.body.id }).update({ walking_aid: "cane" });
     calls.length = 0;
     expect(await processSession(ctx.deps, res.body.id)).toBe("done");
-    expect(calls).toEqual([{ heightCm: 176, walkingAid: "cane" }]);
+    expect(calls).toEqual([{ heightCm: 176, walkingAid: "cane", sagittalSignals: true }]);
 
     const stored = await ctx.db("walk_sessions").where({ id: res.body.id }).first("analysis");
     const counts: Record<string, number> = stored.analysis.metrics.counts;
