@@ -7,9 +7,10 @@
 // Each entry is bundled with esbuild into its workspace's git-ignored dist/ folder (same depth as
 // src/, so paths relative to import.meta.url still resolve), with the workspace packages
 // (@pendula/*) compiled in and every npm dependency left as an import resolved from node_modules.
-// Source maps sit beside each output. The stamp lists every file the bundles read (from esbuild's
-// metafile), so "stale" means exactly "one of those files changed since".
-import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
+// Source maps sit beside each output. The stamp lists, per output, every file its bundle read (from
+// esbuild's metafile), so "stale" means exactly "one of those files changed since"; outputs are
+// written through a rename, so a process starting during a build reads the old file or the new one.
+import { existsSync, mkdirSync, readFileSync, renameSync, statSync, writeFileSync } from "node:fs";
 import { dirname, join, relative, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
 
@@ -33,18 +34,25 @@ export const ENTRIES = [
 /** Files whose change alters every bundle although no bundle imports them. */
 const ALWAYS_INPUTS = ["scripts/build.mjs", "package.json", "package-lock.json", "tsconfig.json"];
 
-/** True when the last build is missing, incomplete, or older than any file it was built from. */
-export function isStale() {
+/**
+ * True when the last build is missing or incomplete, or when any file that one of `outputs` was built
+ * from (default: every entry) is newer than the build.
+ */
+export function isStale(outputs = ENTRIES.map(([, out]) => out)) {
   let stamp;
   try {
     stamp = JSON.parse(readFileSync(STAMP, "utf8"));
   } catch {
     return true;
   }
-  const builtMs = stamp.builtMs;
-  if (typeof builtMs !== "number" || !Array.isArray(stamp.inputs)) return true;
-  if (ENTRIES.some(([, out]) => !existsSync(join(ROOT, out)))) return true;
-  for (const rel of [...ALWAYS_INPUTS, ...stamp.inputs]) {
+  const { builtMs, inputsByOutput } = stamp;
+  if (typeof builtMs !== "number" || typeof inputsByOutput !== "object" || inputsByOutput === null) return true;
+  const files = new Set(ALWAYS_INPUTS);
+  for (const out of outputs) {
+    if (!existsSync(join(ROOT, out)) || !Array.isArray(inputsByOutput[out])) return true;
+    for (const rel of inputsByOutput[out]) files.add(rel);
+  }
+  for (const rel of files) {
     let mtimeMs;
     try {
       mtimeMs = statSync(join(ROOT, rel)).mtimeMs;
@@ -54,6 +62,14 @@ export function isStale() {
     if (mtimeMs > builtMs) return true;
   }
   return false;
+}
+
+/** Writes through a temporary file and a rename, so a process starting meanwhile never reads half a file. */
+function writeAtomically(path, contents) {
+  mkdirSync(dirname(path), { recursive: true });
+  const tmp = `${path}.${process.pid}.tmp`;
+  writeFileSync(tmp, contents);
+  renameSync(tmp, path);
 }
 
 /** npm packages named by any workspace: imported at run time from node_modules, never bundled. */
@@ -90,17 +106,22 @@ export async function build() {
   const esbuild = await import("esbuild");
   // Taken before reading, so a file saved during the build counts as newer than the build.
   const startedMs = Date.now();
-  const results = await Promise.all(ENTRIES.map(([entry, out]) => esbuild.build(entryOptions(entry, out))));
-  const inputs = new Set();
-  for (const r of results) for (const input of Object.keys(r.metafile.inputs)) inputs.add(relative(ROOT, resolve(ROOT, input)));
-  mkdirSync(dirname(STAMP), { recursive: true });
-  writeFileSync(STAMP, JSON.stringify({ builtMs: startedMs, esbuild: esbuild.version, inputs: [...inputs].sort() }, null, 1) + "\n");
-  return { entries: ENTRIES.length, inputs: inputs.size, seconds: (Date.now() - startedMs) / 1000 };
+  const results = await Promise.all(ENTRIES.map(([entry, out]) => esbuild.build({ ...entryOptions(entry, out), write: false })));
+  const inputsByOutput = {};
+  const all = new Set();
+  results.forEach((r, i) => {
+    for (const file of r.outputFiles) writeAtomically(file.path, file.contents);
+    const inputs = Object.keys(r.metafile.inputs).map((input) => relative(ROOT, resolve(ROOT, input))).sort();
+    inputsByOutput[ENTRIES[i][1]] = inputs;
+    for (const input of inputs) all.add(input);
+  });
+  writeAtomically(STAMP, JSON.stringify({ builtMs: startedMs, esbuild: esbuild.version, inputsByOutput }, null, 1) + "\n");
+  return { entries: ENTRIES.length, inputs: all.size, seconds: (Date.now() - startedMs) / 1000 };
 }
 
-/** Builds when stale; says so on stderr (stdout may be a JSON answer). */
-export async function ensureBuilt() {
-  if (!isStale()) return false;
+/** Builds everything when `outputs` (default: all) are stale; says so on stderr (stdout may be a JSON answer). */
+export async function ensureBuilt(outputs) {
+  if (!isStale(outputs)) return false;
   const r = await build();
   process.stderr.write(`[pendula] built ${r.entries} entry points from ${r.inputs} files in ${r.seconds.toFixed(1)} s\n`);
   return true;
