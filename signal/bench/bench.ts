@@ -16,6 +16,7 @@ import { readSensorCsv } from "../src/io/read-sensor-csv";
 import { readSensorCsvBytes } from "../src/io/read-sensor-csv-bytes";
 import { synthesizeSession, type SynthOptions } from "../src/synth";
 import type { SensorRecording } from "../src/types";
+import { describeTsvThroughput, measureTsvThroughput, type TsvThroughput } from "./tsv-throughput";
 
 const SIZES_MIN = [6, 30];
 const TARGETS_30_MIN = { analysisS: 1, endToEndS: 2, peakMb: 300, wholeProcessRatio: 0.33 };
@@ -90,6 +91,8 @@ function measure(dir: string): void {
   };
   const bytesParseCpuS = parseBytes();
   const bytesParseWarmCpuS = Math.min(parseBytes(), parseBytes(), parseBytes());
+  // The same recordings as one BIDS Motion set (last: it changes none of the figures above).
+  const tsv = measureTsvThroughput(buffers.map((b, i) => readSensorCsvBytes(b, names[i]!)));
   process.stdout.write(
     JSON.stringify({
       files: names.length,
@@ -109,6 +112,7 @@ function measure(dir: string): void {
       csvBytes,
       bytesParseCpuS,
       bytesParseWarmCpuS,
+      ...tsv,
       cadence: analysis.metrics.cadenceStepsPerMin,
     }),
   );
@@ -209,6 +213,13 @@ function main(): void {
   const [mode, a, b] = process.argv.slice(2);
   if (mode === "--generate") return generate(Number(a), b!);
   if (mode === "--measure") return measure(a!);
+  // `npm run bench -- --minutes 30` measures one size only (a shared machine may be slow).
+  const only = mode === "--minutes" ? Number(a) : null;
+  if (mode !== undefined && !(only !== null && Number.isInteger(only) && only >= 1 && only <= 120)) {
+    console.error("usage: npm run bench [-- --minutes N]   (N whole minutes, 1–120; default: 6 and 30)");
+    process.exitCode = 2;
+    return;
+  }
 
   console.log(`Pendula signal benchmark — node ${process.version}, load average ${loadLine()}`);
   console.log("Session: four sensors (shanks, wrists), 200 Hz, synthetic home walk (turns every 20 s, rests every 5 min).");
@@ -216,7 +227,7 @@ function main(): void {
   const parseLines: string[] = [];
   const processLines: string[] = [];
   const mbPerS = (bytes: number, s: number) => (bytes / 1048576 / s).toFixed(0);
-  for (const minutes of SIZES_MIN) {
+  for (const minutes of only === null ? SIZES_MIN : [only]) {
     const dir = mkdtempSync(join(tmpdir(), "pendula-bench-"));
     try {
       const gen = runChild(["--generate", String(minutes), dir]);
@@ -239,6 +250,7 @@ function main(): void {
         `${minutes} min, ${mb(m.csvBytes!)} MB of CSV: text reader ${mbPerS(m.csvBytes!, m.parseCpuS!)} MB/s (after decoding the files to strings); ` +
           `byte reader ${mbPerS(m.csvBytes!, m.bytesParseCpuS!)} MB/s first run, ${mbPerS(m.csvBytes!, m.bytesParseWarmCpuS!)} MB/s warm (best of 3).`,
       );
+      parseLines.push(`${minutes} min, ${describeTsvThroughput(m as unknown as TsvThroughput)}`);
       processLines.push(...wholeProcessComparison(dir, minutes));
     } finally {
       rmSync(dir, { recursive: true, force: true });
