@@ -41,9 +41,10 @@ export function measureTsvThroughput(recordings: readonly SensorRecording[]): Ts
 }
 
 export function describeTsvThroughput(t: TsvThroughput): string {
-  const rate = (s: number) => (t.tsvBytes / 1e6 / s).toFixed(0);
+  // MB as the CSV line beside it counts them (2^20 bytes).
+  const rate = (s: number) => (t.tsvBytes / 1048576 / s).toFixed(0);
   return (
-    `${(t.tsvBytes / 1e6).toFixed(1)} MB of BIDS Motion TSV: text reader ${rate(t.tsvTextParseCpuS)} MB/s (on the decoded string); ` +
+    `${(t.tsvBytes / 1048576).toFixed(1)} MB of BIDS Motion TSV: text reader ${rate(t.tsvTextParseCpuS)} MB/s (on the decoded string); ` +
     `byte reader ${rate(t.tsvBytesParseCpuS)} MB/s first run, ${rate(t.tsvBytesParseWarmCpuS)} MB/s warm (best of 3).`
   );
 }
