@@ -9,7 +9,7 @@ let adminToken: string;
 beforeAll(async () => {
   ctx = await createTestContext();
   admin = await ctx.seedUser({ role: "admin" });
-  clinician = await ctx.seedUser({ role: "clinician", displayName: "Tobin Ashgrove" });
+  clinician = await ctx.seedUser({ role: "clinician", displayName: "Ilse Marrowby" });
   adminToken = await ctx.tokenFor(admin);
 });
 afterAll(() => ctx?.close());
@@ -30,7 +30,7 @@ describe("caseload links", () => {
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({
       clinicianId: clinician.id,
-      clinicianName: "Tobin Ashgrove",
+      clinicianName: "Ilse Marrowby",
       patientId,
       patientName: "Orla Penhaligon",
       active: true,

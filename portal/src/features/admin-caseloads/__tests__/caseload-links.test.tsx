@@ -11,7 +11,7 @@ const ADMIN = "20000000-0000-4000-8000-000000000001";
 const link = (over: object = {}) => ({
   id: "40000000-0000-4000-8000-000000000001",
   clinicianId: CLINICIAN,
-  clinicianName: "Tobin Ashgrove",
+  clinicianName: "Ilse Marrowby",
   clinicianEmail: "wren@fernhollow.test",
   patientId: PATIENT,
   patientName: "Orla Penhaligon",
@@ -32,7 +32,7 @@ const users = {
     {
       id: CLINICIAN,
       email: "wren@fernhollow.test",
-      displayName: "Tobin Ashgrove",
+      displayName: "Ilse Marrowby",
       role: "clinician",
       status: "active",
       patientId: null,
@@ -100,7 +100,7 @@ describe("CaseloadLinksPage", () => {
       }),
     );
     renderAtRoute(<CaseloadLinksPage />);
-    await userEvent.click(await screen.findByRole("button", { name: "End Tobin Ashgrove's access to Orla Penhaligon" }));
+    await userEvent.click(await screen.findByRole("button", { name: "End Ilse Marrowby's access to Orla Penhaligon" }));
     await userEvent.click(screen.getByRole("button", { name: "End access" }));
     expect(screen.getByText("give a reason of at least 3 characters")).toBeTruthy();
     expect(ended).toBe(false);

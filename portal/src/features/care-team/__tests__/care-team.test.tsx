@@ -9,13 +9,13 @@ describe("CareTeamPanel", () => {
   it("names who can see the walks now and who no longer can, in plain words", async () => {
     mockApi({
       "GET /api/caseload-links/care-team": [
-        { clinicianName: "Tobin Ashgrove", active: true, since: "2026-03-02T09:00:00.000Z", until: null },
+        { clinicianName: "Ilse Marrowby", active: true, since: "2026-03-02T09:00:00.000Z", until: null },
         { clinicianName: "Petra Quillfeather", active: false, since: "2026-01-05T09:00:00.000Z", until: "2026-02-20T09:00:00.000Z" },
       ],
     });
     renderAtRoute(<CareTeamPanel />);
     expect(await screen.findByText(/This member of your care team can/)).toBeTruthy();
-    expect(screen.getByText(/^Tobin Ashgrove, since/)).toBeTruthy();
+    expect(screen.getByText(/^Ilse Marrowby, since/)).toBeTruthy();
     expect(screen.getByText("No longer able to see them:")).toBeTruthy();
     expect(screen.getByText(/^Petra Quillfeather, from .* to /)).toBeTruthy();
     expect(screen.getByText(/Researchers never see your name/)).toBeTruthy();
