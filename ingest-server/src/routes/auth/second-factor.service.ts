@@ -124,14 +124,17 @@ export function createSecondFactorService({ db, config }: AppDeps, auth: AuthSer
       const target = await users.findUserById(db, userId);
       if (!target) throw new HttpError(404, "not_found", "no such user");
       const endedSessions = await db.transaction(async (trx) => {
-        const had = (await repo.deleteTotp(trx, userId)) > 0;
+        // Nothing to reset: refused, so the person's sessions are not ended for nothing.
+        if ((await repo.deleteTotp(trx, userId)) === 0) {
+          throw new HttpError(409, "not_enrolled", "this account has no authenticator app to reset");
+        }
         await repo.deleteRecoveryCodes(trx, userId);
         const n = await users.endAllSessions(trx, userId);
         await audit(trx, req, {
           action: "second_factor.reset",
           resourceType: "user",
           resourceId: userId,
-          details: { reason, hadAuthenticator: had, endedSessions: n },
+          details: { reason, endedSessions: n },
         });
         return n;
       });

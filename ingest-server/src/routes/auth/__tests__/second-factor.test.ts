@@ -281,8 +281,15 @@ describe("administrator reset", () => {
     expect((await request(ctx.app).post("/api/auth/refresh").set("Cookie", cookieOf(targetSession)!)).status).toBe(401);
     const [event] = await audits(target.id, "second_factor.reset");
     expect(event.actor_id).toBe(admin.id);
-    expect(event.details).toEqual({ reason: "phone lost on the ward, identity checked in person", hadAuthenticator: true, endedSessions: 1 });
-    expect((await login(target)).body.secondFactor).toBe("enrolment_required");
+    expect(event.details).toEqual({ reason: "phone lost on the ward, identity checked in person", endedSessions: 1 });
+    const fresh = await login(target);
+    expect(fresh.body.secondFactor).toBe("enrolment_required");
+    // A second reset has nothing to remove: refused, and the new session is not ended.
+    const again = await request(ctx.app).post(url).set(bearer(adminToken)).send({ reason: "double click on the reset form" });
+    expect(again.status).toBe(409);
+    expect(again.body.error.code).toBe("not_enrolled");
+    expect((await request(ctx.app).post("/api/auth/refresh").set("Cookie", cookieOf(fresh)!)).status).toBe(200);
+    expect(await audits(target.id, "second_factor.reset")).toHaveLength(1);
   });
 });
 

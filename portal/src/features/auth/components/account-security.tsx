@@ -74,7 +74,11 @@ export function AccountSecurity() {
               {" "}Recovery codes left: <span className="font-semibold">{s.recoveryCodesLeft}</span> of 10.
             </p>
             {s.recoveryCodesLeft <= 3 ? (
-              <FormMessage tone="error">Few recovery codes are left. Make new ones and store them safely.</FormMessage>
+              <FormMessage tone="error">
+                {s.recoveryCodesLeft === 0
+                  ? "You have no recovery codes: without your phone you could not sign in. Make new ones and store them safely."
+                  : "Few recovery codes are left. Make new ones and store them safely."}
+              </FormMessage>
             ) : null}
             <div>
               <h3 className="font-semibold text-ink">New recovery codes</h3>
