@@ -14,7 +14,14 @@ const newPatientSchema = z.object({
   condition: z.enum(CONDITIONS, { error: "choose a condition" }),
   enrolledOn: z.iso.date({ error: "enter the enrolment date" }),
   researchConsent: z.boolean(),
-});
+  /** An admin's record of consent counts only with what it rests on (the server refuses it otherwise). */
+  researchConsentReason: z.string().trim().max(500).optional(),
+})
+  .refine((p) => !p.researchConsent || (p.researchConsentReason ?? "").length >= 10, {
+    path: ["researchConsentReason"],
+    error: "say what the consent rests on, at least 10 characters (e.g. the signed form on file)",
+  })
+  .transform(({ researchConsentReason, ...p }) => (p.researchConsent ? { ...p, researchConsentReason } : p));
 
 /**
  * The invite form. A patient account must point at exactly one patient record: an existing one

@@ -28,6 +28,7 @@ export function InviteForm() {
   const [condition, setCondition] = useState("");
   const [enrolledOn, setEnrolledOn] = useState(() => new Date().toISOString().slice(0, 10));
   const [researchConsent, setResearchConsent] = useState(false);
+  const [researchConsentReason, setResearchConsentReason] = useState("");
   const [errors, setErrors] = useState<Errors>({});
   const isPatient = role === "patient";
   const records = usePatientRecords(isPatient && patientMode === "existing");
@@ -40,7 +41,7 @@ export function InviteForm() {
       role,
       patientMode,
       patientId,
-      patient: { birthYear, sex, condition, enrolledOn, researchConsent },
+      patient: { birthYear, sex, condition, enrolledOn, researchConsent, researchConsentReason },
     });
     if (!parsed.success) {
       const next: Errors = {};
@@ -137,6 +138,17 @@ export function InviteForm() {
                 <input type="checkbox" className="size-4 accent-moss" checked={researchConsent} onChange={(e) => setResearchConsent(e.target.checked)} />
                 The patient has given written research consent (only then do their anonymised metrics reach research exports)
               </label>
+              {researchConsent ? (
+                <TextField
+                  className="md:col-span-4"
+                  label="What the consent rests on"
+                  hint="Recorded in the patient's consent history; the patient can withdraw it in their portal at any time."
+                  value={researchConsentReason}
+                  onChange={(e) => setResearchConsentReason(e.target.value)}
+                  error={errors["patient.researchConsentReason"]}
+                  maxLength={500}
+                />
+              ) : null}
             </div>
           )}
         </fieldset>
