@@ -24,4 +24,7 @@ self.onmessage = async (event: MessageEvent<File[]>) => {
   } catch (error) {
     post({ kind: "failed", message: error instanceof Error ? error.message : String(error) });
   }
+  // The worker ends itself once it has answered, so tearing down its large heap is this thread's
+  // work, not the page's.
+  self.close();
 };

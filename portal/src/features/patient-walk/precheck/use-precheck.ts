@@ -24,19 +24,18 @@ function inWorker({ files, onProgress, signal }: PrecheckRun): Promise<PrecheckS
       reject(new PrecheckCancelled());
     };
     signal.addEventListener("abort", stop, { once: true });
-    const finish = () => {
-      signal.removeEventListener("abort", stop);
-      worker.terminate();
-    };
+    const finish = () => signal.removeEventListener("abort", stop);
     worker.onmessage = (e: MessageEvent<PrecheckWorkerMessage>) => {
       const m = e.data;
       if (m.kind === "progress") return onProgress(m.progress);
+      // The worker closes itself after its answer (precheck.worker.ts).
       finish();
       if (m.kind === "done") resolve(m.summary);
       else reject(new Error(m.message));
     };
     worker.onerror = (e) => {
       finish();
+      worker.terminate();
       reject(new Error(e.message || "The check could not run in this browser."));
     };
     // File objects are handles: posting them copies no file content on this thread.
