@@ -58,12 +58,13 @@ async function trendPageFlags(patientId: string): Promise<Flag[]> {
 
 const storedRows = async () =>
   new Map(
-    ((await ctx.db("caseload_flags").select("patient_id", "flags", "rules_version", "latest_session_id", "source_fingerprint")) as Array<{
+    ((await ctx.db("caseload_flags").select("patient_id", "flags", "rules_version", "latest_session_id", "source_fingerprint", "computed_at")) as Array<{
       patient_id: string;
       flags: Flag[];
       rules_version: string;
       latest_session_id: string | null;
       source_fingerprint: string;
+      computed_at: Date;
     }>).map((r) => [r.patient_id, r]),
   );
 
@@ -118,9 +119,12 @@ describe("stored caseload flags", () => {
     expect(flags.get(patients["Steady Stroke"]!)).toEqual([]);
     expect(flags.get(patients["New Enrolment"]!)).toEqual([]);
     expect(stored.get(patients["New Enrolment"]!)!.latest_session_id).toBeNull();
-    // The read took the stored rows as they were (no recomputation).
+    // The reads took the stored rows as they were: nothing was recomputed or rewritten.
     const after = await storedRows();
-    for (const [id, r] of stored) expect(after.get(id)!.source_fingerprint).toBe(r.source_fingerprint);
+    for (const [id, r] of stored) {
+      expect(after.get(id)!.source_fingerprint).toBe(r.source_fingerprint);
+      expect(after.get(id)!.computed_at.getTime()).toBe(r.computed_at.getTime());
+    }
   });
 
   it("a row of another rules version, or of older data, is recomputed on read", async () => {
@@ -160,6 +164,6 @@ describe("stored caseload flags", () => {
     expect([...row.flags].sort(byKey)).toEqual(await trendPageFlags(id));
     // The caseload serves that row as stored.
     expect((await caseloadFlags()).get(id)).toEqual([...row.flags].sort(byKey));
-    expect((await storedRows()).get(id)!.source_fingerprint).toBe(row.source_fingerprint);
+    expect((await storedRows()).get(id)!.computed_at.getTime()).toBe(row.computed_at.getTime());
   });
 });
