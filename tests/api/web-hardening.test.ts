@@ -332,7 +332,12 @@ describe("research CSV export through the API", () => {
       const pid = await ctx.seedPatient({ birthYear: 1952, condition: "stroke", researchConsent: true, enrolledOn: "2026-01-05" });
       await insertDoneSession(ctx, pid, `2026-02-${String(2 + i).padStart(2, "0")}T09:00:00.000Z`, { cadenceStepsPerMin: 95 + i }, { algorithmVersion: formulas[i % formulas.length] });
     }
-    const res = await request(ctx.app).get("/api/research/cohort-metrics?format=csv&conditions=stroke").set("Authorization", `Bearer ${tok.researcher}`);
+    // An export runs under one of the researcher's own projects.
+    const project = await request(ctx.app).post("/api/research/projects").set("Authorization", `Bearer ${tok.researcher}`).send({ name: "Hardening study" });
+    expect(project.status).toBe(201);
+    const res = await request(ctx.app)
+      .get(`/api/research/cohort-metrics?format=csv&conditions=stroke&projectId=${project.body.id}`)
+      .set("Authorization", `Bearer ${tok.researcher}`);
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toMatch(/^text\/csv/);
     const lines = res.text.trim().split(/\r\n/);
