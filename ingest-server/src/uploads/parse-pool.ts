@@ -6,10 +6,10 @@ import { httpErrorFrom, type ParseJob, type ParseReply, type UploadSummary } fro
 
 /**
  * A small, bounded pool of parse threads, so decoding and validating up to 8 × 50 MiB of sensor text
- * never runs on the event loop that answers everyone else. Size min(2, cores): parsing is
- * CPU-bound, and on a 2-core machine two threads leave the main thread a share of the CPU while
- * keeping parse memory bounded (each thread holds at most one upload). Jobs beyond that wait in
- * order. A thread that crashes (or runs out of memory) fails only its own job and is replaced.
+ * never runs on the event loop that answers everyone else. Size min(2, cores − 1), at least 1:
+ * parsing is CPU-bound, so one core is left to the event loop (on a 2-core machine, one thread),
+ * and two at most keep parse memory bounded (each thread holds one upload at a time). Jobs beyond
+ * that wait in order. A thread that crashes (or runs out of memory) fails only its own job and is replaced.
  * Idle threads are stopped after IDLE_MS so a burst's parse heaps do not stay resident.
  *
  * No pool package: this is the whole need (one job type, FIFO, restart on crash), and it keeps the
@@ -51,7 +51,7 @@ export class ParsePool {
   private nextId = 1;
   private closed = false;
 
-  constructor(readonly size = Math.min(2, availableParallelism())) {}
+  constructor(readonly size = Math.max(1, Math.min(2, availableParallelism() - 1))) {}
 
   run(job: ParseJob): Promise<UploadSummary> {
     if (this.closed) return Promise.reject(new Error("parse pool closed"));
