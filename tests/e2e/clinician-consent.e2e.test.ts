@@ -16,7 +16,7 @@ describe("a clinician reads and records research consent", () => {
     await page.getByRole("link", { name: CONSENTED }).click();
     const panel = page.locator("section", { has: page.getByRole("heading", { name: "Research consent" }) });
     await panel.getByText(/In force since/).waitFor();
-    expect(await panel.getByText(/Consent given — recorded by .*\(an administrator\)/).count()).toBe(1);
+    expect(await panel.getByText(/Consent given — recorded by .*, administrator$/).count()).toBe(1);
     expect(await panel.getByText("signed paper consent form filed at the enrolment visit").count()).toBe(1);
     await panel.scrollIntoViewIfNeeded();
     await settle(page);

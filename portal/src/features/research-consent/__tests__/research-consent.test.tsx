@@ -70,7 +70,7 @@ describe("ConsentHistoryPanel", () => {
     renderAtRoute(<ConsentHistoryPanel patientId={PID} role="clinician" />);
     expect(await screen.findByText(/In force since/)).toBeTruthy();
     expect(screen.getByText("Consent given — recorded by the patient")).toBeTruthy();
-    expect(screen.getByText("Consent proposed, waiting for the patient — recorded by Tobin Ashgrove (a clinician)")).toBeTruthy();
+    expect(screen.getByText("Consent proposed, waiting for the patient — recorded by Tobin Ashgrove, clinician")).toBeTruthy();
     expect(screen.getByText("agreed at the clinic visit")).toBeTruthy();
   });
 
