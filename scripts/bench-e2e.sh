@@ -5,7 +5,8 @@
 # driver (tests/load/bench-e2e.ts) uploads 30-minute four-sensor sessions as patients and prints
 # upload→done p50/p95 one session at a time, then sessions per minute for BENCH_BURST sessions
 # uploaded at once with each worker count, with each worker's peak RSS and the load average.
-# Environment: BENCH_MINUTES (30), BENCH_SINGLE (5), BENCH_BURST (40), BENCH_WORKERS ("1 2 4").
+# Environment: BENCH_MINUTES (30), BENCH_SINGLE (5), BENCH_BURST (40), BENCH_WORKERS ("1 2 4");
+# BENCH_SINGLE=0 or BENCH_BURST=0 skips that part.
 set -euo pipefail
 . "$(dirname "$0")/lib/common.sh"
 . "$(dirname "$0")/lib/product.sh"
@@ -13,7 +14,7 @@ set -euo pipefail
 MINUTES="${BENCH_MINUTES:-30}"
 SINGLE="${BENCH_SINGLE:-5}"
 BURST="${BENCH_BURST:-40}"
-WORKER_COUNTS="${BENCH_WORKERS:-1 2 4}"
+WORKER_COUNTS="${BENCH_WORKERS-1 2 4}"
 
 ensure_node_modules
 ensure_postgres
@@ -80,6 +81,7 @@ fi
 
 # Weeks 1, 2, 3: the burst with each worker count (fresh workers, so each peak RSS is this pass's).
 week=1
+[ "$BURST" -gt 0 ] || WORKER_COUNTS=""
 for n in $WORKER_COUNTS; do
   start_workers "$n"
   BENCH_WORKER_PIDS="$(worker_pids)" driver burst --count "$BURST" --week "$week" --workers "$n"
