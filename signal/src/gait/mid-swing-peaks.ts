@@ -1,6 +1,6 @@
 import { quantileOfMasked } from "../orientation/quantile";
 
-/** Salarian et al. 2004 parameters as used by an open-source re-implementation (DOMAIN.md §1.1). */
+/** Salarian et al. 2004 parameters as used by an open-source re-implementation (docs/methods.md#shank-gyroscope-events). */
 export const SALARIAN_MS_THRESHOLD_DEG_S = 50;
 export const SALARIAN_MIN_PEAK_DISTANCE_S = 0.5;
 export const SALARIAN_IC_THRESHOLD_DEG_S = -10;
@@ -11,7 +11,7 @@ export const MS_LOW_PASS_HZ = 3;
 /**
  * Signal-relative threshold: the mid-swing threshold is the smaller of Salarian's 50 °/s and this
  * fraction of the 99th percentile of walking ω, so very slow gait (peaks of 60–100 °/s) keeps its
- * strides; the IC/FC thresholds scale by the same factor (common practice, DOMAIN.md §1.4).
+ * strides; the IC/FC thresholds scale by the same factor (common practice, docs/methods.md#slow-and-impaired-gait).
  */
 export const MS_RELATIVE_THRESHOLD = 0.3;
 export const MS_THRESHOLD_FLOOR_DEG_S = 5;
@@ -66,8 +66,8 @@ export function allMasked(mask: Uint8Array, a: number, b: number): boolean {
 
 /**
  * Over one stride the shank's sagittal rotation returns to where it started: the swing rotates it
- * forward and the stance takes that back as the tibia advances over the planted foot (DOMAIN.md,
- * shank physics). So between the mid-swings of consecutive strides there is a whole stance of
+ * forward and the stance takes that back as the tibia advances over the planted foot (see
+ * docs/methods.md#shank-kinematics-over-a-stride). So between the mid-swings of consecutive strides there is a whole stance of
  * backward rotation (∫ max(−ω, 0) dt), about as much as the forward rotation between them. Two
  * mid-swing candidates without that stance between them are one swing (a hesitant limb's second
  * forward push, or a rebound early in stance, which at very slow cadence lie more than the 0.5 s

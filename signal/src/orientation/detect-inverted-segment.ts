@@ -11,7 +11,7 @@ export interface InversionCheck {
 /**
  * Shank: sagittal ω during walking has one dominant positive excursion per stride, the mid-swing
  * peak (Aminian 2002; Salarian 2004). If the largest excursions are negative instead (99th
- * percentile vs the magnitude of the 1st; DOMAIN.md §2, common practice) the sensor is worn upside
+ * percentile vs the magnitude of the 1st; docs/methods.md#upside-down-sensors, common practice) the sensor is worn upside
  * down or back to front and the signal must be negated.
  */
 export function detectInvertedShank(omegaDegS: ArrayLike<number>, mask: Uint8Array): InversionCheck {

@@ -6,7 +6,7 @@ import { scipyReference } from "./scipy-reference";
 const rad = (d: number) => (d * Math.PI) / 180;
 
 describe("circularStats(anglesRad, mask?)", () => {
-  // Source: DOMAIN.md §5 / check values (computed with SciPy 1.17): R 0.9482926, mean 6.0532°,
+  // Source: SciPy 1.17 check values (docs/methods.md#worked-examples): R 0.9482926, mean 6.0532°,
   // circular SD 0.3258594 rad, circular variance 0.051707 — tolerance 1e-6.
   it("reproduces the [10, 20, 30, 340, 350]° example", () => {
     const s = circularStats([10, 20, 30, 340, 350].map(rad))!;

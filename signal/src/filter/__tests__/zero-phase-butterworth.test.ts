@@ -38,7 +38,7 @@ function gainAt(fHz: number, fs: number, kind: "lowpass" | "highpass", order: nu
 
 describe("butterworthSections(kind, order, cutoffHz, sampleRateHz)", () => {
   it.each(fixture.coefficients)(
-    "matches SciPy butter($order, $cutoffHz, fs=$sampleRateHz, $btype) to 1e-10 relative (DOMAIN.md §5)",
+    "matches SciPy butter($order, $cutoffHz, fs=$sampleRateHz, $btype) to 1e-10 relative (docs/methods.md#butterworth-and-zero-phase-filtering)",
     (c) => {
       const kind = c.btype === "high" ? "highpass" : "lowpass";
       const { b, a } = sectionsToTransferFunction(butterworthSections(kind, c.order, c.cutoffHz, c.sampleRateHz));
@@ -47,7 +47,7 @@ describe("butterworthSections(kind, order, cutoffHz, sampleRateHz)", () => {
     },
   );
 
-  it("has unit DC gain and 1/√2 at the cut-off (Butterworth definition; DOMAIN.md §5)", () => {
+  it("has unit DC gain and 1/√2 at the cut-off (Butterworth definition; docs/methods.md#butterworth-and-zero-phase-filtering)", () => {
     expect(gainAt(0, 100, "lowpass", 4, 5)).toBeCloseTo(1, 12);
     expect(gainAt(5, 100, "lowpass", 4, 5)).toBeCloseTo(Math.SQRT1_2, 9);
   });
@@ -78,7 +78,7 @@ describe("sosFiltFilt / lowPassZeroPhase", () => {
     expect(() => bandPassZeroPhase(x, 100, 0.8, 60)).toThrow(/Nyquist/);
   });
 
-  it("has gain 0.5 (−6.02 dB) at the cut-off: the single-pass 1/√2 squared (DOMAIN.md §5)", () => {
+  it("has gain 0.5 (−6.02 dB) at the cut-off: the single-pass 1/√2 squared (docs/methods.md#butterworth-and-zero-phase-filtering)", () => {
     const fs = 100;
     const n = 4000;
     const s = new Float64Array(n);
@@ -89,7 +89,7 @@ describe("sosFiltFilt / lowPassZeroPhase", () => {
     expect(peak).toBeCloseTo(0.5, 3);
   });
 
-  it("puts its −3 dB point at 4.4857 Hz for N 4, fc 5, fs 100 (DOMAIN.md §5, ±0.001 Hz)", () => {
+  it("puts its −3 dB point at 4.4857 Hz for N 4, fc 5, fs 100 (docs/methods.md#butterworth-and-zero-phase-filtering, ±0.001 Hz)", () => {
     // filtfilt magnitude = |H|², so solve |H(f)|² = 1/√2 by bisection.
     let lo = 3;
     let hi = 5;
@@ -101,7 +101,7 @@ describe("sosFiltFilt / lowPassZeroPhase", () => {
     expect(Math.abs(lo - 4.4857)).toBeLessThan(0.001);
   });
 
-  it("keeps the peak of a symmetric pulse at the same sample (zero phase; DOMAIN.md §5)", () => {
+  it("keeps the peak of a symmetric pulse at the same sample (zero phase; docs/methods.md#butterworth-and-zero-phase-filtering)", () => {
     const n = 401;
     const pulse = new Float64Array(n);
     for (let i = 0; i < n; i++) pulse[i] = Math.exp(-(((i - 200) / 6) ** 2));
@@ -111,7 +111,7 @@ describe("sosFiltFilt / lowPassZeroPhase", () => {
     expect(arg).toBe(200);
   });
 
-  it("passes a 1 Hz sine with gain 0.9999976 and no shift (DOMAIN.md §5)", () => {
+  it("passes a 1 Hz sine with gain 0.9999976 and no shift (docs/methods.md#butterworth-and-zero-phase-filtering)", () => {
     const fs = 100;
     const n = 3000;
     const s = new Float64Array(n);

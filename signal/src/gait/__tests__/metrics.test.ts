@@ -8,7 +8,7 @@ import { buildStrides } from "../strides";
 import { strideMetrics } from "../stride-metrics";
 
 describe("phaseCoordinationIndex(referenceStrides, otherIcs)", () => {
-  // DOMAIN.md worked example (computed with NumPy from the Plotnik, Giladi & Hausdorff 2007 formula).
+  // Worked example of docs/methods.md#worked-examples (computed with NumPy from the Plotnik, Giladi & Hausdorff 2007 formula).
   const tL = [0, 1.1, 2.2, 3.3, 4.4];
   const tS = [0.6, 1.65, 2.8, 3.8];
   const strides = tL.slice(0, -1).map((t, i) => ({ icS: t, nextIcS: tL[i + 1]! }));
@@ -34,14 +34,14 @@ describe("phaseCoordinationIndex(referenceStrides, otherIcs)", () => {
     expect(phaseCoordinationIndex(strides.slice(0, 1), [0.6])).toBeNull();
   });
 
-  it("does not fold φ into [0°, 180°] (folding biases PCI; DOMAIN.md §3)", () => {
+  it("does not fold φ into [0°, 180°] (folding biases PCI; docs/methods.md#phase-coordination-index)", () => {
     const r = phaseCoordinationIndex(strides, [0.9, 2.0, 3.1, 4.2])!;
     expect(r.phiDeg.every((p) => p > 180)).toBe(true);
   });
 });
 
 describe("gaitAsymmetryPct(swingL, swingR)", () => {
-  it("GA(0.38, 0.42) = 10.0083 (DOMAIN.md; formula from Plotnik 2007 / Yogev 2007, from memory)", () => {
+  it("GA(0.38, 0.42) = 10.0083 (Yogev 2007 formula, Exp Brain Res 177:336; docs/methods.md#gait-asymmetry)", () => {
     expect(Math.abs(gaitAsymmetryPct(0.38, 0.42)! - 10.0083)).toBeLessThan(1e-4);
     expect(gaitAsymmetryPct(0.42, 0.38)).toBeCloseTo(gaitAsymmetryPct(0.38, 0.42)!, 12);
   });
@@ -53,7 +53,7 @@ describe("gaitAsymmetryPct(swingL, swingR)", () => {
 });
 
 describe("coefficientOfVariationPct(values, ddof)", () => {
-  it("CV [1.10, 1.12, 1.08, 1.11, 1.09, 1.10] s = 1.2856 % with ddof 1 (DOMAIN.md check value)", () => {
+  it("CV [1.10, 1.12, 1.08, 1.11, 1.09, 1.10] s = 1.2856 % with ddof 1 (docs/methods.md#worked-examples)", () => {
     expect(Math.abs(coefficientOfVariationPct([1.1, 1.12, 1.08, 1.11, 1.09, 1.1], 1)! - 1.2856)).toBeLessThan(1e-4);
   });
   it("is null for fewer than two values and for a zero mean", () => {
@@ -64,7 +64,7 @@ describe("coefficientOfVariationPct(values, ddof)", () => {
   });
 });
 
-describe("buildStrides + strideMetrics — temporal worked example (DOMAIN.md)", () => {
+describe("buildStrides + strideMetrics — temporal worked example (docs/methods.md#worked-examples)", () => {
   // IC_L 0 / 1.10 s, FC_L 0.66 s, IC_R 0.55 s, FC_R 0.11 s → stance 60 %, DS 20 %, 109.0909 steps/min.
   // Repeated for several strides so the bout-edge rule leaves steady strides in the middle.
   const k = 8;
@@ -145,13 +145,13 @@ describe("detrendedFluctuation(series) — Hausdorff 1995 method", () => {
     return out;
   }
 
-  it("α of white noise (N 512) is 0.5 ± 0.1 on average over 20 seeds (DOMAIN.md Monte Carlo: 0.532 ± 0.037)", () => {
+  it("α of white noise (N 512) is 0.5 ± 0.1 on average over 20 seeds (docs/methods.md#dfa-monte-carlo: 0.532 ± 0.037)", () => {
     const alphas = Array.from({ length: 20 }, (_, k) => detrendedFluctuation(gaussian(k + 1, 512))!.alpha);
     const m = alphas.reduce((a, b) => a + b, 0) / alphas.length;
     expect(Math.abs(m - 0.5)).toBeLessThan(0.1);
   });
 
-  it("α of a random walk (N 512) is 1.5 ± 0.15 on average over 20 seeds (DOMAIN.md: 1.490 ± 0.062)", () => {
+  it("α of a random walk (N 512) is 1.5 ± 0.15 on average over 20 seeds (docs/methods.md#dfa-monte-carlo: 1.490 ± 0.062)", () => {
     const alphas = Array.from({ length: 20 }, (_, k) => {
       const g = gaussian(100 + k, 512);
       for (let i = 1; i < g.length; i++) g[i] = g[i]! + g[i - 1]!;

@@ -81,7 +81,7 @@ function median(xs: number[]): number | null {
   return s.length % 2 ? s[h]! : (s[h - 1]! + s[h]!) / 2;
 }
 
-/** Median stance % over strides IC → next IC holding exactly one FC (DOMAIN.md §3: 100·(FC − IC)/stride). */
+/** Median stance % over strides IC → next IC holding exactly one FC (docs/methods.md#stance-swing-and-double-support: 100·(FC − IC)/stride). */
 function stancePct(ic: number[], fc: number[]): number | null {
   const values: number[] = [];
   for (let k = 0; k + 1 < ic.length; k++) {
@@ -91,7 +91,7 @@ function stancePct(ic: number[], fc: number[]): number | null {
   return median(values);
 }
 
-/** Steps/min from the ICs of one side over its own span: 2 steps per stride (DOMAIN.md §3). */
+/** Steps/min from the ICs of one side over its own span: 2 steps per stride (docs/methods.md#stride-step-and-cadence). */
 function cadenceOfSide(ic: number[]): number | null {
   if (ic.length < 3) return null;
   return (120 * (ic.length - 1)) / (ic[ic.length - 1]! - ic[0]!);

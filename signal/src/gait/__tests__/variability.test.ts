@@ -8,7 +8,7 @@ import { stepTimeAsymmetryPct } from "../step-asymmetry";
 import { gaussianStream } from "./support/pace-model";
 
 describe("pooledWithinBoutCvPct(bouts)", () => {
-  it("one bout = the ordinary CV with ddof 1: [1.10, 1.12, 1.08, 1.11, 1.09, 1.10] s → 1.2856 % (DOMAIN.md check value)", () => {
+  it("one bout = the ordinary CV with ddof 1: [1.10, 1.12, 1.08, 1.11, 1.09, 1.10] s → 1.2856 % (docs/methods.md#worked-examples)", () => {
     const r = pooledWithinBoutCvPct([[1.1, 1.12, 1.08, 1.11, 1.09, 1.1]]);
     expect(Math.abs(r.cvPct! - 1.2856)).toBeLessThan(1e-4);
     expect(r.count).toBe(6);

@@ -4,7 +4,7 @@ import { bidsSidecarNames, readBidsMotion } from "../read-bids-motion";
 import { placementFromLabel } from "../placement-names";
 import { sniffFormat } from "../sniff";
 
-// Layout per the BIDS specification, motion data (DOMAIN.md §6): headerless *_motion.tsv whose
+// Layout per the BIDS specification, motion data (docs/methods.md#bids-motion): headerless *_motion.tsv whose
 // columns follow the rows of *_channels.tsv (required name, component, type, tracked_point, units).
 const CHANNELS = [
   "name\tcomponent\ttype\ttracked_point\tunits",
