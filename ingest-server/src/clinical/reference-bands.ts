@@ -11,7 +11,7 @@
  *   study) needs the patient's age inside that cohort's ages and, where the cohort was matched to
  *   one condition, that condition. A patient outside every population gets no band and a note
  *   that there is no published band for them — never another cohort's band.
- * - Mean ± SD sources become mean ± 1 SD bands (DOMAIN.md §7 "Reporting").
+ * - Mean ± SD sources become mean ± 1 SD bands (docs/methods.md#reference-bands).
  *
  * Where a source names an age group ("older", "young") without limits in the text we read, the
  * limits used here are marked `ageLimitsBasis: "common practice"` and say so in the population text.

@@ -15,7 +15,7 @@
 import type { BaseMetric } from "./metric-catalog";
 import { resolveMetricKey } from "./metric-catalog";
 
-/** 1.96·√2 = 2.7718585822512662 (DOMAIN.md §7: 2.772; §"check values": 2.7719). */
+/** 1.96·√2 = 2.7718585822512662 (Weir 2005; docs/methods.md#measurement-error-and-important-change). */
 export const MDC95_FACTOR = 1.96 * Math.SQRT2;
 
 export function standardErrorOfMeasurement(sd: number, icc: number): number {
@@ -29,7 +29,7 @@ export function minimalDetectableChange95(sem: number): number {
   return MDC95_FACTOR * sem;
 }
 
-/** ICC bands of Koo & Li 2016 (J Chiropr Med 15:155): < 0.5 poor, 0.5–0.75 moderate, 0.75–0.9 good, > 0.9 excellent (DOMAIN.md, re-checked values). */
+/** ICC bands of Koo & Li 2016 (J Chiropr Med 15:155): < 0.5 poor, 0.5–0.75 moderate, 0.75–0.9 good, > 0.9 excellent (docs/methods.md#measurement-error-and-important-change). */
 export function iccBand(icc: number): "poor" | "moderate" | "good" | "excellent" {
   if (!Number.isFinite(icc) || icc < -1 || icc > 1) throw new RangeError("iccBand: icc must be in [-1, 1]");
   if (icc < 0.5) return "poor";

@@ -36,7 +36,7 @@ describe("circularSummary against scipy.stats.circmean / circstd (fixture script
     expect(circularDeviationSd(f.angles)).toBeCloseTo(f.deviation_sd_ddof1, 9);
   });
 
-  it("matches the DOMAIN.md check value [10, 20, 30, 340, 350]°: R 0.9482926, mean 6.0532°, SD 0.3258594 rad", () => {
+  it("matches the SciPy check value (docs/methods.md#circular-statistics) [10, 20, 30, 340, 350]°: R 0.9482926, mean 6.0532°, SD 0.3258594 rad", () => {
     const s = circularSummary([10, 20, 30, 340, 350]);
     expect(s.resultantLength).toBeCloseTo(0.9482926, 6);
     expect(s.meanDeg).toBeCloseTo(6.0532, 4);

@@ -12,13 +12,13 @@ import {
 import { mean, olsFit, sampleSd } from "../statistics";
 
 describe("standardErrorOfMeasurement and minimalDetectableChange95", () => {
-  it("reproduces the worked example SD 0.20, ICC 0.90 → SEM 0.06325, MDC95 0.1753 (DOMAIN.md check values; Weir 2005 formula)", () => {
+  it("reproduces the worked example SD 0.20, ICC 0.90 → SEM 0.06325, MDC95 0.1753 (Weir 2005 formula; docs/methods.md#measurement-error-and-important-change)", () => {
     const sem = standardErrorOfMeasurement(0.2, 0.9);
     expect(sem).toBeCloseTo(0.06325, 4);
     expect(minimalDetectableChange95(sem)).toBeCloseTo(0.1753, 4);
   });
 
-  it("uses the factor 1.96·√2 = 2.7719 (DOMAIN.md §7 gives 2.772)", () => {
+  it("uses the factor 1.96·√2 = 2.7719 (Weir 2005; docs/methods.md#measurement-error-and-important-change)", () => {
     expect(MDC95_FACTOR).toBeCloseTo(2.7719, 4);
     expect(MDC95_FACTOR).toBeCloseTo(fixtures.mdc95_factor, 12);
   });
@@ -36,7 +36,7 @@ describe("standardErrorOfMeasurement and minimalDetectableChange95", () => {
   });
 });
 
-describe("iccBand (Koo & Li 2016 cut-offs, DOMAIN.md re-checked values)", () => {
+describe("iccBand (Koo & Li 2016 cut-offs, docs/methods.md#measurement-error-and-important-change)", () => {
   it("places values on both sides of each cut-off", () => {
     expect(iccBand(0.49)).toBe("poor");
     expect(iccBand(0.5)).toBe("moderate");
@@ -53,7 +53,7 @@ describe("sample statistics against NumPy/SciPy fixtures", () => {
     expect(sampleSd(f.values)).toBeCloseTo(f.sd, 12);
   });
 
-  it("stride CV of [1.10, 1.12, 1.08, 1.11, 1.09, 1.10] s is 1.2856 % (DOMAIN.md check value, ddof 1)", () => {
+  it("stride CV of [1.10, 1.12, 1.08, 1.11, 1.09, 1.10] s is 1.2856 % (docs/methods.md#worked-examples, ddof 1)", () => {
     const v = fixtures.sd.stride.values;
     expect((100 * sampleSd(v)) / mean(v)).toBeCloseTo(1.2856, 4);
   });
