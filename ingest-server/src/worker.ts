@@ -3,8 +3,8 @@ import { loadConfigOrExit } from "./config/env";
 import { startModeRefusal } from "./config/start-mode";
 import { handleProcessSessionJob, requeueStaleSessions } from "./processing/session-job";
 import { QUEUES } from "./queue/queue";
-import { refreshStaleCaseloadFlags } from "./routes/patients/caseload-flags.repository";
-import type { ProcessSessionJob } from "./routes/sessions/upload.service";
+import { refreshStaleCaseloadFlags } from "./trends/caseload-flags.repository";
+import type { ProcessSessionJob } from "./sessions/process-session-job";
 import { createRuntime } from "./runtime";
 
 /**

@@ -4,7 +4,7 @@ import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { handleProcessSessionJob } from "../../ingest-server/src/processing/session-job";
 import { QUEUES } from "../../ingest-server/src/queue/queue";
-import type { ProcessSessionJob } from "../../ingest-server/src/routes/sessions/upload.service";
+import type { ProcessSessionJob } from "../../ingest-server/src/sessions/process-session-job";
 import { createTestContext, type SeededUser, type TestContext } from "../../ingest-server/src/testing/harness";
 import { attachFiles, seedDevices, storedCounts } from "../../ingest-server/src/testing/session-fixtures";
 import { synthesizeSession } from "../../signal/src/synth";

@@ -6,7 +6,7 @@ import { loadavg } from "node:os";
 import { createApp } from "../../ingest-server/src/app";
 import { createTestContext } from "../../ingest-server/src/testing/harness";
 import { metricRows } from "../../ingest-server/src/metrics/metric-catalog";
-import { refreshStaleCaseloadFlags } from "../../ingest-server/src/routes/patients/caseload-flags.repository";
+import { refreshStaleCaseloadFlags } from "../../ingest-server/src/trends/caseload-flags.repository";
 
 /**
  * Load test of the two routes clinicians hit most: a patient's trends and one session.

@@ -13,7 +13,7 @@ import type { WalkingAid } from "../contracts/enums";
 import type { Knex } from "knex";
 import type { AppDeps } from "../deps";
 import { metricRows } from "../metrics/metric-catalog";
-import { findSession, listRawFiles, type RawFileRow } from "../routes/sessions/sessions.repository";
+import { findSession, listRawFiles, type RawFileRow } from "../sessions/sessions.repository";
 import { sagittalTraces, type SessionTrace } from "./session-traces";
 
 export type ProcessDeps = Pick<AppDeps, "db" | "storage">;

@@ -1,9 +1,9 @@
 import { SignalInputError } from "@pendula/signal";
 import type { AppDeps } from "../deps";
 import { QUEUES, type QueueJob } from "../queue/queue";
-import type { ProcessSessionJob } from "../routes/sessions/upload.service";
+import type { ProcessSessionJob } from "../sessions/process-session-job";
 import { enqueueChangeAlerts } from "../clinical/notifications";
-import { refreshCaseloadFlags } from "../routes/patients/caseload-flags.repository";
+import { refreshCaseloadFlags } from "../trends/caseload-flags.repository";
 import { markFailed, markRetrying, processSession } from "./process-session";
 
 /** Short, clinician-readable reason; the full error goes to the worker log. */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { SignalInputError, bidsMotionText, readSensorCsv, synthesizeSession } from "@pendula/signal";
-import type { RawFileRow } from "../../routes/sessions/sessions.repository";
+import type { RawFileRow } from "../../sessions/sessions.repository";
 import { loadRecordings } from "../process-session";
 
 const session = synthesizeSession({ seed: 41, durationS: 30, placements: ["left_shank", "right_shank", "left_wrist"] });

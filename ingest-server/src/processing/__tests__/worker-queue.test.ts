@@ -4,7 +4,7 @@ import { QUEUES } from "../../queue/queue";
 import { createTestContext, type TestContext } from "../../testing/harness";
 import { seedDevices, synthFor, upload } from "../../testing/session-fixtures";
 import { handleProcessSessionJob, requeueStaleSessions } from "../session-job";
-import type { ProcessSessionJob } from "../../routes/sessions/upload.service";
+import type { ProcessSessionJob } from "../../sessions/process-session-job";
 
 let ctx: TestContext;
 

@@ -17,11 +17,11 @@ import {
   sessionDates,
   sessionMetricValues,
   sessionStats,
-  trendRows,
   updatePatientFields,
   type PatientRow,
 } from "./patients.repository";
-import { readCaseloadFlags } from "./caseload-flags.repository";
+import { readCaseloadFlags } from "../../trends/caseload-flags.repository";
+import { trendRows } from "../../trends/trend-rows.repository";
 import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
 
 const SUMMARY_KEYS = ["cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct", "walkingSpeedMPerS", "strideLengthM"];

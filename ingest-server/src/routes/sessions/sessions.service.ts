@@ -7,7 +7,7 @@ import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
 import { metricDefinition } from "../../metrics/metric-catalog";
 import { minMaxDecimate } from "../../processing/min-max-decimate";
-import { enqueueProcessing } from "./upload.service";
+import { enqueueProcessing } from "../../sessions/process-session-job";
 import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
 import {
   findSession,
@@ -18,7 +18,7 @@ import {
   sessionAnalysis,
   setWalkingAid,
   type SessionHead,
-} from "./sessions.repository";
+} from "../../sessions/sessions.repository";
 
 const notFound = () => new HttpError(404, "not_found", "session not found");
 

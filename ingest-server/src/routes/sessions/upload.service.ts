@@ -5,7 +5,6 @@ import { assertPatientAccess } from "../../auth/patient-access";
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
-import { QUEUES } from "../../queue/queue";
 import { uploadParsePool } from "../../uploads/parse-pool";
 import type { UploadSummary } from "../../uploads/parse-job";
 import { invalidFile } from "./parse-upload";
@@ -16,7 +15,8 @@ import {
   insertSessionWithFiles,
   isDuplicateContentError,
   type NewRawFile,
-} from "./sessions.repository";
+} from "../../sessions/sessions.repository";
+import { enqueueProcessing } from "../../sessions/process-session-job";
 
 export interface UploadResult {
   id: string;
@@ -36,16 +36,6 @@ export interface UploadInput {
   /** Required when a clinician uploads; ignored (must match) for a patient. */
   patientId?: string;
   bidsStartUtc?: string;
-}
-
-/** Job payload of QUEUES.processSession. */
-export interface ProcessSessionJob {
-  sessionId: string;
-}
-
-export async function enqueueProcessing(deps: Pick<AppDeps, "queue">, sessionId: string): Promise<void> {
-  // singletonKey: at most one waiting job per session, so a double click on reprocess queues once.
-  await deps.queue.send(QUEUES.processSession, { sessionId } satisfies ProcessSessionJob, { singletonKey: sessionId });
 }
 
 function resolvePatient(auth: AuthContext, patientId: string | undefined): string {

@@ -5,7 +5,7 @@ import { handleProcessSessionJob } from "../../../processing/session-job";
 import { QUEUES } from "../../../queue/queue";
 import { createTestContext, type SeededUser, type TestContext } from "../../../testing/harness";
 import { insertDoneSession, seedDevices, synthFor, upload } from "../../../testing/session-fixtures";
-import { refreshStaleCaseloadFlags } from "../caseload-flags.repository";
+import { refreshStaleCaseloadFlags } from "../../../trends/caseload-flags.repository";
 
 /**
  * Stored caseload flags against the trend page's own answer, computed on the fly from the same

@@ -5,9 +5,9 @@ import {
   latestSessionFlags,
   type CaseloadFlagInput,
   type FlagSeries,
-} from "../../clinical/caseload-flags";
-import { METRIC_KEYS } from "../../metrics/metric-catalog";
-import { trendFingerprints, trendRowsByPatient, type TrendRow } from "./patients.repository";
+} from "../clinical/caseload-flags";
+import { METRIC_KEYS } from "../metrics/metric-catalog";
+import { trendFingerprints, trendRowsByPatient, type TrendRow } from "./trend-rows.repository";
 
 /**
  * Stored caseload flags (table `caseload_flags`): the flags of each patient's latest processed

@@ -1,6 +1,6 @@
 import type { Knex } from "knex";
-import { auditEachRowOf, type AuditRowValues } from "../../audit/audit";
-import type { WalkingAid } from "../../contracts/enums";
+import { auditEachRowOf, type AuditRowValues } from "../audit/audit";
+import type { WalkingAid } from "../contracts/enums";
 
 export interface SessionRow {
   id: string;
