@@ -67,14 +67,15 @@ export function allMasked(mask: Uint8Array, a: number, b: number): boolean {
 /**
  * Over one stride the shank's sagittal rotation returns to where it started: the swing rotates it
  * forward and the stance takes that back as the tibia advances over the planted foot (see
- * docs/methods.md#shank-kinematics-over-a-stride). So between the mid-swings of consecutive strides there is a whole stance of
- * backward rotation (∫ max(−ω, 0) dt), about as much as the forward rotation between them. Two
- * mid-swing candidates without that stance between them are one swing (a hesitant limb's second
- * forward push, or a rebound early in stance, which at very slow cadence lie more than the 0.5 s
- * peak distance from the swing peak): only the taller is kept. Two tests, each with this fraction
- * (half: common practice, stride gaps sit near 1, one-swing gaps near 0): backward rotation below
- * the fraction of the forward rotation between the two candidates, or below the fraction of the
- * median backward rotation of the gaps the first test left (the typical stance).
+ * docs/methods.md#shank-kinematics-over-a-stride). So between the mid-swings of consecutive
+ * strides there is a whole stance of backward rotation (∫ max(−ω, 0) dt), about as much as the
+ * forward rotation between them. Two mid-swing candidates without that stance between them are one
+ * swing (a hesitant limb's second forward push, or a rebound early in stance, which at very slow
+ * cadence lie more than the 0.5 s peak distance from the swing peak): only the taller is kept. Two
+ * tests, each with this fraction (half: common practice, stride gaps sit near 1, one-swing gaps near
+ * 0): backward rotation below the fraction of the forward rotation between the two candidates, or
+ * below the fraction of the median backward rotation of the gaps the first test left (the typical
+ * stance).
  */
 export const SAME_SWING_BACKWARD_ROTATION_FRACTION = 0.5;
 
