@@ -45,9 +45,10 @@ export function olsFit(x: readonly number[], y: readonly number[]): LinearFit {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Circular statistics for phase angles (degrees). Definitions as in docs/methods.md#circular-statistics (mean direction
-// θ̄ = atan2(Σ sin θ, Σ cos θ), mean resultant length R = |mean(e^{iθ})|, circular SD √(−2 ln R));
-// the tests check them against scipy.stats.circmean / circstd.
+// Circular statistics for phase angles (degrees). Definitions as in
+// docs/methods.md#circular-statistics (mean direction θ̄ = atan2(Σ sin θ, Σ cos θ), mean resultant
+// length R = |mean(e^{iθ})|, circular SD √(−2 ln R)); the tests check them against
+// scipy.stats.circmean / circstd.
 
 const RAD = Math.PI / 180;
 

@@ -8,8 +8,8 @@ import type { Analysis, Side } from "../types";
 // cases are not circular with the detector. Targets: F1 ≥ 0.95 within ±100 ms (event tolerance of
 // common practice; Trojaniello et al. 2014 report no missed or extra shank events in impaired gait),
 // cadence within 2 % of the model's (project target; the model's cadence = 120 / mean stride time of
-// strides away from bout edges and pauses, docs/methods.md#stride-step-and-cadence). Signed bias and median |error| are printed
-// per case with the numbers of events behind them.
+// strides away from bout edges and pauses, docs/methods.md#stride-step-and-cadence). Signed bias
+// and median |error| are printed per case with the numbers of events behind them.
 
 const TOLERANCE_S = 0.1;
 const F1_MIN = 0.95;

@@ -12,10 +12,11 @@ export interface CircularSummary {
 }
 
 /**
- * Circular statistics of angles in radians (Mardia & Jupp 2000, §2.3; formulas in docs/methods.md#circular-statistics).
- * With a mask only samples where mask[i] = 1 count. NaN angles are skipped. Returns null when no
- * angle counts. Sums are accumulated as plain sums of sin/cos; each term is bounded by 1, so
- * cancellation error stays below 1e-12 for the lengths Pendula uses.
+ * Circular statistics of angles in radians (Mardia & Jupp 2000, §2.3; formulas in
+ * docs/methods.md#circular-statistics). With a mask only samples where mask[i] = 1 count. NaN
+ * angles are skipped. Returns null when no angle counts. Sums are accumulated as plain sums of
+ * sin/cos; each term is bounded by 1, so cancellation error stays below 1e-12 for the lengths
+ * Pendula uses.
  */
 export function circularStats(anglesRad: ArrayLike<number>, mask?: ArrayLike<number>): CircularSummary | null {
   if (mask && mask.length !== anglesRad.length) {

@@ -16,7 +16,8 @@ const cascades = new fili.CalcCascades();
 
 /**
  * Butterworth second-order sections designed by fili (bilinear transform with pre-warping, the
- * same design as SciPy's `butter`, see docs/methods.md#butterworth-and-zero-phase-filtering). `order` is the filter order (even, 2–12).
+ * same design as SciPy's `butter`, see docs/methods.md#butterworth-and-zero-phase-filtering).
+ * `order` is the filter order (even, 2–12).
  */
 export function butterworthSections(
   kind: ButterworthKind,

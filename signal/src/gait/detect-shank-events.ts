@@ -19,8 +19,9 @@ import { type ShankAcceleration, refineContactsToImpact, shankImpactMagnitude } 
 export const SHANK_EVENT_LOW_PASS_HZ = 15;
 /**
  * The stance lobe that holds the final contact is located on ω low-passed at this cut-off (Hz), the
- * 5 Hz of Greene et al. 2010's adaptive shank method as re-implemented (docs/methods.md#shank-gyroscope-events): ripples
- * shorter than ~100 ms cannot form a lobe of their own there.
+ * 5 Hz of Greene et al. 2010's adaptive shank method as re-implemented
+ * (docs/methods.md#shank-gyroscope-events): ripples shorter than ~100 ms cannot form a lobe of
+ * their own there.
  */
 export const SHANK_LOBE_LOW_PASS_HZ = 5;
 /**

@@ -11,7 +11,8 @@ export const MS_LOW_PASS_HZ = 3;
 /**
  * Signal-relative threshold: the mid-swing threshold is the smaller of Salarian's 50 °/s and this
  * fraction of the 99th percentile of walking ω, so very slow gait (peaks of 60–100 °/s) keeps its
- * strides; the IC/FC thresholds scale by the same factor (common practice, docs/methods.md#slow-and-impaired-gait).
+ * strides; the IC/FC thresholds scale by the same factor (common practice,
+ * docs/methods.md#slow-and-impaired-gait).
  */
 export const MS_RELATIVE_THRESHOLD = 0.3;
 export const MS_THRESHOLD_FLOOR_DEG_S = 5;

@@ -11,11 +11,12 @@ export interface PhaseCoordination {
 
 /**
  * Phase Coordination Index (Plotnik, Giladi & Hausdorff 2007, Exp Brain Res 181:561), as in
- * docs/methods.md#phase-coordination-index: reference leg L = the leg with the longer mean swing time (the caller chooses it);
- * for each reference stride [t_L,i, t_L,i+1) with exactly one IC t_S,i of the other leg inside it,
- * φ_i = 360°·(t_S,i − t_L,i)/(t_L,i+1 − t_L,i); φ_ABS = mean|φ − 180°|; P_φABS = 100·φ_ABS/180;
- * φ_CV = 100·SD(φ)/mean(φ) with SD ddof 1; PCI = φ_CV + P_φABS. φ is not folded into [0°, 180°]
- * (folding biases PCI). Null with fewer than 2 phases.
+ * docs/methods.md#phase-coordination-index: reference leg L = the leg with the longer mean swing
+ * time (the caller chooses it); for each reference stride [t_L,i, t_L,i+1) with exactly one IC
+ * t_S,i of the other leg inside it, φ_i = 360°·(t_S,i − t_L,i)/(t_L,i+1 − t_L,i);
+ * φ_ABS = mean|φ − 180°|; P_φABS = 100·φ_ABS/180; φ_CV = 100·SD(φ)/mean(φ) with SD ddof 1;
+ * PCI = φ_CV + P_φABS. φ is not folded into [0°, 180°] (folding biases PCI). Null with fewer than 2
+ * phases.
  */
 export function phaseCoordinationIndex(
   referenceStrides: ReadonlyArray<{ icS: number; nextIcS: number }>,

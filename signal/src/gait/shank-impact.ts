@@ -12,7 +12,8 @@ export interface ShankAcceleration {
 
 /**
  * How far after the gyroscope IC the impact may lie (s): the +50 ms of Rampp et al. 2015's IC
- * refinement with the accelerometer (IEEE TBME 62:1089; window −80/+50 ms, docs/methods.md#foot-sensor-events).
+ * refinement with the accelerometer (IEEE TBME 62:1089; window −80/+50 ms,
+ * docs/methods.md#foot-sensor-events).
  */
 export const IMPACT_SEARCH_AFTER_S = 0.05;
 /**

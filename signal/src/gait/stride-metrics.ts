@@ -37,10 +37,10 @@ function byBout(strides: readonly Stride[], pick: (s: Stride) => number | null |
 }
 
 /**
- * Temporal metrics over steady-state strides (definitions in docs/methods.md#stride-step-and-cadence, Mobilise-D protocol):
- * cadence = 60 / mean step time (steps of both sides pooled; 120 / mean stride time when only one
- * leg's events are usable, and then `counts.cadenceStepsPerMin` counts strides); stride time mean
- * (both legs pooled);
+ * Temporal metrics over steady-state strides (definitions in
+ * docs/methods.md#stride-step-and-cadence, Mobilise-D protocol): cadence = 60 / mean step time
+ * (steps of both sides pooled; 120 / mean stride time when only one leg's events are usable, and
+ * then `counts.cadenceStepsPerMin` counts strides); stride time mean (both legs pooled);
  * stride-time CV and swing-time CV (per side) as the pooled within-bout SD over the grand mean
  * (pooled-variability.ts; SD with n − 1 within each bout), so a change of pace between bouts does
  * not count as variability; step time, stance % and swing % per side (means over strides);
@@ -72,7 +72,8 @@ export function strideMetrics(strides: readonly Stride[]): StrideMetrics {
   const ga = gaitAsymmetryPct(swingTimeMeanS.left, swingTimeMeanS.right);
   const sta = stepTimeAsymmetryPct(stepTimeMeanS.left, stepTimeMeanS.right);
   // With one leg's events only (the other sensor unreliable or missing) there are no steps; cadence
-  // then comes from the stride time, 120 / mean stride (docs/methods.md#stride-step-and-cadence), and its count is strides.
+  // then comes from the stride time, 120 / mean stride (docs/methods.md#stride-step-and-cadence),
+  // and its count is strides.
   const strideMean = mean(strideTimes);
   const cadence = stepMean !== null ? 60 / stepMean : strideMean !== null ? 120 / strideMean : null;
   return {

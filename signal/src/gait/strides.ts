@@ -4,10 +4,10 @@ import { labelSteadyState, pooledRobustSdS, steadyBand } from "./steady-state";
 
 /**
  * Wide physiological limits on the time between same-side ICs (s). 0.25 s is the lower gate of a
- * public MATLAB implementation (docs/methods.md#steady-state-and-stride-selection). The upper limit is common practice: 6 s is 20
- * steps/min, slower than the 35–40 steps/min of the slowest household walkers, so any real stride
- * stays in and only pauses (standing between two bouts' steps) fall out. Inside these limits the
- * session's own distribution decides (steady-state.ts).
+ * public MATLAB implementation (docs/methods.md#steady-state-and-stride-selection). The upper limit
+ * is common practice: 6 s is 20 steps/min, slower than the 35–40 steps/min of the slowest household
+ * walkers, so any real stride stays in and only pauses (standing between two bouts' steps) fall
+ * out. Inside these limits the session's own distribution decides (steady-state.ts).
  */
 export const MIN_STRIDE_TIME_S = 0.25;
 export const MAX_STRIDE_TIME_S = 6;

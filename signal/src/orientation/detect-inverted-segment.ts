@@ -11,8 +11,8 @@ export interface InversionCheck {
 /**
  * Shank: sagittal ω during walking has one dominant positive excursion per stride, the mid-swing
  * peak (Aminian 2002; Salarian 2004). If the largest excursions are negative instead (99th
- * percentile vs the magnitude of the 1st; docs/methods.md#upside-down-sensors, common practice) the sensor is worn upside
- * down or back to front and the signal must be negated.
+ * percentile vs the magnitude of the 1st; docs/methods.md#upside-down-sensors, common practice) the
+ * sensor is worn upside down or back to front and the signal must be negated.
  */
 export function detectInvertedShank(omegaDegS: ArrayLike<number>, mask: Uint8Array): InversionCheck {
   const tails = quantilesOfMasked(omegaDegS, mask, [0.99, 0.01]);

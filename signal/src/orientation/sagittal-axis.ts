@@ -16,9 +16,9 @@ export const MIN_AXIS_SAMPLES = 256;
 /**
  * Sagittal rotation axis of a segment: the first principal component of the centred 3-axis gyro
  * over the samples where `mask` is 1 (walking). During walking the shank, foot and arm rotate mostly
- * about the mediolateral axis, so PC1 is that axis (docs/methods.md#sagittal-axis). PCA fixes the axis, not its
- * sign; the sign is taken from the nominal frame (+z to the subject's right). Returns null when too
- * few samples are available.
+ * about the mediolateral axis, so PC1 is that axis (docs/methods.md#sagittal-axis). PCA fixes the
+ * axis, not its sign; the sign is taken from the nominal frame (+z to the subject's right). Returns
+ * null when too few samples are available.
  */
 export function sagittalAxis(
   gyroX: ArrayLike<number>,

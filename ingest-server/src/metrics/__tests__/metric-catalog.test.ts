@@ -28,7 +28,8 @@ const metrics: Metrics = {
 };
 
 describe("metricRows(metrics)", () => {
-  // Values from docs/methods.md#worked-examples (stride 1.10 s / stance 0.66 s / step 0.55 s example; CV and GA examples).
+  // Values from docs/methods.md#worked-examples (stride 1.10 s / stance 0.66 s / step 0.55 s
+  // example; CV and GA examples).
   it("flattens per-side and arm–leg values with UCUM units and drops null / non-finite values", () => {
     const rows = Object.fromEntries(metricRows(metrics).map((r) => [r.key, r]));
     expect(rows.cadenceStepsPerMin).toEqual({ key: "cadenceStepsPerMin", value: 109.0909, unit: "/min", n: null });

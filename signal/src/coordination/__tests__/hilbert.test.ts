@@ -50,7 +50,8 @@ describe("hilbert(x)", () => {
     });
   }
 
-  // Source: docs/methods.md#hilbert-transform (computed, SciPy 1.17) — hilbert(cos(2πkn/N)) = e^{i2πkn/N} for whole cycles, max error < 1e-12.
+  // Source: docs/methods.md#hilbert-transform (computed, SciPy 1.17) — hilbert(cos(2πkn/N)) =
+  // e^{i2πkn/N} for whole cycles, max error < 1e-12.
   for (const n of [1000, 1024, 997]) {
     it(`turns a whole-cycle cosine into the complex exponential for N = ${n} (error < 1e-12)`, () => {
       const k = 7;
@@ -80,7 +81,8 @@ describe("hilbert(x)", () => {
     expect(err).toBeLessThan(5e-12);
   });
 
-  // Source: docs/methods.md#hilbert-transform — two cosines 90° apart give a continuous relative phase of 90.000°.
+  // Source: docs/methods.md#hilbert-transform — two cosines 90° apart give a continuous relative
+  // phase of 90.000°.
   it("gives a relative phase of 90° for two cosines a quarter cycle apart", () => {
     const n = 1200;
     const k = 12;

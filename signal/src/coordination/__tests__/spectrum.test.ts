@@ -32,7 +32,8 @@ describe("welchPsd(x, sampleRateHz, options)", () => {
 });
 
 describe("dominantFrequency(x, sampleRateHz, options)", () => {
-  // Source: scipy.signal.welch argmax (0.879 → bin 0.8789 Hz, 1.758 → bin 1.7578 Hz), docs/methods.md#spectra.
+  // Source: scipy.signal.welch argmax (0.879 → bin 0.8789 Hz, 1.758 → bin 1.7578 Hz),
+  // docs/methods.md#spectra.
   it("finds SciPy's peak bin and refines it towards the true tone", () => {
     const [leg, arm] = scipyReference.welch;
     const dl = dominantFrequency(leg!.x, leg!.fs, { minHz: 0.3, maxHz: 4, segmentS: 512 / 25 })!;
@@ -50,7 +51,8 @@ describe("dominantFrequency(x, sampleRateHz, options)", () => {
 });
 
 describe("frequencyRatio(armHz, strideHz)", () => {
-  // Source: docs/methods.md#spectra (SciPy welch) — Welch peaks 0.879 / 1.758 Hz → arm:leg ratio 2.0.
+  // Source: docs/methods.md#spectra (SciPy welch) — Welch peaks 0.879 / 1.758 Hz → arm:leg ratio
+  // 2.0.
   it("gives 2 for the Welch peaks 0.879 / 1.758 Hz", () => {
     expect(frequencyRatio(1.758, 0.879)).toBe(2);
   });

@@ -8,7 +8,8 @@ import { buildStrides } from "../strides";
 import { strideMetrics } from "../stride-metrics";
 
 describe("phaseCoordinationIndex(referenceStrides, otherIcs)", () => {
-  // Worked example of docs/methods.md#worked-examples (computed with NumPy from the Plotnik, Giladi & Hausdorff 2007 formula).
+  // Worked example of docs/methods.md#worked-examples (computed with NumPy from the Plotnik, Giladi
+  // & Hausdorff 2007 formula).
   const tL = [0, 1.1, 2.2, 3.3, 4.4];
   const tS = [0.6, 1.65, 2.8, 3.8];
   const strides = tL.slice(0, -1).map((t, i) => ({ icS: t, nextIcS: tL[i + 1]! }));

@@ -3,9 +3,10 @@ import { SALARIAN_MIN_PEAK_DISTANCE_S, findPeaks, mergeSwingsWithoutStance } fro
 
 // A shank's sagittal angle over very slow strides, built from the body's kinematics rather than from
 // the event rule: each 3.4 s stride (35 steps/min) swings the shank forward by 60° and the stance
-// takes the 60° back (docs/methods.md#shank-kinematics-over-a-stride: the angle returns to its start every stride). A
-// hesitant swing is split in two forward pushes, 45° then 15°, with a 1° backward sag between them;
-// the pushes are 0.7 s apart, more than the 0.5 s peak distance. ω is the angle's exact derivative.
+// takes the 60° back (docs/methods.md#shank-kinematics-over-a-stride: the angle returns to its
+// start every stride). A hesitant swing is split in two forward pushes, 45° then 15°, with a 1°
+// backward sag between them; the pushes are 0.7 s apart, more than the 0.5 s peak distance. ω is
+// the angle's exact derivative.
 const FS = 100;
 const STRIDE_S = 3.4;
 const STRIDES = 12;

@@ -143,7 +143,8 @@ describe("buildSessionStrides — steady state on a pace model (truth from the m
     expect(right.filter((x) => x.steady).length).toBeGreaterThanOrEqual(right.length - 3);
     expect(right.every((x) => x.stepTimeS === null && x.doubleSupportPct === null)).toBe(true);
     const m = strideMetrics(s);
-    // No steps from one leg: cadence = 120 / mean stride (docs/methods.md#stride-step-and-cadence), counted in strides.
+    // No steps from one leg: cadence = 120 / mean stride (docs/methods.md#stride-step-and-cadence),
+    // counted in strides.
     expect(m.cadenceStepsPerMin!).toBeCloseTo(120 / m.strideTimeMeanS!, 9);
     expect(m.counts.cadenceStepsPerMin).toBe(right.filter((x) => x.steady).length);
     // Truth: the model's own right-leg stride times (the step model halves their variance: ≈ 1.4 %).

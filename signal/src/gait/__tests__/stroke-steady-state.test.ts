@@ -28,7 +28,8 @@ import {
 // stride times and the reference's (SD of the difference, as % of the mean stride) is smaller than
 // the reference CV itself. Otherwise event timing noise — ours or the reference's — dominates the
 // variability being measured, no stride rule can take it out, and the bound is the per-stride
-// disagreement instead (docs/methods.md#steady-state-and-stride-selection: variability needs looser tolerances, Godfrey et al. 2015).
+// disagreement instead (docs/methods.md#steady-state-and-stride-selection: variability needs looser
+// tolerances, Godfrey et al. 2015).
 
 const TARGET_POINTS = 0.5;
 const EVENT_F1 = 0.95;

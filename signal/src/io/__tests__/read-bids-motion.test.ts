@@ -4,8 +4,9 @@ import { bidsSidecarNames, readBidsMotion } from "../read-bids-motion";
 import { placementFromLabel } from "../placement-names";
 import { sniffFormat } from "../sniff";
 
-// Layout per the BIDS specification, motion data (docs/methods.md#bids-motion): headerless *_motion.tsv whose
-// columns follow the rows of *_channels.tsv (required name, component, type, tracked_point, units).
+// Layout per the BIDS specification, motion data (docs/methods.md#bids-motion): headerless
+// *_motion.tsv whose columns follow the rows of *_channels.tsv (required name, component, type,
+// tracked_point, units).
 const CHANNELS = [
   "name\tcomponent\ttype\ttracked_point\tunits",
   "t1_acc_x\tx\tACCEL\tLeftShank\tm/s^2",

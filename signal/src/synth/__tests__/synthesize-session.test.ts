@@ -138,7 +138,8 @@ describe("synthesizeSession(options) truth", () => {
   });
 
   // Mid-swing-peak method (Aminian et al. 2002; Salarian et al. 2004) with the thresholds of
-  // Salarian 2004 thresholds (docs/methods.md#shank-gyroscope-events): MS > 50 °/s, IC minimum < −10 °/s, FC minimum < −20 °/s.
+  // Salarian 2004 thresholds (docs/methods.md#shank-gyroscope-events): MS > 50 °/s, IC minimum <
+  // −10 °/s, FC minimum < −20 °/s.
   it("puts each truth IC/FC on a shank gyro minimum with a > 50 °/s mid-swing peak between FC and IC", () => {
     const s = synthesizeSession({ seed: 11, durationS: 60, sampleRateHz: 200, gyroNoiseDegS: 0 });
     const c = byPlacement(s);

@@ -57,7 +57,8 @@ describe("POST /api/sessions → processSession → GET /api/sessions/:id", () =
 
   it("processes to done with cadence within 3 % of the generator's truth", async () => {
     // Truth: cadence = 60 / mean step time and a stride holds two steps, so 120 / mean stride time
-    // of the generator's own events (definition in docs/methods.md#stride-step-and-cadence / signal issue). 3 % is our tolerance.
+    // of the generator's own events (definition in docs/methods.md#stride-step-and-cadence / signal
+    // issue). 3 % is our tolerance.
     const truth = synth().truth;
     const expectedCadence = 120 / mean(truth.strideTimesS);
     expect(await processSession(ctx.deps, sessionId)).toBe("done");

@@ -79,7 +79,8 @@ describe("in-browser pre-check", () => {
     expect(Math.abs(summary.strideCount - truthStrides)).toBeLessThanOrEqual(2);
     expect(summary.durationS).toBeGreaterThan(55);
     expect(summary.durationS).toBeLessThan(65);
-    // Cadence = 120 / mean stride time (Mobilise-D definitions; docs/methods.md#stride-step-and-cadence): 120 / 1.1 s = 109.09 steps/min.
+    // Cadence = 120 / mean stride time (Mobilise-D definitions;
+    // docs/methods.md#stride-step-and-cadence): 120 / 1.1 s = 109.09 steps/min.
     expect(summary.cadenceStepsPerMin).not.toBeNull();
     expect(Math.abs(summary.cadenceStepsPerMin! - 120 / 1.1)).toBeLessThan(2);
     expect(summary.verdict).not.toBe("redo");

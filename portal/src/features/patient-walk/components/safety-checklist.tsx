@@ -3,7 +3,8 @@ import { IconAlert, IconStop } from "@/components/icons";
 import { Button, FormMessage } from "@/components/ui";
 
 // Preparation and stop rules for an unsupervised walk at home. Sources: the ATS 2002 six-minute
-// walk statement (stop reasons) and common practice for home testing (docs/methods.md#safety-cautions-for-home-walking-tests).
+// walk statement (stop reasons) and common practice for home testing
+// (docs/methods.md#safety-cautions-for-home-walking-tests).
 export const PREPARATION_ITEMS = [
   { id: "path", text: "My walking path is clear, level and well lit, with no rugs, cables or pets in the way, and a chair to rest on at each end." },
   { id: "shoes", text: "I am wearing my usual shoes, and using my usual walking aid and any braces or splints." },

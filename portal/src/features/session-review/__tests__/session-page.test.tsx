@@ -10,7 +10,8 @@ const SID = "2f6b8a1e-4c3d-4e5f-8a9b-0c1d2e3f4a5b";
 const PID = "5a0c7f0e-2b9d-4b59-9d7e-6a1f3c2b9e01";
 
 // An analysis object as the worker stores it. Speed is stride length / stride time (1.21 m / 1.1 s
-// = 1.10 m/s, a kinematic identity on the stride-time check value of docs/methods.md#worked-examples).
+// = 1.10 m/s, a kinematic identity on the stride-time check value of
+// docs/methods.md#worked-examples).
 function analysis(): Analysis {
   return {
     session: { startUtc: "2026-10-06T09:00:00.000Z", durationS: 100, sampleRateHz: 100, placements: ["left_shank", "right_shank", "left_wrist", "right_wrist"] },

@@ -6,8 +6,8 @@ import type { KinematicOptions, KinematicSession } from "../types";
 // Physics of the kinematic generator itself. Sources: a rigid segment that returns to its posture
 // has zero net rotation per stride (kinematics); the tibia advances over the planted foot in stance,
 // so the shank rotates backward (negative here) between contacts and forward in swing (Perry &
-// Burnfield 2010, rockers; docs/methods.md#shank-kinematics-over-a-stride); an accelerometer at rest reads the specific
-// force 9.81 m/s² upward (standard gravity, the value the generator uses).
+// Burnfield 2010, rockers; docs/methods.md#shank-kinematics-over-a-stride); an accelerometer at
+// rest reads the specific force 9.81 m/s² upward (standard gravity, the value the generator uses).
 
 const QUIET = { gyroDegS: 0, accMs2: 0, gyroBiasDegS: 0 };
 const SIDES: Side[] = ["left", "right"];
