@@ -45,8 +45,14 @@ describe("the process-session queue", () => {
     expect(detail.body.status).toBe("done");
     expect(detail.body.analysis.metrics.cadenceStepsPerMin).toBeGreaterThan(0);
 
-    // A session committed but never enqueued (server died in between) is found by the sweep.
+    // A session left queued with no job that will finish it (server died between commit and
+    // enqueue, or a job expired) is found by the sweep. The upload's own job runs first: the
+    // worker wakes on the send at once, and the sweep must not race it.
     const res2 = await upload(ctx, token, synthFor(serials, { seed: 62, startUtc: "2026-11-24T09:00:00.000Z" }).files);
+    await waitFor(async () => {
+      const row = await ctx.db("walk_sessions").where({ id: res2.body.id }).first();
+      return row.status === "done" ? row : undefined;
+    });
     await ctx.db("walk_sessions").where({ id: res2.body.id }).update({ status: "queued", updated_at: ctx.db.raw("now() - interval '1 hour'") });
     expect(await requeueStaleSessions(ctx.deps, 600)).toBeGreaterThanOrEqual(1);
     await waitFor(async () => {
