@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { readBidsMotion, readSensorCsv, sniffFormat, SignalInputError } from "@pendula/signal";
-import { baseBids, baseSensorCsv, JSON_MUTATIONS, mutate, mutationArb, recordingProblems } from "./support/hostile-text";
+import { baseBids, baseSensorCsv, JSON_MUTATIONS, mutate, mutationArb, recordingProblems } from "../../signal/src/testing/hostile-text";
 
 /**
  * Property: on any text, the readers either return recordings that hold the invariants of a

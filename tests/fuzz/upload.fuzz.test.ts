@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readSensorCsv } from "@pendula/signal";
 import { createTestContext, type SeededUser, type TestContext } from "../../ingest-server/src/testing/harness";
 import { seedDevices, storedCounts, upload } from "../../ingest-server/src/testing/session-fixtures";
-import { baseBids, baseSensorCsv, CELL_PAYLOADS, mutate, mutationArb } from "./support/hostile-text";
+import { baseBids, baseSensorCsv, CELL_PAYLOADS, mutate, mutationArb } from "../../signal/src/testing/hostile-text";
 
 /**
  * POST /api/sessions under hostile files. Property: never a 5xx; every refusal is a 4xx with

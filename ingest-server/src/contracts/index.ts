@@ -1,5 +1,5 @@
-// Request and response schemas shared by the server and the portal. Only zod and the enum lists:
-// nothing here may import server code (knex, express, node built-ins).
+// Request and response schemas shared by the server and the portal. Only zod, the enum lists and the
+// metric catalogue: nothing here may import server code (knex, express, node built-ins).
 export * from "./enums";
 export * from "./common";
 export * from "./auth";
@@ -17,3 +17,4 @@ export * from "./training";
 export * from "./research";
 export * from "./caseload-links";
 export * from "./consent";
+export * from "./metrics";

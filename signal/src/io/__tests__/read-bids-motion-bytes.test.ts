@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { baseBids, mutate, mutationArb } from "../../../../tests/fuzz/support/hostile-text";
+import { baseBids, mutate, mutationArb } from "../../testing/hostile-text";
 import { bidsMotionText } from "../../synth/bids-motion-text";
 import { synthesizeSession } from "../../synth";
 import { type SensorRecording, SignalInputError } from "../../types";

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { baseSensorCsv, mutate, mutationArb } from "../../../../tests/fuzz/support/hostile-text";
+import { baseSensorCsv, mutate, mutationArb } from "../../testing/hostile-text";
 import { synthesizeSession } from "../../synth";
 import { type SensorRecording, SignalInputError } from "../../types";
 import { readSensorCsv } from "../read-sensor-csv";

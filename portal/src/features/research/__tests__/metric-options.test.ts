@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { METRIC_KEYS, metricDefinition } from "../../../../../ingest-server/src/metrics/metric-catalog";
+import { METRIC_KEYS, metricDefinition } from "@pendula/ingest-server/contracts";
 import { METRIC_OPTIONS } from "../api/cohort-definition";
 
 describe("research metric options", () => {

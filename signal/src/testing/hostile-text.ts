@@ -1,6 +1,7 @@
 import fc from "fast-check";
-import { SENSOR_CSV_COLUMNS, type SensorRecording } from "@pendula/signal";
-import { synthesizeSession } from "../../../signal/src/synth";
+import { SENSOR_CSV_COLUMNS } from "../io/sensor-csv-header";
+import { synthesizeSession } from "../synth";
+import type { SensorRecording } from "../types";
 
 /**
  * Hostile variations of valid sensor files for property-based tests. Each mutation models one
