@@ -1,8 +1,7 @@
 import { screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { afterEach, describe, expect, it, vi } from "vitest";
-// The generator is not re-exported from the signal index; the path stays inside the repository.
-import { synthesizeSession } from "../../../../../signal/src/synth";
+import { synthesizeSession } from "@pendula/signal";
 import { renderWithProviders } from "@/testing/render";
 import { WeeklyWalk } from "../components/weekly-walk";
 import { PREPARATION_ITEMS } from "../components/safety-checklist";
