@@ -35,8 +35,8 @@ const serverPatterns = workspaceImports(["portal", "tests"], "ingest-server/ doe
 const processingPatterns = [
   ...serverPatterns,
   {
-    regex: "^(\\.\\./)+routes(/|$)",
-    message: "Processing runs in the worker without HTTP: move what it shares with a router into a neutral module (e.g. src/sessions/).",
+    regex: "^(\\.\\.?/)+routes(/|$)",
+    message: "Processing and upload parsing run without HTTP: move what they share with a router into a neutral module (e.g. src/sessions/).",
   },
 ];
 const portalPatterns = [
@@ -89,7 +89,11 @@ export default tseslint.config(
   },
   { files: [`db/${TS}`], rules: { "no-restricted-imports": ["error", { patterns: dbPatterns }] } },
   { files: [`ingest-server/${TS}`], rules: { "no-restricted-imports": ["error", { patterns: serverPatterns }] } },
-  { files: [`ingest-server/src/processing/${TS}`], rules: { "no-restricted-imports": ["error", { patterns: processingPatterns }] } },
+  {
+    // The worker, its processing and the upload parse threads run without HTTP.
+    files: [`ingest-server/src/processing/${TS}`, `ingest-server/src/uploads/${TS}`, "ingest-server/src/worker.ts"],
+    rules: { "no-restricted-imports": ["error", { patterns: processingPatterns }] },
+  },
   { files: [`portal/${TS}`], rules: { "no-restricted-imports": ["error", { patterns: portalPatterns }] } },
   ...features.map(featureBlock),
 );

@@ -51,10 +51,13 @@ const cases: Record<string, Case[]> = {
     { path: "db/src/x.ts", code: 'import { x } from "../../portal/src/x";', expect: "below the server" },
     { path: "db/src/x.ts", code: 'import { x } from "knex";', expect: null },
   ],
-  "processing does not import routes": [
+  "processing, upload parsing and the worker do not import routes": [
     { path: "ingest-server/src/processing/x.ts", code: 'import { x } from "../routes/sessions/x";', expect: "neutral module" },
     { path: "ingest-server/src/processing/__tests__/x.test.ts", code: 'import { x } from "../../routes/x";', expect: "neutral module" },
+    { path: "ingest-server/src/uploads/x.ts", code: 'import { x } from "../routes/sessions/x";', expect: "neutral module" },
+    { path: "ingest-server/src/worker.ts", code: 'import { x } from "./routes/patients/x";', expect: "neutral module" },
     { path: "ingest-server/src/processing/x.ts", code: 'import { x } from "../sessions/x";', expect: null },
+    { path: "ingest-server/src/routes/sessions/x.ts", code: 'import { x } from "../../uploads/x";', expect: null },
     { path: "ingest-server/src/routes/sessions/x.ts", code: 'import { x } from "../../processing/x";', expect: null },
   ],
   "the server does not import the portal or the tests": [

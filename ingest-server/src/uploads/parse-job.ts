@@ -1,7 +1,7 @@
 import { readFile } from "node:fs/promises";
 import type { Placement } from "@pendula/signal";
 import { HttpError } from "../http-error";
-import { parseUpload, type StoredFormat } from "../routes/sessions/parse-upload";
+import { parseUpload, type StoredFormat } from "./parse-upload";
 
 /**
  * One upload's parse, as run inside a parse thread: the files are read from the request's private

@@ -7,7 +7,7 @@ import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
 import { uploadParsePool } from "../../uploads/parse-pool";
 import type { UploadSummary } from "../../uploads/parse-job";
-import { invalidFile } from "./parse-upload";
+import { invalidFile } from "../../uploads/parse-upload";
 import {
   findDeviceAt,
   findSession,

@@ -7,7 +7,7 @@ import { promisify } from "node:util";
 import { afterAll, describe, expect, it } from "vitest";
 // @ts-expect-error scripts/build.mjs is plain JavaScript without declarations
 import { entryOptions } from "../../../../scripts/build.mjs";
-import { parseUpload } from "../../routes/sessions/parse-upload";
+import { parseUpload } from "../parse-upload";
 import { synthFor } from "../../testing/session-fixtures";
 
 // The product runs an esbuild bundle (scripts/build.mjs), not the TypeScript sources: its parse

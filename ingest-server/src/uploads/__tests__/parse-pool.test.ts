@@ -3,7 +3,7 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { HttpError } from "../../http-error";
-import { parseUpload } from "../../routes/sessions/parse-upload";
+import { parseUpload } from "../parse-upload";
 import { bidsSetFromSynth, synthFor } from "../../testing/session-fixtures";
 import { ParsePool } from "../parse-pool";
 

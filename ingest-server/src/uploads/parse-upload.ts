@@ -1,6 +1,6 @@
 import { createHash } from "node:crypto";
 import { readUploadSet, uploadBaseName, type SensorRecording, type UploadFileError } from "@pendula/signal";
-import { HttpError } from "../../http-error";
+import { HttpError } from "../http-error";
 
 /**
  * The pure half of an upload: bytes in, parsed recordings and digests out, or one 4xx naming the
