@@ -2,6 +2,7 @@ import { useState, type FormEvent } from "react";
 import { CONDITIONS, ROLES, SEXES } from "@pendula/ingest-server/contracts";
 import { Button, FormMessage, SelectField, TextField } from "@/components/ui";
 import { describeError } from "@/lib/api-error";
+import { localCalendarDay } from "@/lib/calendar-day";
 import { invitationInputSchema, useCreateInvitation } from "../api/create-invitation";
 import { usePatientRecords } from "../api/patient-records";
 import { ROLE_LABEL } from "./labels";
@@ -26,7 +27,7 @@ export function InviteForm() {
   const [birthYear, setBirthYear] = useState("");
   const [sex, setSex] = useState("");
   const [condition, setCondition] = useState("");
-  const [enrolledOn, setEnrolledOn] = useState(() => new Date().toISOString().slice(0, 10));
+  const [enrolledOn, setEnrolledOn] = useState(() => localCalendarDay());
   const [researchConsent, setResearchConsent] = useState(false);
   const [researchConsentReason, setResearchConsentReason] = useState("");
   const [errors, setErrors] = useState<Errors>({});

@@ -11,9 +11,9 @@ import { TrendSummary } from "./trend-summary";
 import { PatientHeightForm } from "./patient-height-form";
 import { WalkingAidStrip, walkingAidMarkers, walkingAidRuns } from "./walking-aid-strip";
 import { walkingAidLabel } from "@/lib/walking-aid";
+import { formatCalendarDay } from "@/lib/calendar-day";
 
 const CONDITION_LABEL: Record<string, string> = { incomplete_sci: "Incomplete SCI", stroke: "Stroke", parkinsons: "Parkinson's disease", other: "Other" };
-const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: "numeric", month: "short", year: "numeric" });
 
 export interface PatientTrendsPageProps {
   patientId: string;
@@ -61,7 +61,7 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
           </Button>
         }
       >
-        {[patient.condition ? CONDITION_LABEL[patient.condition] ?? patient.condition : null, patient.conditionDetail, patient.enrolledOn ? `enrolled ${day(patient.enrolledOn)}` : null, patient.researchId ? `research id ${patient.researchId}` : null]
+        {[patient.condition ? CONDITION_LABEL[patient.condition] ?? patient.condition : null, patient.conditionDetail, patient.enrolledOn ? `enrolled ${formatCalendarDay(patient.enrolledOn)}` : null, patient.researchId ? `research id ${patient.researchId}` : null]
           .filter(Boolean)
           .join(" · ")}
       </PageHeader>
