@@ -1,7 +1,7 @@
 import { QueryClientProvider, type QueryClient } from "@tanstack/react-query";
 import { useEffect, useState, type ReactNode } from "react";
 import { RouterProvider } from "react-router-dom";
-import { authKeys } from "@/features/auth";
+import { authKeys } from "@/features/auth/api/auth-keys";
 import { onUnauthenticated } from "@/lib/api-client";
 import { createQueryClient } from "@/lib/query-client";
 import { createAppRouter } from "./router";

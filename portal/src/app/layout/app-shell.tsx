@@ -1,7 +1,9 @@
-import { Link, NavLink, Outlet, useNavigate, useOutlet } from "react-router-dom";
+import { Link, NavLink, Outlet, useNavigate, useNavigation, useOutlet } from "react-router-dom";
 import { IconPendula, IconSignOut } from "@/components/icons";
 import { Button, ClinicalNotice, EmptyState, LoadingState } from "@/components/ui";
-import { needsSecondFactorSetup, useMe, useSignOut, type Role } from "@/features/auth";
+import { needsSecondFactorSetup, type Role } from "@/features/auth/api/auth-keys";
+import { useMe } from "@/features/auth/api/get-me";
+import { useSignOut } from "@/features/auth/api/sign-in";
 import { adminNav } from "../routes/admin";
 import type { NavItem } from "../routes/nav";
 import { researcherNav } from "../routes/researcher";
@@ -34,6 +36,28 @@ export function SkipLink() {
   );
 }
 
+/**
+ * While the next screen's code and data load, React Router keeps the current screen on view. This
+ * says so: a live region announces "Loading…" to screen readers, and a thin bar pinned to the top
+ * edge shows it to everyone else (fixed, so nothing on the page moves; it fades in after a moment
+ * so quick changes do not flicker).
+ */
+export function NavigationStatus() {
+  const busy = useNavigation().state !== "idle";
+  return (
+    <>
+      <div role="status" aria-live="polite" className="sr-only">
+        {busy ? "Loading…" : ""}
+      </div>
+      <div
+        aria-hidden="true"
+        data-busy={busy}
+        className={`no-print pointer-events-none fixed inset-x-0 top-0 z-50 h-1 bg-clay transition-opacity ${busy ? "opacity-100 delay-150" : "opacity-0"}`}
+      />
+    </>
+  );
+}
+
 export function SiteFooter() {
   return (
     <footer className="mt-auto border-t border-line bg-sand-deep/60">
@@ -56,6 +80,7 @@ export function AppShell() {
   return (
     <div className="flex min-h-dvh flex-col">
       <SkipLink />
+      <NavigationStatus />
       <header className="no-print border-b border-ink/20 bg-ink text-sand">
         <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3 sm:px-6">
           <span className="flex items-center gap-2 text-lg font-bold tracking-tight">
@@ -120,6 +145,7 @@ export function AuthLayout() {
   return (
     <div className="flex min-h-dvh flex-col bg-sand">
       <SkipLink />
+      <NavigationStatus />
       <main id="main" tabIndex={-1} className="flex flex-1 flex-col items-center justify-center gap-6 px-4 py-10 outline-none">
         <p className="flex items-center gap-2 text-xl font-bold text-ink">
           <IconPendula className="text-clay" width="1.5em" height="1.5em" />

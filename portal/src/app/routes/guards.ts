@@ -1,6 +1,7 @@
 import type { QueryClient } from "@tanstack/react-query";
 import { redirect, type LoaderFunctionArgs } from "react-router-dom";
-import { meQueryOptions, needsSecondFactorSetup, ROLE_HOME, SECOND_FACTOR_SETUP_PATH, type Me, type Role } from "@/features/auth";
+import { needsSecondFactorSetup, ROLE_HOME, SECOND_FACTOR_SETUP_PATH, type Me, type Role } from "@/features/auth/api/auth-keys";
+import { meQueryOptions } from "@/features/auth/api/get-me";
 
 async function currentUser(queryClient: QueryClient): Promise<Me | null> {
   return queryClient.ensureQueryData(meQueryOptions());

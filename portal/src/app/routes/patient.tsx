@@ -1,7 +1,7 @@
 import type { QueryClient } from "@tanstack/react-query";
 import type { RouteObject } from "react-router-dom";
 import { ErrorState } from "@/components/ui";
-import { meQueryOptions, useMe } from "@/features/auth";
+import { meQueryOptions, useMe } from "@/features/auth/api/get-me";
 
 /** The patient's area under /patient: this week's walk (home) and progress over the weeks. */
 export function patientRoutes(queryClient: QueryClient): RouteObject[] {
