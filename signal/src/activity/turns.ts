@@ -1,4 +1,5 @@
-import { lowPassZeroPhaseSegments } from "../filter/zero-phase-butterworth";
+import { butterworthSections } from "../filter/butterworth-sections";
+import { lowPassZeroPhaseSegments, zeroPhaseSegments3 } from "../filter/zero-phase-butterworth";
 import type { Bout, ImuSignals } from "../types";
 import { hypot3 } from "./hypot3";
 
@@ -61,9 +62,8 @@ export function yawRateAboutGravity(
       ch[c]![k] = sum / factor;
     }
   }
-  const gx = lowPassZeroPhaseSegments(ch[0]!, valid, rate, GRAVITY_LOW_PASS_HZ, 2);
-  const gy = lowPassZeroPhaseSegments(ch[1]!, valid, rate, GRAVITY_LOW_PASS_HZ, 2);
-  const gz = lowPassZeroPhaseSegments(ch[2]!, valid, rate, GRAVITY_LOW_PASS_HZ, 2);
+  const gravity = butterworthSections("lowpass", 2, GRAVITY_LOW_PASS_HZ, rate);
+  const [gx, gy, gz] = zeroPhaseSegments3([ch[0]!, ch[1]!, ch[2]!], [gravity, gravity, gravity], valid);
   const yaw = new Float64Array(m);
   for (let i = 0; i < m; i++) {
     if (!valid[i]) continue;

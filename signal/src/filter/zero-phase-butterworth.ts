@@ -201,6 +201,25 @@ export function zeroPhaseSegments3(
   return out;
 }
 
+/**
+ * `sosFiltFilt` of three equally long channels through one cascade each, run side by side as in
+ * `zeroPhaseSegments3`: each result equals `sosFiltFilt(sections[c], x[c])` bit for bit.
+ */
+export function sosFiltFilt3(
+  sections: readonly [readonly Biquad[], readonly Biquad[], readonly Biquad[]],
+  x: readonly [ArrayLike<number>, ArrayLike<number>, ArrayLike<number>],
+): [Float64Array, Float64Array, Float64Array] {
+  const count = sections[0].length;
+  if (sections[1].length !== count || sections[2].length !== count) throw new RangeError("sosFiltFilt3: the three cascades differ in length");
+  const n = x[0].length;
+  if (x[1].length !== n || x[2].length !== n) throw new RangeError("sosFiltFilt3: the three channels differ in length");
+  const out: [Float64Array, Float64Array, Float64Array] = [new Float64Array(n), new Float64Array(n), new Float64Array(n)];
+  if (n === 0) return out;
+  const size = n + 2 * padLength(sections[0], n);
+  sosFiltFiltRange3(sections, x, 0, n, [new Float64Array(size), new Float64Array(size), new Float64Array(size)], out);
+  return out;
+}
+
 function sosFiltFiltRange3(
   sections: readonly [readonly Biquad[], readonly Biquad[], readonly Biquad[]],
   x: readonly [ArrayLike<number>, ArrayLike<number>, ArrayLike<number>],

@@ -1,6 +1,8 @@
 import { assertPositiveFinite } from "../check";
 import { ANGLE_HIGH_PASS_STRIDE_FRACTION, segmentAngleDeg } from "../coordination/segment-angle";
-import { bandPassZeroPhase, lowPassZeroPhase } from "../filter/zero-phase-butterworth";
+import { butterworthBandSections } from "../filter/butterworth-band-sections";
+import { butterworthSections } from "../filter/butterworth-sections";
+import { lowPassZeroPhase, sosFiltFilt3 } from "../filter/zero-phase-butterworth";
 import { projectOnAxis, sagittalAxis } from "./sagittal-axis";
 
 /** The wrist's swing axis is sought in gyro band-passed to this band around the stride frequency (× f_stride, common practice). */
@@ -133,7 +135,8 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
   // Swing axis from band-limited gyro, made horizontal.
   const lo = WRIST_AXIS_BAND[0] * input.strideFrequencyHz;
   const hi = Math.min(WRIST_AXIS_BAND[1] * input.strideFrequencyHz, 0.45 * fs);
-  const band = gyro.map((g) => bandPassZeroPhase(g, fs, lo, hi, 2));
+  const bandSections = butterworthBandSections(2, lo, hi, fs);
+  const band = sosFiltFilt3([bandSections, bandSections, bandSections], [gyro[0]!, gyro[1]!, gyro[2]!]);
   // Only rotation about horizontal axes counts: the trunk's yaw (about `up`) is removed first, so
   // an arm that hardly swings still gets its best horizontal axis rather than the yaw axis.
   removeComponentAlong(band[0]!, band[1]!, band[2]!, up);
@@ -189,7 +192,9 @@ function impactLag(acc: readonly Float64Array[], input: WristSignInput): number 
   const n = input.mask.length;
   if (IMPACT_HIGH_PASS_HZ >= 0.45 * fs) return null;
   const envelope = new Float64Array(n);
-  for (const a of acc) addSquaredDifference(envelope, a, lowPassZeroPhase(a, fs, IMPACT_HIGH_PASS_HZ, 4));
+  const impactSections = butterworthSections("lowpass", 4, IMPACT_HIGH_PASS_HZ, fs);
+  const low = sosFiltFilt3([impactSections, impactSections, impactSections], [acc[0]!, acc[1]!, acc[2]!]);
+  for (let c = 0; c < 3; c++) addSquaredDifference(envelope, acc[c]!, low[c]!);
   const smooth = lowPassZeroPhase(envelope.map(Math.sqrt), fs, Math.min(20, 0.4 * fs), 2);
   const halfStep = Math.round((0.25 * fs) / input.strideFrequencyHz);
   const ics = input.initialContactsS.map((t) => Math.round(t * fs)).filter((c) => c - halfStep >= 0 && c + halfStep < n && input.mask[c]);

@@ -1,4 +1,5 @@
-import { butterworthSections, sosFiltFilt } from "../filter";
+import { butterworthSections } from "../filter";
+import { sosFiltFilt3 } from "../filter/zero-phase-butterworth";
 
 /**
  * Lower edge of the impact band (Hz). A heel strike is a short transient whose energy reaches well
@@ -52,9 +53,7 @@ export function impactEnvelope(
   const mz = new Float64Array(m);
   binMeansHoldingLast(accX, accY, accZ, valid, factor, binOk, mx, my, mz);
   const sections = butterworthSections("highpass", 4, IMPACT_HIGH_PASS_HZ, rateHz);
-  const hx = sosFiltFilt(sections, mx);
-  const hy = sosFiltFilt(sections, my);
-  const hz = sosFiltFilt(sections, mz);
+  const [hx, hy, hz] = sosFiltFilt3([sections, sections, sections], [mx, my, mz]);
   guardedMagnitude(binOk, Math.round(EDGE_GUARD_S * rateHz), hx, hy, hz, binValid, envelope);
   return { envelope, valid: binValid, rateHz, factor };
 }

@@ -1,7 +1,8 @@
 import { describe, expect, it } from "vitest";
 import fixture from "./fixtures/scipy-filters.json";
 import { butterworthSections } from "../butterworth-sections";
-import { lowPassZeroPhaseSegments, sosFiltFilt, zeroPhaseSegments3 } from "../zero-phase-butterworth";
+import { butterworthBandSections } from "../butterworth-band-sections";
+import { lowPassZeroPhaseSegments, sosFiltFilt, sosFiltFilt3, zeroPhaseSegments3 } from "../zero-phase-butterworth";
 
 // zeroPhaseSegments3 must equal three single-channel runs bit for bit (same operations in the same
 // order), so the analysis' outputs do not move; the single-channel filter itself is checked against
@@ -73,5 +74,43 @@ describe("zeroPhaseSegments3(x, sections, valid)", () => {
     const s2 = butterworthSections("lowpass", 2, 15, 200);
     expect(() => zeroPhaseSegments3(x, [s4, s4, s2], valid)).toThrow(RangeError);
     expect(() => zeroPhaseSegments3([x[0], x[1], x[2].subarray(1)], [s4, s4, s4], valid)).toThrow(RangeError);
+  });
+});
+
+describe("sosFiltFilt3(sections, x)", () => {
+  const n = 3000;
+  const x = [noisySines(n, 4), noisySines(n, 5), noisySines(n, 6)] as const;
+
+  it("equals three sosFiltFilt runs exactly (low-pass, band-pass, and a different cascade per channel)", () => {
+    const low = butterworthSections("lowpass", 4, 15, 100);
+    const band = butterworthBandSections(2, 0.5, 2.6, 100);
+    const high = butterworthSections("highpass", 4, 15, 100);
+    for (const sections of [[low, low, low], [band, band, band], [low, high, low]] as const) {
+      const three = sosFiltFilt3(sections, x);
+      for (let c = 0; c < 3; c++) expect(Array.from(three[c]!)).toEqual(Array.from(sosFiltFilt(sections[c]!, x[c]!)));
+    }
+  });
+
+  it("equals SciPy sosfiltfilt(butter(4, 5, fs=100)) on the fixture's input (signal/scripts/gen-filter-fixtures.py, 1e-9)", () => {
+    const { n: m, sampleRateHz: fs } = fixture.input;
+    const input = new Float64Array(m);
+    for (let i = 0; i < m; i++) {
+      const t = i / fs;
+      const noise = ((i * 7919) % 101) / 101 - 0.5;
+      input[i] = Math.sin(2 * Math.PI * 1.3 * t) + 0.5 * Math.sin(2 * Math.PI * 12 * t) + 0.2 * Math.cos(2 * Math.PI * 31 * t) + 0.3 * noise;
+    }
+    const s = butterworthSections("lowpass", 4, 5, fs);
+    const [a] = sosFiltFilt3([s, s, s], [input, input.map((v) => -v), input]);
+    let worst = 0;
+    for (let i = 0; i < m; i++) worst = Math.max(worst, Math.abs(a[i]! - fixture.sosfiltfiltLow_4_5Hz[i]!));
+    expect(worst).toBeLessThan(1e-9);
+  });
+
+  it("passes a single sample through, returns empty channels for empty input, and refuses mismatched lengths", () => {
+    const s = butterworthSections("lowpass", 4, 15, 200);
+    expect(sosFiltFilt3([s, s, s], [[1.5], [2.5], [-3]]).map((c) => Array.from(c))).toEqual([[1.5], [2.5], [-3]]);
+    expect(sosFiltFilt3([s, s, s], [[], [], []]).map((c) => c.length)).toEqual([0, 0, 0]);
+    expect(() => sosFiltFilt3([s, s, butterworthSections("lowpass", 2, 15, 200)], x)).toThrow(RangeError);
+    expect(() => sosFiltFilt3([s, s, s], [x[0], x[1], x[2].subarray(1)])).toThrow(RangeError);
   });
 });
