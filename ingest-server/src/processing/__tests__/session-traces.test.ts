@@ -25,7 +25,7 @@ function tracesAsBefore(recordings: readonly SensorRecording[], analysis: Analys
   recordings.forEach((rec, index) => {
     if (!rec.placement) return;
     const r = resampleToGrid(rec, grid, index);
-    let mask = new Uint8Array(grid.length);
+    let mask: Uint8Array = new Uint8Array(grid.length);
     for (const bout of analysis.bouts) {
       const from = Math.max(0, Math.floor(bout.startS * grid.sampleRateHz));
       const to = Math.min(grid.length - 1, Math.ceil(bout.endS * grid.sampleRateHz));
