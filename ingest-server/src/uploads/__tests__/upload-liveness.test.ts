@@ -16,12 +16,12 @@ import { uploadParsePool } from "../parse-pool";
 // shared machine; the bench runs the full size.
 const MAX_FILE = 3 * 1024 * 1024;
 const UPLOADERS = 5;
-// The issue's target is 1 s. This process also hosts the object-storage fake (which receives
-// every stored file) and the eleven clients, all on the server's event loop, which a deployed
-// server does not share; on this 2-core machine under other suites' load that alone took single
-// reads to 1.03 s. So the test allows 2 s, still far below the minutes of a stalled loop;
-// `npm run bench:upload` reports the real latencies.
-const LIVENESS_BOUND_MS = 2000;
+// Reads made while uploads are parsed answer within 1 s. This process also hosts the
+// object-storage fake (which receives every stored file) and the eleven clients on the server's
+// event loop, which a deployed server does not share; on a machine already overloaded by other
+// work even idle reads slow down, so the bound grows to ten idle reads when those are slower
+// (below). `npm run bench:upload` reports the latencies at the product's full sizes.
+const LIVENESS_BOUND_MS = 1000;
 
 let ctx: TestContext;
 let server: Server;
