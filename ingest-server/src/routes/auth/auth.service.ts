@@ -23,6 +23,17 @@ export interface IssuedSession {
 export type SignInOutcome = { kind: "session"; session: IssuedSession } | { kind: "challenge"; body: SecondFactorChallenge };
 
 const DAY_MS = 86_400_000;
+
+/** An audit event a user causes on their own account (sign-in steps, refresh, password reset). */
+function auditOwn(
+  db: Parameters<typeof audit>[0],
+  req: Request,
+  user: Pick<UserRow, "id" | "role">,
+  action: string,
+  details?: Record<string, unknown>,
+): Promise<void> {
+  return audit(db, req, { action, resourceType: "user", resourceId: user.id, actorId: user.id, actorRole: user.role, details });
+}
 /**
  * How long a just-rotated refresh token may be presented once more (see refresh). A window of a few
  * seconds to half a minute is common practice for rotating refresh tokens: long enough for tabs
@@ -144,21 +155,14 @@ export function createAuthService({ db, config, mailer }: AppDeps) {
         const challenge = newOpaqueToken();
         await factors.deleteOldChallenges(db, new Date(Date.now() - config.loginRateLimit.windowS * 1000 - CHALLENGE_TTL_S * 1000));
         await factors.insertChallenge(db, user.id, challenge.sha256, new Date(Date.now() + CHALLENGE_TTL_S * 1000));
-        await audit(db, req, { action: "auth.login_password_ok", resourceType: "user", resourceId: user.id, actorId: user.id, actorRole: user.role });
+        await auditOwn(db, req, user, "auth.login_password_ok");
         return {
           kind: "challenge",
           body: { secondFactorRequired: true, challenge: challenge.token, expiresIn: CHALLENGE_TTL_S, methods: ["totp", "recovery_code"] },
         };
       }
       await repo.touchLogin(db, user.id);
-      await audit(db, req, {
-        action: "auth.login",
-        resourceType: "user",
-        resourceId: user.id,
-        actorId: user.id,
-        actorRole: user.role,
-        details: { secondFactor: secondFactorRequired(user.role) ? "enrolment_required" : "none" },
-      });
+      await auditOwn(db, req, user, "auth.login", { secondFactor: secondFactorRequired(user.role) ? "enrolment_required" : "none" });
       return { kind: "session", session: await issue(user, false) };
     },
 
@@ -177,27 +181,13 @@ export function createAuthService({ db, config, mailer }: AppDeps) {
       if (!user || user.status !== "active") throw badChallenge();
       const since = new Date(Date.now() - config.loginRateLimit.windowS * 1000);
       if ((await factors.recentFailures(db, user.id, since)) >= ACCOUNT_MAX_CODE_FAILURES) {
-        await audit(db, req, {
-          action: "auth.second_factor_failed",
-          resourceType: "user",
-          resourceId: user.id,
-          actorId: user.id,
-          actorRole: user.role,
-          details: { method: input.method, reason: "account_throttled" },
-        });
+        await auditOwn(db, req, user, "auth.second_factor_failed", { method: input.method, reason: "account_throttled" });
         throw new HttpError(429, "rate_limited", `too many wrong codes for this account; try again in ${Math.ceil(config.loginRateLimit.windowS / 60)} minutes`);
       }
       const result = await checkCode(user, input);
       if (!result.ok) {
         const failures = await factors.countFailure(db, challenge.id);
-        await audit(db, req, {
-          action: "auth.second_factor_failed",
-          resourceType: "user",
-          resourceId: user.id,
-          actorId: user.id,
-          actorRole: user.role,
-          details: { method: input.method, reason: result.reason },
-        });
+        await auditOwn(db, req, user, "auth.second_factor_failed", { method: input.method, reason: result.reason });
         const attemptsLeft = Math.max(0, CHALLENGE_MAX_FAILURES - failures);
         if (result.reason === "code_reused") {
           throw new HttpError(401, "code_reused", "this code was already used; wait for the next one in your app", { attemptsLeft });
@@ -211,16 +201,9 @@ export function createAuthService({ db, config, mailer }: AppDeps) {
       }
       if (!(await factors.markChallengeUsed(db, challenge.id))) throw badChallenge();
       await repo.touchLogin(db, user.id);
-      await audit(db, req, {
-        action: "auth.login",
-        resourceType: "user",
-        resourceId: user.id,
-        actorId: user.id,
-        actorRole: user.role,
-        details: {
-          secondFactor: input.method,
-          ...(input.method === "recovery_code" ? { recoveryCodesLeft: await factors.recoveryCodesLeft(db, user.id) } : {}),
-        },
+      await auditOwn(db, req, user, "auth.login", {
+        secondFactor: input.method,
+        ...(input.method === "recovery_code" ? { recoveryCodesLeft: await factors.recoveryCodesLeft(db, user.id) } : {}),
       });
       return issue(user, true);
     },
@@ -266,7 +249,7 @@ export function createAuthService({ db, config, mailer }: AppDeps) {
       if (await repo.claimReuseGrace(db, row.id, new Date())) {
         const user = await activeUser(row.user_id);
         await refuseStaleStanding(row);
-        await audit(db, req, { action: "auth.refresh_grace", resourceType: "user", resourceId: user.id, actorId: user.id, actorRole: user.role });
+        await auditOwn(db, req, user, "auth.refresh_grace");
         return issue(user, row.second_factor);
       }
       // It was live when read, so this request raced another one holding the same cookie (a sign-out,
@@ -344,14 +327,7 @@ export function createAuthService({ db, config, mailer }: AppDeps) {
       const id = await db.transaction(async (trx) => {
         await repo.expireOpenResets(trx, user.id);
         const [row] = await repo.insertPasswordReset(trx, user.id, reset.sha256, expiresAt);
-        await audit(trx, req, {
-          action: "auth.password_reset_request",
-          resourceType: "user",
-          resourceId: user.id,
-          actorId: user.id,
-          actorRole: user.role,
-          details: { matched: true },
-        });
+        await auditOwn(trx, req, user, "auth.password_reset_request", { matched: true });
         return row!.id;
       });
       const link = `${config.publicUrl}/reset-password?token=${reset.token}`;
@@ -385,13 +361,7 @@ export function createAuthService({ db, config, mailer }: AppDeps) {
         await repo.setPassword(trx, user.id, hash);
         // A new password ends every existing session, access tokens included.
         await repo.endAllSessions(trx, user.id);
-        await audit(trx, req, {
-          action: "auth.password_reset",
-          resourceType: "user",
-          resourceId: user.id,
-          actorId: user.id,
-          actorRole: user.role,
-        });
+        await auditOwn(trx, req, user, "auth.password_reset");
       });
     },
   };
