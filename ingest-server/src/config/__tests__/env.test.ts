@@ -64,9 +64,9 @@ describe("loadConfig: PENDULA_MODE", () => {
   const demo = { ...minimal, PENDULA_MODE: "demo", PUBLIC_URL: "http://127.0.0.1:8641" };
 
   it("accepts the local fakes' settings in demo mode", () => {
-    const c = loadConfig({ ...demo, S3_ACCESS_KEY_ID: "S3RVER", DEV_MAILBOX_DIR: "/tmp/mailbox", SMTP_HOST: "127.0.0.1" });
+    const c = loadConfig({ ...demo, S3_ACCESS_KEY_ID: "S3RVER", DEV_MAILBOX_DIR: "fakes/mailbox", SMTP_HOST: "127.0.0.1" });
     expect(isDemoMode(c)).toBe(true);
-    expect(c.devMailboxDir).toBe("/tmp/mailbox");
+    expect(c.devMailboxDir).toBe("fakes/mailbox");
     expect(c.smtp.requireTls).toBe(false);
     expect(c.secureCookies).toBe(false);
   });
@@ -75,7 +75,7 @@ describe("loadConfig: PENDULA_MODE", () => {
     const problems = problemsOf({
       ...minimal,
       PENDULA_MODE: "production",
-      DEV_MAILBOX_DIR: "/tmp/mailbox",
+      DEV_MAILBOX_DIR: "fakes/mailbox",
       S3_ACCESS_KEY_ID: "S3RVER",
       PUBLIC_URL: "http://gait.clinic.example",
     });
