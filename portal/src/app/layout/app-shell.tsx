@@ -4,16 +4,10 @@ import { Button, ClinicalNotice, EmptyState, LoadingState } from "@/components/u
 import { needsSecondFactorSetup, type Role } from "@/features/auth/api/auth-keys";
 import { useMe } from "@/features/auth/api/get-me";
 import { useSignOut } from "@/features/auth/api/sign-in";
+import { ROLE_LABEL } from "@/lib/role-labels";
 import { adminNav } from "../routes/admin";
 import type { NavItem } from "../routes/nav";
 import { researcherNav } from "../routes/researcher";
-
-const ROLE_LABEL: Record<Role, string> = {
-  patient: "Patient",
-  clinician: "Clinician",
-  researcher: "Researcher",
-  admin: "Administrator",
-};
 
 const NAV: Record<Role, NavItem[]> = {
   patient: [

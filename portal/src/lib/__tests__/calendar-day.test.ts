@@ -1,5 +1,5 @@
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
-import { formatCalendarDay, localCalendarDay } from "../calendar-day";
+import { formatCalendarDay, localCalendarDay, localDateTimeInputValue } from "../calendar-day";
 
 // Node applies a change of process.env.TZ at once; each case runs in a zone where the naive
 // conversions (local midnight, the UTC day) land on a different calendar day. Offsets: IANA tz
@@ -43,5 +43,25 @@ describe("localCalendarDay", () => {
     process.env.TZ = "America/Los_Angeles";
     const now = new Date("2026-01-06T06:30:00Z"); // 22:30 on 5 January in Los Angeles (UTC−8)
     expect(localCalendarDay(now)).toBe("2026-01-05");
+  });
+});
+
+describe("localDateTimeInputValue", () => {
+  // The value format of <input type="datetime-local">: HTML Living Standard, "valid normalized
+  // local date and time string" (YYYY-MM-DDTHH:MM when seconds are zero).
+  it("is the user's wall-clock time to the minute, on the user's day", () => {
+    process.env.TZ = "Pacific/Auckland";
+    expect(localDateTimeInputValue(new Date("2026-01-05T11:30:45Z"))).toBe("2026-01-06T00:30");
+  });
+
+  it("west of UTC, keeps the evening on the user's day", () => {
+    process.env.TZ = "America/Los_Angeles";
+    expect(localDateTimeInputValue(new Date("2026-01-06T03:07:00Z"))).toBe("2026-01-05T19:07");
+  });
+
+  it("turns back into the same instant, to the minute", () => {
+    process.env.TZ = "Pacific/Auckland";
+    const at = new Date("2026-07-01T22:59:30Z");
+    expect(new Date(localDateTimeInputValue(at)).toISOString()).toBe("2026-07-01T22:59:00.000Z");
   });
 });

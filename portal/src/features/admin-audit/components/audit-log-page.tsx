@@ -1,5 +1,6 @@
 import { useState, type FormEvent } from "react";
 import { Button, EmptyState, ErrorState, LoadingState, PageHeader, Table, Td, TextField, Th } from "@/components/ui";
+import { formatDateTimeSeconds } from "@/lib/format";
 import {
   AUDIT_PAGE_SIZE,
   EMPTY_AUDIT_FILTER,
@@ -10,10 +11,6 @@ import {
   type AuditFilterInput,
   type AuditQuery,
 } from "../api/audit-events";
-
-function formatAt(iso: string): string {
-  return new Date(iso).toLocaleString("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", second: "2-digit" });
-}
 
 function detailsText(e: AuditEventView): string {
   if (e.withheld.includes("details")) return "clinical details not shown";
@@ -100,7 +97,7 @@ export function AuditLogPage() {
               {events.data.items.map((e) => (
                 <tr key={e.id}>
                   <Td className="whitespace-nowrap tabular text-xs">
-                    <time dateTime={e.at}>{formatAt(e.at)}</time>
+                    <time dateTime={e.at}>{formatDateTimeSeconds(e.at)}</time>
                   </Td>
                   <Td className="text-xs">
                     <span className="block font-semibold text-ink">{e.actorEmail ?? "system"}</span>

@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from "react";
 import { Badge, Button, EmptyState, ErrorState, LoadingState, PageHeader, SelectField, Table, Td, TextField, Th } from "@/components/ui";
 import { describeError } from "@/lib/api-error";
+import { formatDateTime } from "@/lib/format";
 import {
   CASELOAD_LINK_PAGE_SIZE,
   createCaseloadLinkRequest,
@@ -13,10 +14,6 @@ import {
   type CaseloadLinkFilters,
   type CaseloadLinkView,
 } from "../api/caseload-links";
-
-function formatDay(iso: string): string {
-  return new Date(iso).toLocaleString("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit" });
-}
 
 const REASON_HINT = "Why this access is needed, in a few words. Kept in the audit log; no clinical details.";
 
@@ -229,7 +226,7 @@ export function CaseloadLinksPage() {
                   <Td>{l.active ? <Badge tone="good">Current</Badge> : <Badge tone="neutral">Ended</Badge>}</Td>
                   <Td className="text-xs">
                     <time dateTime={l.createdAt} className="block tabular">
-                      {formatDay(l.createdAt)}
+                      {formatDateTime(l.createdAt)}
                     </time>
                     <span className="block text-ink-soft">{l.createdByName ? `by ${l.createdByName}` : "recorded before links were tracked"}</span>
                     {l.reason ? <span className="block">“{l.reason}”</span> : null}
@@ -238,7 +235,7 @@ export function CaseloadLinksPage() {
                     {l.endedAt ? (
                       <>
                         <time dateTime={l.endedAt} className="block tabular">
-                          {formatDay(l.endedAt)}
+                          {formatDateTime(l.endedAt)}
                         </time>
                         <span className="block text-ink-soft">{l.endedByName ? `by ${l.endedByName}` : "removed without a recorded reason"}</span>
                         {l.endReason ? <span className="block">“{l.endReason}”</span> : null}

@@ -2,11 +2,12 @@ import { useState, type FormEvent } from "react";
 import type { z } from "zod";
 import { Button, SelectField, TextField } from "@/components/ui";
 import { assignDeviceInputSchema, useAssignDevice } from "../api/assign-device";
-import { formatInstant, toLocalInputValue } from "../api/date-time";
+import { localDateTimeInputValue } from "@/lib/calendar-day";
+import { formatDateTime } from "@/lib/format";
 import type { Assignment } from "../api/devices";
 import { endAssignmentInputSchema, useEndAssignment } from "../api/end-assignment";
 import { swapPlacementInputSchema, useSwapPlacement } from "../api/swap-placement";
-import { PLACEMENT_OPTIONS, placementLabel } from "../api/placements";
+import { PLACEMENT_OPTIONS, placementLabel } from "@/lib/placement-labels";
 import { AssignmentError } from "./assignment-error";
 import { PatientPlacementFields } from "./patient-placement-fields";
 
@@ -18,11 +19,11 @@ function issuesToErrors(error: z.ZodError): Errors {
   return out;
 }
 
-const nowInput = () => toLocalInputValue(new Date());
+const nowInput = () => localDateTimeInputValue(new Date());
 
 export function AssignDeviceForm({ deviceId, serial, onDone }: { deviceId: string; serial: string; onDone?: (message: string) => void }) {
   const assign = useAssignDevice(deviceId, (a) =>
-    onDone?.(`${serial} is now on the ${placementLabel(a.placement).toLowerCase()} from ${formatInstant(a.from)}.`),
+    onDone?.(`${serial} is now on the ${placementLabel(a.placement).toLowerCase()} from ${formatDateTime(a.from)}.`),
   );
   const [patientId, setPatientId] = useState("");
   const [placement, setPlacement] = useState("");
@@ -71,7 +72,7 @@ export function AssignDeviceForm({ deviceId, serial, onDone }: { deviceId: strin
 
 export function EndAssignmentForm({ deviceId, current, onDone }: { deviceId: string; current: Assignment; onDone?: (message: string) => void }) {
   const end = useEndAssignment(deviceId, (a) =>
-    onDone?.(`The ${placementLabel(a.placement).toLowerCase()} assignment ended${a.to ? ` at ${formatInstant(a.to)}` : ""}.`),
+    onDone?.(`The ${placementLabel(a.placement).toLowerCase()} assignment ended${a.to ? ` at ${formatDateTime(a.to)}` : ""}.`),
   );
   const [to, setTo] = useState(nowInput);
   const [errors, setErrors] = useState<Errors>({});
@@ -108,7 +109,7 @@ export function EndAssignmentForm({ deviceId, current, onDone }: { deviceId: str
 
 export function SwapPlacementForm({ deviceId, current, onDone }: { deviceId: string; current: Assignment; onDone?: (message: string) => void }) {
   const swap = useSwapPlacement(deviceId, (a) =>
-    onDone?.(`Now worn on the ${placementLabel(a.placement).toLowerCase()} from ${formatInstant(a.from)}.`),
+    onDone?.(`Now worn on the ${placementLabel(a.placement).toLowerCase()} from ${formatDateTime(a.from)}.`),
   );
   const [placement, setPlacement] = useState("");
   const [at, setAt] = useState(nowInput);

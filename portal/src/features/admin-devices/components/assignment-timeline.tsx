@@ -3,7 +3,7 @@ import { Group } from "@visx/group";
 import { scaleBand, scaleTime } from "@visx/scale";
 import { Bar, Line } from "@visx/shape";
 import { patientText, type Assignment } from "../api/devices";
-import { placementLabel } from "../api/placements";
+import { placementLabel } from "@/lib/placement-labels";
 
 const WIDTH = 880;
 const LANE = 44;

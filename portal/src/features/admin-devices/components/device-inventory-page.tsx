@@ -2,9 +2,9 @@ import { useMemo, useState } from "react";
 import { Link } from "react-router-dom";
 import { EmptyState, ErrorState, LoadingState, PageHeader, SelectField, Table, Td, TextField, Th } from "@/components/ui";
 import { DEVICE_STATUSES } from "@pendula/ingest-server/contracts";
-import { formatDay } from "../api/date-time";
+import { formatDate } from "@/lib/format";
 import { patientText, useDevices, type Device } from "../api/devices";
-import { placementLabel } from "../api/placements";
+import { placementLabel } from "@/lib/placement-labels";
 import { DeviceStatusBadge, deviceStatusLabel } from "./device-status-badge";
 
 const KIND_LABEL: Record<string, string> = { imu6: "6-axis IMU", imu9: "9-axis IMU" };
@@ -98,7 +98,7 @@ export function DeviceInventoryPage() {
                         <span>
                           <span className="font-semibold">{patientText(d.assignment)}</span> ·{" "}
                           {placementLabel(d.assignment.placement)}
-                          <span className="block text-xs text-ink-soft">since {formatDay(d.assignment.from)}</span>
+                          <span className="block text-xs text-ink-soft">since {formatDate(d.assignment.from)}</span>
                         </span>
                       ) : (
                         <span className="text-ink-soft">Not assigned</span>

@@ -1,10 +1,10 @@
 import { useState } from "react";
 import { Link, useParams } from "react-router-dom";
 import { EmptyState, ErrorState, FormMessage, LoadingState, PageHeader, Section, Table, Td, Th } from "@/components/ui";
-import { formatInstant } from "../api/date-time";
+import { formatDateTime } from "@/lib/format";
 import { useDeviceAssignments } from "../api/device-assignments";
 import { patientText, useDevice } from "../api/devices";
-import { placementLabel } from "../api/placements";
+import { placementLabel } from "@/lib/placement-labels";
 import { AssignDeviceForm, EndAssignmentForm, SwapPlacementForm } from "./assignment-forms";
 import { AssignmentTimeline } from "./assignment-timeline";
 import { DeviceStatusBadge } from "./device-status-badge";
@@ -73,8 +73,8 @@ export function DevicePage() {
                   <tr key={a.id}>
                     <Td className="font-semibold">{patientText(a)}</Td>
                     <Td>{placementLabel(a.placement)}</Td>
-                    <Td className="tabular">{formatInstant(a.from)}</Td>
-                    <Td className="tabular">{a.to ? formatInstant(a.to) : <strong>ongoing</strong>}</Td>
+                    <Td className="tabular">{formatDateTime(a.from)}</Td>
+                    <Td className="tabular">{a.to ? formatDateTime(a.to) : <strong>ongoing</strong>}</Td>
                   </tr>
                 ))}
               </tbody>
@@ -98,7 +98,7 @@ export function DevicePage() {
           <div className="grid gap-4">
             <p className="text-ink">
               Worn now by <strong>{patientText(open)}</strong> on the <strong>{placementLabel(open.placement).toLowerCase()}</strong>{" "}
-              since {formatInstant(open.from)}.
+              since {formatDateTime(open.from)}.
             </p>
             <SwapPlacementForm key={`swap-${open.id}`} deviceId={d.id} current={open} onDone={setNotice} />
             <EndAssignmentForm key={`end-${open.id}`} deviceId={d.id} current={open} onDone={setNotice} />

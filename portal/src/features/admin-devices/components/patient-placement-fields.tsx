@@ -1,6 +1,6 @@
 import { SelectField } from "@/components/ui";
 import { useAssignablePatients } from "../api/assignable-patients";
-import { PLACEMENT_OPTIONS } from "../api/placements";
+import { PLACEMENT_OPTIONS } from "@/lib/placement-labels";
 
 interface Props {
   patientId: string;

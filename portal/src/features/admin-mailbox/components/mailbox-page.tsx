@@ -1,5 +1,6 @@
 import { useState } from "react";
 import { Badge, Button, EmptyState, ErrorState, LoadingState, PageHeader } from "@/components/ui";
+import { formatDateTimeSeconds } from "@/lib/format";
 import { useMailbox, type CapturedMessage } from "../api/mailbox";
 import { inAppPath, splitLinks } from "../api/message-parts";
 
@@ -43,7 +44,7 @@ function MessageCard({ message, expanded, onToggle }: { message: CapturedMessage
             To <span className="font-semibold text-ink">{message.to.join(", ")}</span> · from {message.from}
           </p>
           <p className="text-xs text-ink-faint tabular">
-            <time dateTime={message.receivedAt}>{new Date(message.receivedAt).toLocaleString("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", second: "2-digit" })}</time>
+            <time dateTime={message.receivedAt}>{formatDateTimeSeconds(message.receivedAt)}</time>
           </p>
         </div>
         <div className="flex items-center gap-2">

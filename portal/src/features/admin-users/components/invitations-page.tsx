@@ -2,7 +2,8 @@ import { useState } from "react";
 import { Badge, EmptyState, ErrorState, LoadingState, PageHeader, SelectField, Table, Td, Th } from "@/components/ui";
 import { useInvitations, type InvitationState, type InvitationSummary } from "../api/invitations";
 import { InviteForm } from "./invite-form";
-import { formatWhen, ROLE_LABEL } from "./labels";
+import { formatDateTime } from "@/lib/format";
+import { roleLabel } from "@/lib/role-labels";
 
 function stateOf(inv: InvitationSummary, now: number) {
   if (inv.acceptedAt) return <Badge tone="good">Accepted</Badge>;
@@ -63,10 +64,10 @@ export function InvitationsPage() {
                 <tr key={inv.id}>
                   <Td className="font-semibold">{inv.displayName}</Td>
                   <Td className="whitespace-nowrap">{inv.email}</Td>
-                  <Td>{ROLE_LABEL[inv.role] ?? inv.role}</Td>
+                  <Td>{roleLabel(inv.role)}</Td>
                   <Td>{stateOf(inv, now)}</Td>
-                  <Td className="whitespace-nowrap tabular text-xs">{formatWhen(inv.createdAt)}</Td>
-                  <Td className="whitespace-nowrap tabular text-xs">{formatWhen(inv.expiresAt)}</Td>
+                  <Td className="whitespace-nowrap tabular text-xs">{formatDateTime(inv.createdAt)}</Td>
+                  <Td className="whitespace-nowrap tabular text-xs">{formatDateTime(inv.expiresAt)}</Td>
                 </tr>
               ))}
             </tbody>

@@ -1,18 +1,13 @@
 import { useState, type FormEvent } from "react";
-import { CONDITIONS, ROLES, SEXES } from "@pendula/ingest-server/contracts";
+import { ROLES, SEXES } from "@pendula/ingest-server/contracts";
 import { Button, FormMessage, SelectField, TextField } from "@/components/ui";
 import { describeError } from "@/lib/api-error";
 import { localCalendarDay } from "@/lib/calendar-day";
+import { CONDITION_OPTIONS } from "@/lib/condition-labels";
 import { invitationInputSchema, useCreateInvitation } from "../api/create-invitation";
 import { usePatientRecords } from "../api/patient-records";
-import { ROLE_LABEL } from "./labels";
+import { ROLE_LABEL } from "@/lib/role-labels";
 
-const CONDITION_LABEL: Record<string, string> = {
-  incomplete_sci: "Incomplete spinal cord injury",
-  stroke: "Stroke",
-  parkinsons: "Parkinson's disease",
-  other: "Other",
-};
 const SEX_LABEL: Record<string, string> = { female: "Female", male: "Male", other: "Other", unknown: "Not recorded" };
 
 type Errors = Record<string, string | undefined>;
@@ -128,9 +123,9 @@ export function InviteForm() {
               </SelectField>
               <SelectField label="Condition" value={condition} onChange={(e) => setCondition(e.target.value)} error={errors["patient.condition"]}>
                 <option value="">Choose</option>
-                {CONDITIONS.map((c) => (
-                  <option key={c} value={c}>
-                    {CONDITION_LABEL[c] ?? c}
+                {CONDITION_OPTIONS.map((c) => (
+                  <option key={c.value} value={c.value}>
+                    {c.label}
                   </option>
                 ))}
               </SelectField>

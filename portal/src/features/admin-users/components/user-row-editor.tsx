@@ -3,7 +3,7 @@ import { Button } from "@/components/ui";
 import { describeError } from "@/lib/api-error";
 import { STAFF_ROLES, updateUserInputSchema, useUpdateUser } from "../api/update-user";
 import type { UserSummary } from "../api/users";
-import { ROLE_LABEL } from "./labels";
+import { ROLE_LABEL } from "@/lib/role-labels";
 
 const SELECT = "rounded-md border border-line bg-paper px-2 py-1 text-sm text-ink";
 

@@ -3,7 +3,9 @@ import { Link, useRouteLoaderData } from "react-router-dom";
 import { ROLES, USER_STATUSES } from "@pendula/ingest-server/contracts";
 import { Badge, Button, EmptyState, ErrorState, LoadingState, PageHeader, SelectField, Table, Td, TextField, Th } from "@/components/ui";
 import { USER_PAGE_SIZE, useUsers, type UserFilters } from "../api/users";
-import { formatWhen, ROLE_LABEL, STATUS_BADGE } from "./labels";
+import { formatDateTime } from "@/lib/format";
+import { ROLE_LABEL, roleLabel } from "@/lib/role-labels";
+import { STATUS_BADGE } from "./labels";
 import { SecondFactorReset } from "./second-factor-reset";
 import { UserRowEditor } from "./user-row-editor";
 
@@ -107,11 +109,11 @@ export function UsersPage() {
                 <tr key={u.id}>
                   <Td className="font-semibold">{u.displayName}</Td>
                   <Td className="whitespace-nowrap">{u.email}</Td>
-                  <Td>{ROLE_LABEL[u.role] ?? u.role}</Td>
+                  <Td>{roleLabel(u.role)}</Td>
                   <Td>
                     <Badge tone={STATUS_BADGE[u.status]?.tone ?? "neutral"}>{STATUS_BADGE[u.status]?.label ?? u.status}</Badge>
                   </Td>
-                  <Td className="whitespace-nowrap tabular text-xs">{formatWhen(u.lastLoginAt)}</Td>
+                  <Td className="whitespace-nowrap tabular text-xs">{formatDateTime(u.lastLoginAt, { missing: "never" })}</Td>
                   <Td>
                     <UserRowEditor key={`${u.id}-${u.role}-${u.status}`} user={u} isSelf={me?.id === u.id} />
                     {me?.id === u.id || u.status !== "active" ? null : <SecondFactorReset userId={u.id} displayName={u.displayName} />}

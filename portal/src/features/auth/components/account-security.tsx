@@ -4,6 +4,7 @@ import { z } from "zod";
 import { Button, ErrorState, FormMessage, LoadingState, PageHeader, Section, TextField } from "@/components/ui";
 import { describeError, isApiError } from "@/lib/api-error";
 import { fieldErrors, formValues } from "@/lib/form";
+import { formatLongDate } from "@/lib/format";
 import { SECOND_FACTOR_SETUP_PATH } from "../api/auth-keys";
 import { useRegenerateRecoveryCodes, useRemoveSecondFactor, useSecondFactorStatus } from "../api/second-factor";
 import { TotpCodeSchema } from "../api/sign-in";
@@ -70,7 +71,7 @@ export function AccountSecurity() {
           <div className="flex flex-col gap-6">
             <p className="text-ink">
               <span className="font-semibold">On</span>
-              {s.enrolledAt ? ` since ${new Date(s.enrolledAt).toLocaleDateString(undefined, { day: "numeric", month: "long", year: "numeric" })}` : ""}.
+              {s.enrolledAt ? ` since ${formatLongDate(s.enrolledAt)}` : ""}.
               {" "}Recovery codes left: <span className="font-semibold">{s.recoveryCodesLeft}</span> of 10.
             </p>
             {s.recoveryCodesLeft <= 3 ? (

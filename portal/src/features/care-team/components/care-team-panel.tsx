@@ -1,7 +1,7 @@
 import { ErrorState, LoadingState, Section } from "@/components/ui";
+import { formatLongDate } from "@/lib/format";
 import { useMyCareTeam, type CareTeamMember } from "../api/care-team";
 
-const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: "numeric", month: "long", year: "numeric" });
 
 /** Who can read the patient's walks, in plain words, with what other roles can and cannot see. */
 export function CareTeamPanel() {
@@ -28,7 +28,7 @@ export function CareTeamPanel() {
               <ul className="list-disc pl-6">
                 {current.map((m) => (
                   <li key={`${m.clinicianName}-${m.since}`}>
-                    {m.clinicianName}, since {day(m.since)}
+                    {m.clinicianName}, since {formatLongDate(m.since)}
                   </li>
                 ))}
               </ul>
@@ -40,7 +40,7 @@ export function CareTeamPanel() {
               <ul className="list-disc pl-6 text-ink-soft">
                 {former.map((m) => (
                   <li key={`${m.clinicianName}-${m.since}`}>
-                    {m.clinicianName}, from {day(m.since)} to {day(m.until!)}
+                    {m.clinicianName}, from {formatLongDate(m.since)} to {formatLongDate(m.until!)}
                   </li>
                 ))}
               </ul>

@@ -4,13 +4,6 @@ import { api } from "@/lib/api-client";
 
 // ingest-server/src/contracts/patients.ts `patientSummary` (copied: the contracts index does not
 // re-export it yet). `flags` is optional: the server may add the open change flags per patient.
-export const CONDITION_LABEL: Record<string, string> = {
-  incomplete_sci: "Incomplete SCI",
-  stroke: "Stroke",
-  parkinsons: "Parkinson's",
-  other: "Other",
-};
-
 export const caseloadRowSchema = z.object({
   id: z.string(),
   displayName: z.string(),

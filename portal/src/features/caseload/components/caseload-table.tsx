@@ -12,7 +12,9 @@ import { Link } from "react-router-dom";
 import { IconAlert, IconCheck, IconInfo, IconSearch, IconSort, IconWave } from "@/components/icons";
 import { Badge, EmptyState, SelectField, TextField } from "@/components/ui";
 import type { BadgeTone } from "@/components/ui/badge";
-import { CONDITION_LABEL, orderedFlags, flagRank, type CaseloadRow, type NamedFlag } from "../api/get-caseload";
+import { conditionLabel } from "@/lib/condition-labels";
+import { formatDateTime, formatNumber, formatPercent } from "@/lib/format";
+import { orderedFlags, flagRank, type CaseloadRow, type NamedFlag } from "../api/get-caseload";
 
 const col = createColumnHelper<CaseloadRow>();
 
@@ -51,7 +53,6 @@ function FlagList({ flags }: { flags: NamedFlag[] }) {
     </ul>
   );
 }
-const fmt = (v: number | null | undefined, digits = 0) => (typeof v === "number" ? v.toFixed(digits) : "—");
 
 function daysAgo(iso: string | null | undefined): string {
   if (!iso) return "never";
@@ -92,7 +93,7 @@ export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
       col.accessor((r) => r.condition ?? "", {
         id: "condition",
         header: "Condition",
-        cell: (c) => CONDITION_LABEL[c.getValue()] ?? (c.getValue() || "—"),
+        cell: (c) => conditionLabel(c.getValue(), { short: true }),
         filterFn: "equalsString",
       }),
       col.accessor((r) => (r.lastUploadAt ? Date.parse(r.lastUploadAt) : null), {
@@ -100,7 +101,7 @@ export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
         header: "Last upload",
         sortingFn: (a, b) => nullsLast(a.getValue("lastUpload"), b.getValue("lastUpload")),
         cell: (c) => (
-          <span title={c.row.original.lastUploadAt ? new Date(c.row.original.lastUploadAt).toLocaleString() : undefined}>{daysAgo(c.row.original.lastUploadAt)}</span>
+          <span title={c.row.original.lastUploadAt ? formatDateTime(c.row.original.lastUploadAt) : undefined}>{daysAgo(c.row.original.lastUploadAt)}</span>
         ),
       }),
       col.accessor((r) => r.adherencePct ?? null, {
@@ -110,7 +111,7 @@ export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
         cell: (c) => {
           const v = c.getValue();
           if (v == null) return "—";
-          return v < 50 ? <Badge tone="caution">{`${Math.round(v)} %`}</Badge> : <span className="tabular">{Math.round(v)} %</span>;
+          return v < 50 ? <Badge tone="caution">{formatPercent(v)}</Badge> : <span className="tabular">{formatPercent(v)}</span>;
         },
       }),
       col.accessor((r) => (r.flags ? flagRank(r.flags) : null), {
@@ -129,19 +130,19 @@ export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
         id: "speed",
         header: "Walking speed (m/s)",
         sortingFn: (a, b) => nullsLast(a.getValue("speed"), b.getValue("speed")),
-        cell: (c) => <span className="tabular">{fmt(c.getValue(), 2)}</span>,
+        cell: (c) => <span className="tabular">{formatNumber(c.getValue(), 2)}</span>,
       }),
       col.accessor((r) => r.latest?.cadenceStepsPerMin ?? null, {
         id: "cadence",
         header: "Cadence (steps/min)",
         sortingFn: (a, b) => nullsLast(a.getValue("cadence"), b.getValue("cadence")),
-        cell: (c) => <span className="tabular">{fmt(c.getValue(), 1)}</span>,
+        cell: (c) => <span className="tabular">{formatNumber(c.getValue(), 1)}</span>,
       }),
       col.accessor((r) => r.latest?.phaseCoordinationIndexPct ?? null, {
         id: "pci",
         header: "PCI (%)",
         sortingFn: (a, b) => nullsLast(a.getValue("pci"), b.getValue("pci")),
-        cell: (c) => <span className="tabular">{fmt(c.getValue(), 1)}</span>,
+        cell: (c) => <span className="tabular">{formatNumber(c.getValue(), 1)}</span>,
       }),
     ];
   }, []);
@@ -176,7 +177,7 @@ export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
           <option value="">All conditions</option>
           {conditions.map((c) => (
             <option key={c} value={c}>
-              {CONDITION_LABEL[c] ?? c}
+              {conditionLabel(c, { short: true })}
             </option>
           ))}
         </SelectField>

@@ -2,6 +2,8 @@ import { useState, type FormEvent } from "react";
 import type { ChartMarker } from "@/components/charts/time-series-chart";
 import { Button, FormMessage, Section, TextAreaField } from "@/components/ui";
 import { describeError } from "@/lib/api-error";
+import { formatCalendarDay } from "@/lib/calendar-day";
+import { formatDateTime } from "@/lib/format";
 import { createNoteInput, useCreateNote, useNotes, useTraining, type Note, type TrainingEntry } from "../api/notes";
 
 const KIND_LABEL: Record<string, string> = {
@@ -75,7 +77,7 @@ export function NotesPanel({ patientId }: { patientId: string }) {
                   <li key={`n-${e.n.id}`} className="py-2.5">
                     <p className="text-xs text-ink-soft">
                       <span className="mr-1 rounded bg-sand-deep px-1 font-bold">N</span>
-                      {new Date(e.n.createdAt).toLocaleString(undefined, { dateStyle: "medium", timeStyle: "short" })}
+                      {formatDateTime(e.n.createdAt)}
                       {e.n.authorName ? ` · ${e.n.authorName}` : ""}
                     </p>
                     <p className="mt-1 whitespace-pre-wrap">{e.n.body}</p>
@@ -84,7 +86,7 @@ export function NotesPanel({ patientId }: { patientId: string }) {
                   <li key={`t-${e.t.id}`} className="py-2.5">
                     <p className="text-xs text-ink-soft">
                       <span className="mr-1 rounded bg-moss-wash px-1 font-bold text-moss-deep">T</span>
-                      {new Date(e.at).toLocaleDateString(undefined, { dateStyle: "medium" })}
+                      {formatCalendarDay(e.t.performedOn)}
                     </p>
                     <p className="mt-1">
                       {KIND_LABEL[e.t.kind] ?? e.t.kind}, {e.t.minutes} min{e.t.description ? ` — ${e.t.description}` : ""}

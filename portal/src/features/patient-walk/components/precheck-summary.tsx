@@ -1,14 +1,8 @@
 import { IconFile } from "@/components/icons";
 import { Badge, Table, Td, Th } from "@/components/ui";
-import { placementWords } from "../precheck/plain-words";
+import { formatDuration } from "@/lib/format";
+import { placementWords } from "@/lib/placement-labels";
 import type { PrecheckSummary } from "../precheck/precheck-types";
-
-export function formatDuration(s: number | null): string {
-  if (s === null || !Number.isFinite(s)) return "unknown";
-  const m = Math.floor(s / 60);
-  const sec = Math.round(s - m * 60);
-  return m > 0 ? `${m} min ${sec} s` : `${sec} s`;
-}
 
 const VERDICT = {
   ready: { tone: "good", label: "Looks good", text: "This recording looks ready to send." },

@@ -1,6 +1,7 @@
 import { Link } from "react-router-dom";
 import { IconCheck, IconClock } from "@/components/icons";
 import { Badge, ErrorState, Spinner } from "@/components/ui";
+import { formatPercent } from "@/lib/format";
 import { useSessionStatus } from "../api/get-session-status";
 import type { FileProgress } from "../api/upload-session";
 
@@ -13,7 +14,7 @@ export function FileProgressList({ progress }: { progress: FileProgress[] }) {
           <li key={p.name} className="flex flex-col gap-1">
             <span className="flex justify-between gap-3 text-sm">
               <span className="break-all font-semibold">{p.name}</span>
-              <span className="tabular text-ink-soft">{pct === 100 ? "sent" : `${pct} %`}</span>
+              <span className="tabular text-ink-soft">{pct === 100 ? "sent" : formatPercent(pct)}</span>
             </span>
             <progress className="h-2 w-full overflow-hidden rounded accent-moss" max={100} value={pct} aria-label={`${p.name} upload`}>
               {pct} %
@@ -55,7 +56,7 @@ export function ProcessingStatus({ sessionId, duplicate }: { sessionId: string; 
         <p className="flex items-center gap-3">
           {status === "queued" ? <IconClock /> : <Spinner size="sm" label="" />}
           <span>
-            {status === "queued" ? "Sent. Waiting to be measured…" : `Being measured${data?.progressPct ? ` (${Math.round(data.progressPct)} %)` : ""}…`}
+            {status === "queued" ? "Sent. Waiting to be measured…" : `Being measured${data?.progressPct ? ` (${formatPercent(data.progressPct)})` : ""}…`}
           </span>
         </p>
       )}

@@ -2,6 +2,7 @@ import { useState } from "react";
 import { IconInfo } from "@/components/icons";
 import { Button, ErrorState, FormMessage, PageHeader, TextField } from "@/components/ui";
 import { describeError, isApiError } from "@/lib/api-error";
+import { localDateTimeInputValue } from "@/lib/calendar-day";
 import { useUploadSession, type FileProgress } from "../api/upload-session";
 import { PrecheckCancelled, usePrecheck } from "../precheck/use-precheck";
 import { FileDrop } from "./file-drop";
@@ -11,13 +12,6 @@ import { SafetyChecklist } from "./safety-checklist";
 import { FileProgressList, ProcessingStatus } from "./upload-status";
 
 type Step = "checklist" | "files";
-
-/** Now as the value of a datetime-local input (local time, minutes). */
-function localNow(): string {
-  const d = new Date();
-  d.setSeconds(0, 0);
-  return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 16);
-}
 
 /** Safety checklist → files → in-browser check → upload with progress → processing status. */
 export function WeeklyWalk() {
@@ -29,7 +23,7 @@ export function WeeklyWalk() {
   // BIDS Motion files carry no clock time (the standard keeps it in a separate scans file), so the
   // person says when they walked; sensor CSV files carry their own start time.
   const hasBids = files.some((f) => /_motion\.tsv$/i.test(f.name));
-  const [walkedAt, setWalkedAt] = useState(localNow);
+  const [walkedAt, setWalkedAt] = useState(() => localDateTimeInputValue());
   const walkedAtValid = !hasBids || (walkedAt !== "" && !Number.isNaN(new Date(walkedAt).getTime()) && new Date(walkedAt).getTime() <= Date.now() + 60_000);
 
   function addFiles(added: File[]) {
@@ -77,7 +71,7 @@ export function WeeklyWalk() {
                 label="When did you do this walk?"
                 hint="BIDS files do not record the time of the walk, so Pendula takes it from here."
                 value={walkedAt}
-                max={localNow()}
+                max={localDateTimeInputValue()}
                 onChange={(e) => setWalkedAt(e.target.value)}
                 error={walkedAtValid ? null : "Enter the date and time of the walk (not in the future)."}
                 required

@@ -1,21 +1,8 @@
 import type { QualityItem } from "@pendula/signal";
+import { placementWords } from "@/lib/placement-labels";
 
 // Patient-facing wording for each quality code: what happened and what to try, without jargon and
 // without alarm. The analysis' own message stays attached for the care team.
-const PLACE_WORDS: Record<string, string> = {
-  left_shank: "left lower leg",
-  right_shank: "right lower leg",
-  left_wrist: "left wrist",
-  right_wrist: "right wrist",
-  left_foot: "left foot",
-  right_foot: "right foot",
-  lower_back: "lower back",
-};
-
-export function placementWords(placement: string | null | undefined): string {
-  if (!placement) return "unknown position";
-  return PLACE_WORDS[placement] ?? placement.replace(/_/g, " ");
-}
 
 export function plainQuality(item: Pick<QualityItem, "code" | "placement">): string {
   const where = item.placement ? ` (${placementWords(item.placement)})` : "";

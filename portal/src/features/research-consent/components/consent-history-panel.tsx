@@ -1,8 +1,9 @@
 import { useState, type FormEvent } from "react";
 import { Badge, Button, ErrorState, FormMessage, LoadingState, SelectField, Table, Td, TextField, Th } from "@/components/ui";
 import { describeError } from "@/lib/api-error";
+import { formatDateTime } from "@/lib/format";
 import { useConsent, useRecordConsent } from "../api/consent";
-import { dayAndTime, describeConsentEvent } from "./consent-words";
+import { describeConsentEvent } from "./consent-words";
 
 const MIN_REASON = 10;
 
@@ -42,7 +43,7 @@ export function ConsentHistoryPanel({ patientId, role }: { patientId: string; ro
           <p>
             {consent.data.inForce ? (
               <Badge tone="good" icon="✓">
-                In force since {dayAndTime(consent.data.since!)}
+                In force since {formatDateTime(consent.data.since!)}
               </Badge>
             ) : consent.data.awaitingConfirmation ? (
               <Badge tone="caution" icon="…">
@@ -70,7 +71,7 @@ export function ConsentHistoryPanel({ patientId, role }: { patientId: string; ro
               <tbody>
                 {consent.data.events.map((e) => (
                   <tr key={e.id}>
-                    <Td className="whitespace-nowrap tabular">{dayAndTime(e.at)}</Td>
+                    <Td className="whitespace-nowrap tabular">{formatDateTime(e.at)}</Td>
                     <Td>{describeConsentEvent(e)}</Td>
                     <Td className="text-sm text-ink-soft">{e.reason ?? "—"}</Td>
                   </tr>

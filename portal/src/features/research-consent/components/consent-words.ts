@@ -7,9 +7,6 @@ const ROLE_WORDS: Record<ConsentEvent["recorderRole"], string> = {
   migration: "earlier yes/no setting",
 };
 
-export const dayAndTime = (iso: string) =>
-  new Date(iso).toLocaleString(undefined, { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit" });
-
 /** One line of the history in words: what changed, who recorded it and whether it counts. */
 export function describeConsentEvent(e: ConsentEvent): string {
   const who = e.recordedBy ? `${e.recordedBy.displayName}, ${ROLE_WORDS[e.recorderRole]}` : `the ${ROLE_WORDS[e.recorderRole]}`;

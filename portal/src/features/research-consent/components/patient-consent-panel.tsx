@@ -1,10 +1,9 @@
 import { useState } from "react";
 import { Button, ErrorState, FormMessage, LoadingState, Section } from "@/components/ui";
 import { describeError } from "@/lib/api-error";
+import { formatDateTime, formatLongDate } from "@/lib/format";
 import { useConsent, useRecordConsent } from "../api/consent";
-import { dayAndTime } from "./consent-words";
 
-const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: "numeric", month: "long", year: "numeric" });
 
 /**
  * The patient's own say over research use of their walks, in plain words. Saying yes or no is
@@ -31,7 +30,7 @@ export function PatientConsentPanel({ patientId }: { patientId: string }) {
           {consent.data.inForce ? (
             <p className="font-semibold text-moss-deep">
               <span aria-hidden="true">✓ </span>
-              You said yes on {day(consent.data.since!)}. Walks you do from then on may be used for research.
+              You said yes on {formatLongDate(consent.data.since!)}. Walks you do from then on may be used for research.
             </p>
           ) : consent.data.awaitingConfirmation ? (
             <p className="font-semibold text-ink">
@@ -85,7 +84,7 @@ export function PatientConsentPanel({ patientId }: { patientId: string }) {
               <ul className="mt-2 list-disc pl-6">
                 {consent.data.events.map((e) => (
                   <li key={e.id}>
-                    {dayAndTime(e.at)}: {e.kind === "given" ? (e.counts ? "yes" : "noted by your care team, waiting for you") : "no"}
+                    {formatDateTime(e.at)}: {e.kind === "given" ? (e.counts ? "yes" : "noted by your care team, waiting for you") : "no"}
                     {e.recorderRole === "patient" ? " (you)" : ""}
                   </li>
                 ))}
