@@ -14,6 +14,8 @@ import type { Knex } from "knex";
 import type { AppDeps } from "../deps";
 import { metricRows } from "../metrics/metric-catalog";
 import { findSession, listRawFiles, type RawFileRow } from "../sessions/sessions.repository";
+import { ObjectNotFoundError } from "../storage/object-storage";
+import { parsedRecordingsKey, ParsedRecordingsMismatch, readParsedRecordings } from "../uploads/parsed-recordings";
 import { sagittalTraces, type SessionTrace } from "./session-traces";
 
 export type ProcessDeps = Pick<AppDeps, "db" | "storage">;
@@ -39,7 +41,7 @@ export async function processSession(deps: ProcessDeps, sessionId: string): Prom
 
   const files = await listRawFiles(deps.db, sessionId);
   if (files.length === 0) throw new Error(`session ${sessionId} has no raw files`);
-  const recordings = await loadRecordings(deps, files);
+  const recordings = await loadRecordings(deps, files, parsedRecordingsKey(session.patient_id, sessionId));
   await setProgress(deps.db, sessionId, 30);
 
   const { sagittal, ...analysis } = analyze(recordings, {
@@ -81,7 +83,9 @@ async function setProgress(db: Knex, sessionId: string, pct: number): Promise<vo
  * upload-time placements (from the device assignments; a file header's placement is not trusted)
  * and each BIDS set's acquisition time as recorded at upload.
  */
-export async function loadRecordings(deps: Pick<ProcessDeps, "storage">, files: RawFileRow[]): Promise<SensorRecording[]> {
+export async function loadRecordings(deps: Pick<ProcessDeps, "storage">, files: RawFileRow[], parsedKey?: string): Promise<SensorRecording[]> {
+  const parsed = parsedKey === undefined ? undefined : await loadParsedRecordings(deps, files, parsedKey);
+  if (parsed) return parsed;
   const input: UploadFile[] = [];
   for (const f of files) input.push({ name: f.original_name, bytes: await deps.storage.get(f.storage_key) });
   const startOf = new Map(files.map((f) => [f.original_name, new Date(f.start_utc).toISOString()]));
@@ -89,11 +93,45 @@ export async function loadRecordings(deps: Pick<ProcessDeps, "storage">, files: 
   const first = set.errors[0];
   // Bad input, as the reader words it: session-job fails it at once (a retry cannot fix it).
   if (first) throw new SignalInputError(first.message, first.file, first.line, first.column);
-  return set.recordings.map((r, i) => {
-    const f = files[set.recordingFile[i]!]!;
+  return withStoredPlacements(set.recordings, set.recordingFile, files);
+}
+
+function withStoredPlacements(recordings: SensorRecording[], recordingFile: number[], files: RawFileRow[]): SensorRecording[] {
+  return recordings.map((r, i) => {
+    const f = files[recordingFile[i]!]!;
     const placement = f.format === "bids-motion" ? (f.recording_placements?.[r.deviceSerial] ?? f.placement) : f.placement;
     return { ...r, placement: placement as Placement };
   });
+}
+
+/**
+ * The recordings the upload's parse thread stored (uploads/parsed-recordings.ts): the same arrays
+ * readUploadSet gave at upload, so analysis input is bit-identical to parsing the originals, for a
+ * download of about two thirds of the text's size and no parsing. Undefined — read the originals —
+ * when the session has none (stored before they existed) or they belong to other files or another
+ * version; any other storage error is thrown, so the job is retried.
+ */
+async function loadParsedRecordings(deps: Pick<ProcessDeps, "storage">, files: RawFileRow[], key: string): Promise<SensorRecording[] | undefined> {
+  // The uploaded files are the record: with one of them gone the session must fail as it would
+  // without this cache, not be analysed from a copy nobody could reprocess from.
+  const present = await Promise.all(files.map((f) => deps.storage.exists(f.storage_key)));
+  if (present.includes(false)) return undefined;
+  let bytes: Buffer;
+  try {
+    bytes = await deps.storage.get(key);
+  } catch (err) {
+    if (err instanceof ObjectNotFoundError) return undefined;
+    throw err;
+  }
+  try {
+    const { recordings, recordingFile } = readParsedRecordings(bytes, files.map((f) => f.sha256));
+    if (recordingFile.some((i) => files[i] === undefined)) throw new ParsedRecordingsMismatch("a recording names a file the session does not have");
+    return withStoredPlacements(recordings, recordingFile, files);
+  } catch (err) {
+    if (!(err instanceof ParsedRecordingsMismatch)) throw err;
+    console.error(`[worker] ${key} not used (${err.message}); reading the uploaded files`);
+    return undefined;
+  }
 }
 
 async function writeResults(

@@ -84,7 +84,9 @@ export class S3ObjectStorage implements ObjectStorage {
     try {
       const out = await this.client.send(new GetObjectCommand({ Bucket: this.bucket, Key: key }));
       if (!out.Body) throw new ObjectNotFoundError(key);
-      return Buffer.from(await out.Body.transformToByteArray());
+      // A view, not a copy: a session's parsed recordings are tens of megabytes.
+      const bytes = await out.Body.transformToByteArray();
+      return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
     } catch (err) {
       if (err instanceof NoSuchKey || isNotFound(err)) throw new ObjectNotFoundError(key);
       throw err;

@@ -2,19 +2,22 @@ import { readFile } from "node:fs/promises";
 import type { Placement } from "@pendula/signal";
 import { HttpError } from "../http-error";
 import { parseUpload, type StoredFormat } from "./parse-upload";
+import { writeParsedRecordings } from "./parsed-recordings";
 
 /**
  * One upload's parse, as run inside a parse thread: the files are read from the request's private
  * folder and handed to the upload's own parser (`parseUpload`), so messages and status codes are
  * exactly those of the sessions route. Only what the request goes on to use crosses back to the
  * main thread — names, digests, formats and each recording's serial, placement and start time. The
- * samples stay behind: the processing worker reads the stored raw files again, so returning
- * megabytes of typed arrays would only cost a copy (or a transfer) and main-thread memory.
+ * samples do not cross: with `parsedPath` the thread writes them to that file (parsed-recordings.ts)
+ * for the processing worker, so the main thread never holds megabytes of typed arrays.
  */
 export interface ParseJob {
   files: Array<{ originalName: string; path: string }>;
   maxChars: number;
   bidsStartUtc?: string;
+  /** Where to write the parsed recordings (in the request's private folder); nothing is written if absent or if the upload is refused. */
+  parsedPath?: string;
 }
 
 export interface ParsedFileSummary {
@@ -56,6 +59,7 @@ export type ParseReply = { ok: true; summary: UploadSummary } | { ok: false; htt
 export async function runParseJob(job: ParseJob): Promise<UploadSummary> {
   const incoming = await Promise.all(job.files.map(async (f) => ({ originalName: f.originalName, buffer: await readFile(f.path) })));
   const parsed = parseUpload(incoming, { maxChars: job.maxChars, bidsStartUtc: job.bidsStartUtc });
+  if (job.parsedPath) writeParsedRecordings(job.parsedPath, parsed.recordings, parsed.recordingFile, parsed.files.map((f) => f.sha256));
   return {
     files: parsed.files.map((f, i) => ({
       originalName: f.originalName,

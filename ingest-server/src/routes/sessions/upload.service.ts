@@ -1,4 +1,5 @@
 import { randomUUID } from "node:crypto";
+import path from "node:path";
 import type { Request } from "express";
 import { audit } from "../../audit/audit";
 import { assertPatientAccess } from "../../auth/patient-access";
@@ -8,6 +9,7 @@ import type { AuthContext } from "../../middleware/authenticate";
 import { uploadParsePool } from "../../uploads/parse-pool";
 import type { UploadSummary } from "../../uploads/parse-job";
 import { invalidFile } from "../../uploads/parse-upload";
+import { parsedRecordingsKey } from "../../uploads/parsed-recordings";
 import {
   findDeviceAt,
   findSession,
@@ -101,6 +103,16 @@ async function mapPlacements(deps: AppDeps, patientId: string, upload: UploadSum
   return mapped;
 }
 
+/** A cache of the parse, not the record: if it cannot be stored the worker parses the originals. */
+async function storeParsedRecordings(deps: AppDeps, key: string, file: string, stored: string[]): Promise<void> {
+  stored.push(key);
+  try {
+    await deps.storage.putFile(key, file, "application/octet-stream");
+  } catch (err) {
+    console.error(`[upload] parsed recordings not stored (${key}); the worker will parse the uploaded files`, err);
+  }
+}
+
 /** `<DeviceSerialNumber>:<tracked point>` → its two parts (the serial itself may hold colons). */
 function splitBidsSerial(serial: string): [string, string] {
   const at = serial.lastIndexOf(":");
@@ -112,7 +124,9 @@ function splitBidsSerial(serial: string): [string, string] {
  * 1. parse and validate everything in a parse thread, from the request's private folder (a 4xx
  *    here stores nothing; the folder goes when the response closes);
  * 2. same patient + same content → the existing session (200 duplicate);
- * 3. raw files streamed from disk to object storage under keys unique to this attempt;
+ * 3. raw files streamed from disk to object storage under keys unique to this attempt, all at
+ *    once, with the parse thread's recordings beside them (the worker reads those instead of
+ *    parsing the text again; best effort: without them it parses the originals);
  * 4. session + raw_files rows in one transaction; if it fails, this attempt's objects are deleted.
  *    A concurrent identical upload loses on the unique (patient_id, content_sha256) constraint,
  *    deletes its own objects and answers with the winner;
@@ -123,8 +137,11 @@ export async function uploadSession(deps: AppDeps, req: Request, input: UploadIn
   const patientId = resolvePatient(input.auth, input.patientId);
   await assertPatientAccess(deps.db, input.auth, patientId, "clinical");
 
+  // The parse thread writes the parsed recordings next to the bodies, in the request's private folder.
+  const parsedPath = input.files[0] ? path.join(path.dirname(input.files[0].path), "parsed-recordings") : undefined;
   const upload = await uploadParsePool().run({
     files: input.files,
+    ...(parsedPath === undefined ? {} : { parsedPath }),
     maxChars: deps.config.upload.maxFileBytes,
     ...(input.bidsStartUtc === undefined ? {} : { bidsStartUtc: input.bidsStartUtc }),
   });
@@ -169,11 +186,18 @@ export async function uploadSession(deps: AppDeps, req: Request, input: UploadIn
     await Promise.allSettled(stored.map((key) => deps.storage.delete(key)));
   };
   try {
-    for (const [i, row] of rows.entries()) {
+    // In parallel: the storage round trips overlap instead of adding up. Every key is recorded
+    // before its PUT starts (deleting a missing key is no error), so a failure of any one removes
+    // the others, including a PUT that timed out on our side but completed on the storage's.
+    const puts = rows.map(async (row, i) => {
       const contentType = upload.files[i]!.originalName.toLowerCase().endsWith(".json") ? "application/json" : "text/plain";
-      await deps.storage.putFile(row.storage_key, upload.files[i]!.path, contentType);
       stored.push(row.storage_key);
-    }
+      await deps.storage.putFile(row.storage_key, upload.files[i]!.path, contentType);
+    });
+    if (parsedPath) puts.push(storeParsedRecordings(deps, parsedRecordingsKey(patientId, sessionId), parsedPath, stored));
+    const outcomes = await Promise.allSettled(puts);
+    const failed = outcomes.find((o): o is PromiseRejectedResult => o.status === "rejected");
+    if (failed) throw failed.reason;
     await insertSessionWithFiles(
       deps.db,
       { id: sessionId, patientId, recordedAt, uploadedBy: input.auth.userId, contentSha256: upload.contentSha256 },

@@ -46,7 +46,7 @@ describe("POST /api/sessions with a BIDS Motion set", () => {
     const after = await storedCounts(ctx);
     expect(after.sessions - before.sessions).toBe(1);
     expect(after.files - before.files).toBe(3);
-    expect(after.objects - before.objects).toBe(3);
+    expect(after.objects - before.objects).toBe(4); // and the parsed recordings (uploads/parsed-recordings.ts)
     const rows = await ctx.db("raw_files").where({ session_id: res.body.id }).orderBy("original_name");
     expect(rows.map((r) => r.format)).toEqual(["bids-motion", "bids-motion", "bids-motion"]);
     const data = rows.find((r) => r.original_name.endsWith("_motion.tsv"))!;

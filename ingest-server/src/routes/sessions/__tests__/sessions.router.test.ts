@@ -5,6 +5,7 @@ import { handleProcessSessionJob } from "../../../processing/session-job";
 import { expectRevalidatedAnswer } from "../../../testing/cached-answer";
 import { createTestContext, type SeededUser, type TestContext } from "../../../testing/harness";
 import { listObjectKeys, seedDevices, storedCounts, synthFor, upload } from "../../../testing/session-fixtures";
+import { parsedRecordingsKey } from "../../../uploads/parsed-recordings";
 
 let ctx: TestContext;
 let clinician: SeededUser;
@@ -48,7 +49,8 @@ describe("POST /api/sessions → processSession → GET /api/sessions/:id", () =
     const after = await storedCounts(ctx);
     expect(after.sessions - before.sessions).toBe(1);
     expect(after.files - before.files).toBe(4);
-    expect(after.objects - before.objects).toBe(4);
+    // The four files and, beside them, the parse thread's recordings (uploads/parsed-recordings.ts).
+    expect(after.objects - before.objects).toBe(5);
     const files = await ctx.db("raw_files").where({ session_id: sessionId }).orderBy("placement");
     expect(files.map((f) => [f.placement, f.device_serial])).toEqual(
       ["left_shank", "left_wrist", "right_shank", "right_wrist"].map((p) => [p, serials[p]]),
@@ -163,10 +165,14 @@ describe("concurrent identical uploads", () => {
     const after = await storedCounts(ctx);
     expect(after.sessions - before.sessions).toBe(1);
     expect(after.files - before.files).toBe(4);
-    expect(after.objects - before.objects).toBe(4);
+    expect(after.objects - before.objects).toBe(5);
+    // Every object is a stored file's, or the parsed recordings of a session that has files.
     const keys = await listObjectKeys(ctx);
-    const rows = await ctx.db("raw_files").pluck("storage_key");
-    expect(keys).toEqual([...rows].sort());
+    const rows: string[] = await ctx.db("raw_files").pluck("storage_key");
+    const parsed = (await ctx.db("walk_sessions").whereIn("id", ctx.db("raw_files").select("session_id")).select("id", "patient_id")).map((s) =>
+      parsedRecordingsKey(s.patient_id, s.id),
+    );
+    expect(keys).toEqual([...rows, ...parsed].sort());
   });
 });
 
