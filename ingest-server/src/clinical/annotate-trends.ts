@@ -6,7 +6,7 @@ import { bandNote, bandsFor, type BandPopulation } from "./reference-bands";
 import { gatePhaseSeries } from "./phase-gate";
 import { gateFewStrides } from "./few-strides";
 import { importantChangeFor, type Baseline, type ImportantChange, type Mdc } from "./reliability";
-import { resolveMetricKey, type MetricDirection } from "./metric-catalog";
+import { metricDefinition, type MetricDirection } from "../contracts/metric-catalog";
 
 export interface TrendPointInput {
   sessionId: string;
@@ -97,11 +97,11 @@ export function annotateTrends(input: AnnotateTrendsInput): AnnotatedTrends {
   // A mean relative phase is compared only where its session's coupling strength shows a real phase relation.
   // Variability from too few strides is shown but not compared (few-strides.ts).
   const gated = gateFewStrides(gatePhaseSeries(input.metrics));
-  const speedSeries = input.metrics.find((m) => resolveMetricKey(m.key)?.base === "walkingSpeedMPerS");
+  const speedSeries = input.metrics.find((m) => metricDefinition(m.key)?.base === "walkingSpeedMPerS");
   const speedBySession = new Map(speedSeries?.points.map((p) => [p.sessionId, p.value]) ?? []);
   const metrics = gated.map((m): AnnotatedMetric => {
     const change = flagMetricChanges(m.key, m.points, patient.condition, options);
-    const speedDependent = resolveMetricKey(m.key)?.info.speedDependent;
+    const speedDependent = metricDefinition(m.key)?.speedDependent;
     const withSpeed = (p: FlaggedPoint) => {
       const speed = speedBySession.get(p.sessionId);
       return speedDependent && speed !== undefined && Number.isFinite(speed) ? { ...p, walkingSpeedMPerS: speed } : p;

@@ -9,12 +9,11 @@
  * prompt to look at the recording and the patient, not a diagnosis.
  */
 import { createHash } from "node:crypto";
-import { metricDefinition } from "../metrics/metric-catalog";
+import { METRICS, metricDefinition, PAIR_WORDS, type ArmLegPair } from "../contracts/metric-catalog";
 import { annotateTrends, type TrendPointInput } from "./annotate-trends";
 import { DEFAULT_BASELINE_SESSIONS } from "./change-flags";
 import { DEFAULT_CONFIRM_SESSIONS, MODE_1_TO_1_MAX_RATIO, MODE_2_TO_1_MIN_RATIO } from "./coordination-events";
 import { MIN_STEPS_FOR_VARIABILITY } from "./few-strides";
-import { METRIC_INFO, resolveMetricKey, type ArmLegPair } from "./metric-catalog";
 import { PHASE_GATE_ALPHA, PHASE_GATE_DEFAULT_STRIDES } from "./phase-gate";
 import { MDC95_FACTOR, PUBLISHED_MDC } from "./reliability";
 
@@ -53,10 +52,8 @@ export const CASELOAD_FLAG_SEVERITY: Record<CaseloadFlagKind, number> = {
   improved: 10,
 };
 
-const PAIR_WORDS: Record<ArmLegPair, string> = {
-  leftArmRightLeg: "left arm – right leg",
-  rightArmLeftLeg: "right arm – left leg",
-};
+/** Spaced dashes here: the pair stands in brackets after a sentence ("… (left arm – right leg)"). */
+const pairWords = (pair: ArmLegPair) => PAIR_WORDS[pair].replace("–", " – ");
 
 /** The metric's short name: the server label without its unit in brackets, or the key. */
 function metricName(metricKey: string): string {
@@ -64,9 +61,9 @@ function metricName(metricKey: string): string {
   return label ? label.replace(/\s*\([^)]*\)\s*$/, "") : metricKey;
 }
 
-function pairWords(metricKey: string): string {
-  const pair = resolveMetricKey(metricKey)?.pair;
-  return pair ? ` (${PAIR_WORDS[pair]})` : "";
+function pairSuffix(metricKey: string): string {
+  const pair = metricDefinition(metricKey)?.pair;
+  return pair ? ` (${pairWords(pair)})` : "";
 }
 
 export function describeCaseloadFlag(f: CaseloadFlagInput): DescribedCaseloadFlag {
@@ -77,15 +74,15 @@ export function describeCaseloadFlag(f: CaseloadFlagInput): DescribedCaseloadFla
     case "improved":
       return of("improved", `${metricName(f.metricKey)} better than baseline`);
     case "changed":
-      return of("phase-shift", `Arm–leg phase shifted${pairWords(f.metricKey)}`);
+      return of("phase-shift", `Arm–leg phase shifted${pairSuffix(f.metricKey)}`);
     case "few-strides":
       return of("few-strides", `${metricName(f.metricKey)} not compared: too few strides`);
     case "pci-rise":
       return of("left-right-coordination", "Left–right coordination (PCI) worse than baseline");
     case "coupling-drop":
-      return of("coupling-drop", `Arm–leg coupling weaker than baseline${pairWords(f.metricKey)}`);
+      return of("coupling-drop", `Arm–leg coupling weaker than baseline${pairSuffix(f.metricKey)}`);
     case "arm-leg-mode-change":
-      return of("coordination-change", `Arm–leg coordination mode changed${pairWords(f.metricKey)}`);
+      return of("coordination-change", `Arm–leg coordination mode changed${pairSuffix(f.metricKey)}`);
     default:
       return of("other", `${metricName(f.metricKey)}: ${f.flag}`);
   }
@@ -126,7 +123,8 @@ export const CASELOAD_FLAG_RULES_VERSION = `${CASELOAD_FLAG_RULES_REVISION}.${cr
   .update(
     JSON.stringify({
       PUBLISHED_MDC,
-      METRIC_INFO,
+      // What the rules read from the catalogue: each key's base, direction, and angle and speed handling.
+      METRICS: METRICS.map((m) => [m.key, m.base, m.direction, m.circular ?? false, m.speedDependent?.citation ?? null]),
       MDC95_FACTOR,
       DEFAULT_BASELINE_SESSIONS,
       DEFAULT_CONFIRM_SESSIONS,

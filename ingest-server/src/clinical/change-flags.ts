@@ -20,9 +20,10 @@
  * Points carrying `excludedReason` (e.g. a phase whose coupling strength did not show a real phase
  * relation) are kept for display but take no part in the baseline, the MDC or the flags.
  */
-import { resolveMetricKey, type MetricDirection } from "./metric-catalog";
+import { metricDefinition, type MetricDirection } from "../contracts/metric-catalog";
 import { resolveMdc, type Baseline, type Mdc } from "./reliability";
-import { circularDeviationSd, circularDifferenceDeg, circularSummary, mean, olsFit, sampleSd } from "./statistics";
+import { mean, standardDeviation } from "@pendula/signal";
+import { circularDeviationSd, circularDifferenceDeg, circularSummary, olsFit, requireFinite } from "./statistics";
 
 export type ChangeFlag = "improved" | "worsened" | "within-error" | "changed";
 
@@ -106,7 +107,12 @@ export function computeBaseline(
     if (Number.isNaN(meanDeg)) return null;
     return { mean: meanDeg, sd: circularDeviationSd(values), n: values.length };
   }
-  return { mean: mean(values), sd: sampleSd(values), n: values.length };
+  requireFinite(values, "baseline");
+  const baselineMean = mean(values);
+  const sd = standardDeviation(values, 1);
+  // Null only below 2 values, which the count check above rules out; no baseline then, as with too few sessions.
+  if (baselineMean === null || sd === null) return null;
+  return { mean: baselineMean, sd, n: values.length };
 }
 
 export function slopeFlag(
@@ -154,7 +160,7 @@ export function flagMetricChanges(
 ): MetricChange {
   const n = options.baselineSessions ?? DEFAULT_BASELINE_SESSIONS;
   const ordered = orderSeries(points);
-  const info = resolveMetricKey(metricKey)?.info;
+  const info = metricDefinition(metricKey);
   const circular = info?.circular === true;
   const baseline = computeBaseline(ordered, n, circular);
   const mdc = resolveMdc(metricKey, condition, baseline);

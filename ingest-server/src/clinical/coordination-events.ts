@@ -21,7 +21,7 @@
  * - `pci-rise`: left–right PCI rises more than MDC95 above its baseline mean; same once-and-re-arm
  *   rule (re-armed below mean + MDC95/2).
  */
-import { resolveMetricKey, type ArmLegPair } from "./metric-catalog";
+import { metricDefinition, PAIR_WORDS, type ArmLegPair } from "../contracts/metric-catalog";
 import { computeBaseline, orderSeries, type SeriesPoint } from "./change-flags";
 import { resolveMdc } from "./reliability";
 
@@ -71,10 +71,8 @@ export function lockingMode(ratio: number): LockingMode | null {
   return null;
 }
 
-const PAIR_LABEL: Record<ArmLegPair, string> = {
-  leftArmRightLeg: "left arm – right leg",
-  rightArmLeftLeg: "right arm – left leg",
-};
+/** The catalogue's pair words with spaced dashes, as they stand in brackets after a sentence. */
+const pairLabel = (pair: ArmLegPair) => PAIR_WORDS[pair].replace("–", " – ");
 
 /** Cadence and walking-speed series of the same patient, used to tell a pace-driven switch from others. */
 export interface PaceSeries {
@@ -124,8 +122,8 @@ export function detectModeChanges(
   pace: PaceSeries = {},
 ): CoordinationEvent[] {
   if (!Number.isInteger(confirmSessions) || confirmSessions < 1) throw new RangeError("confirmSessions must be an integer ≥ 1");
-  const pair = resolveMetricKey(metricKey)?.pair;
-  const where = pair ? ` (${PAIR_LABEL[pair]})` : "";
+  const pair = metricDefinition(metricKey)?.pair;
+  const where = pair ? ` (${pairLabel(pair)})` : "";
   const events: CoordinationEvent[] = [];
   let current: LockingMode | null = null;
   let candidate: LockingMode | null = null;
@@ -227,7 +225,7 @@ export function detectCoordinationEvents(
   options: CoordinationOptions = {},
 ): CoordinationEvent[] {
   const events: CoordinationEvent[] = [];
-  const seriesOf = (base: string) => metrics.find((m) => resolveMetricKey(m.key)?.base === base)?.points;
+  const seriesOf = (base: string) => metrics.find((m) => metricDefinition(m.key)?.base === base)?.points;
   const pace: PaceSeries = {
     cadence: seriesOf(CADENCE_KEY),
     walkingSpeed: seriesOf(WALKING_SPEED_KEY),
@@ -235,7 +233,7 @@ export function detectCoordinationEvents(
     baselineSessions: options.baselineSessions,
   };
   for (const m of metrics) {
-    const base = resolveMetricKey(m.key)?.base;
+    const base = metricDefinition(m.key)?.base;
     if (base === "frequencyRatio") events.push(...detectModeChanges(m.key, m.points, options.confirmSessions ?? DEFAULT_CONFIRM_SESSIONS, pace));
     else if (base === "couplingStrength") events.push(...detectBandExit("coupling-drop", m.key, m.points, options));
     else if (base === "phaseCoordinationIndexPct") events.push(...detectBandExit("pci-rise", m.key, m.points, options));

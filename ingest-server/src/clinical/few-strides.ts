@@ -10,7 +10,7 @@
  * they take no part in baselines, MDC or flags, and the caseload can say why a session was not
  * compared. Points without a count are compared as before (older sessions stored no count).
  */
-import { resolveMetricKey, type BaseMetric } from "./metric-catalog";
+import { metricDefinition, type BaseMetric } from "../contracts/metric-catalog";
 import type { SeriesPoint } from "./change-flags";
 
 export const MIN_STEPS_FOR_VARIABILITY = 30;
@@ -19,7 +19,7 @@ const VARIABILITY_METRICS = new Set<BaseMetric>(["strideTimeCvPct", "swingTimeCv
 
 /** Minimum count for this key, or null when the key is not a variability metric. */
 export function minimumCountFor(metricKey: string): number | null {
-  const r = resolveMetricKey(metricKey);
+  const r = metricDefinition(metricKey);
   if (!r || !VARIABILITY_METRICS.has(r.base)) return null;
   return r.side ? MIN_STEPS_FOR_VARIABILITY / 2 : MIN_STEPS_FOR_VARIABILITY;
 }

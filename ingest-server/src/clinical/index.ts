@@ -6,7 +6,6 @@ export * from "./change-flags";
 export * from "./coordination-events";
 export * from "./few-strides";
 export * from "./iso-week";
-export * from "./metric-catalog";
 export * from "./phase-gate";
 export * from "./reference-bands";
 export * from "./reliability";

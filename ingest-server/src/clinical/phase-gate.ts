@@ -12,7 +12,7 @@
  * A phase point that fails, or has no R, is kept for display with `excludedReason` and takes no
  * part in baselines, MDC or flags.
  */
-import { resolveMetricKey } from "./metric-catalog";
+import { metricDefinition } from "../contracts/metric-catalog";
 import type { SeriesPoint } from "./change-flags";
 import { rayleighP } from "./statistics";
 
@@ -40,13 +40,13 @@ interface KeyedSeries {
  * session's coupling strength (same arm–leg pair) fails the gate; other metrics are unchanged.
  */
 export function gatePhaseSeries<T extends KeyedSeries>(metrics: readonly T[]): T[] {
-  const strideSeries = metrics.find((m) => resolveMetricKey(m.key)?.base === "steadyStrideCount");
+  const strideSeries = metrics.find((m) => metricDefinition(m.key)?.base === "steadyStrideCount");
   const strides = new Map(strideSeries?.points.map((p) => [p.sessionId, p.value]) ?? []);
   return metrics.map((m) => {
-    const resolved = resolveMetricKey(m.key);
+    const resolved = metricDefinition(m.key);
     if (resolved?.base !== "meanRelativePhaseDeg") return m;
     const coupling = metrics.find((o) => {
-      const r = resolveMetricKey(o.key);
+      const r = metricDefinition(o.key);
       return r?.base === "couplingStrength" && r.pair === resolved.pair;
     });
     const rBySession = new Map(coupling?.points.map((p) => [p.sessionId, p.value]) ?? []);

@@ -16,8 +16,8 @@
  * Where a source names an age group ("older", "young") without limits in the text we read, the
  * limits used here are marked `ageLimitsBasis: "common practice"` and say so in the population text.
  */
-import type { BaseMetric } from "./metric-catalog";
-import { resolveMetricKey } from "./metric-catalog";
+import type { BaseMetric } from "../contracts/metric-catalog";
+import { metricDefinition } from "../contracts/metric-catalog";
 
 export type BandRole = "patient-group" | "healthy-comparison";
 
@@ -417,7 +417,7 @@ function fits(b: ReferenceBand, query: BandQuery): boolean {
 
 /** The bands that describe this patient for this metric key; `[]` where none does. */
 export function bandsFor(metricKey: string, query: BandQuery): ReferenceBand[] {
-  const resolved = resolveMetricKey(metricKey);
+  const resolved = metricDefinition(metricKey);
   if (!resolved) return [];
   return REFERENCE_BANDS.filter((b) => b.metric === resolved.base && fits(b, query));
 }
@@ -428,7 +428,7 @@ export const NO_BAND_FOR_PATIENT = "No published band for this patient: the publ
 /** What to say when `bandsFor` is empty; `null` when there are bands. */
 export function bandNote(metricKey: string, query: BandQuery): string | null {
   if (bandsFor(metricKey, query).length > 0) return null;
-  const base = resolveMetricKey(metricKey)?.base;
+  const base = metricDefinition(metricKey)?.base;
   if (!base || !REFERENCE_BANDS.some((b) => b.metric === base)) return NO_BAND_FOR_MEASURE;
   return query.age === null
     ? `${NO_BAND_FOR_PATIENT} (The patient's age is unknown, and every band for this measure is limited by age.)`

@@ -12,8 +12,8 @@
  * sensors may vary more. So when both exist the LARGER is used (common practice: the conservative
  * choice, fewer false "real change" flags).
  */
-import type { BaseMetric } from "./metric-catalog";
-import { resolveMetricKey } from "./metric-catalog";
+import type { BaseMetric } from "../contracts/metric-catalog";
+import { metricDefinition } from "../contracts/metric-catalog";
 
 /** 1.96·√2 = 2.7718585822512662 (Weir 2005; docs/methods.md#measurement-error-and-important-change). */
 export const MDC95_FACTOR = 1.96 * Math.SQRT2;
@@ -149,7 +149,7 @@ function inRange(v: number, r: NonNullable<PublishedMdc["baselineRange"]>): bool
 
 /** The published MDC entry that fits this metric, condition and baseline mean, if any. */
 export function publishedMdcFor(metricKey: string, condition: string, baselineMean: number): PublishedMdc | undefined {
-  const base = resolveMetricKey(metricKey)?.base;
+  const base = metricDefinition(metricKey)?.base;
   if (!base) return undefined;
   return PUBLISHED_MDC.find(
     (p) => p.metric === base && p.condition === condition && (!p.baselineRange || inRange(baselineMean, p.baselineRange)),
@@ -266,6 +266,6 @@ export const PUBLISHED_IMPORTANT_CHANGE: readonly ImportantChange[] = [
 ];
 
 export function importantChangeFor(metricKey: string, condition: string): ImportantChange | null {
-  const base = resolveMetricKey(metricKey)?.base;
+  const base = metricDefinition(metricKey)?.base;
   return PUBLISHED_IMPORTANT_CHANGE.find((c) => c.metric === base && c.condition === condition) ?? null;
 }

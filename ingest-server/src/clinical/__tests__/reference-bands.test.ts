@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { BASE_METRICS } from "../metric-catalog";
+import { BASE_METRICS } from "../../contracts/metric-catalog";
 import { NO_BAND_FOR_MEASURE, NO_BAND_FOR_PATIENT, REFERENCE_BANDS, bandNote, bandsFor } from "../reference-bands";
 import { PUBLISHED_MDC } from "../reliability";
 
@@ -90,8 +90,10 @@ describe("bandsFor: only bands that describe the patient", () => {
     const [stance] = bandsFor("stancePctLeft", { age: 65, condition: "stroke" });
     expect(stance?.low).toBeCloseTo(62.76, 9);
     expect(stance?.high).toBeCloseTo(66.7, 9);
-    const [swing] = bandsFor("swingPct.right", { age: 65, condition: "stroke" });
+    const [swing] = bandsFor("swingPctRight", { age: 65, condition: "stroke" });
     expect(swing?.low).toBeCloseTo(33.3, 9);
+    // Only the stored spelling is a metric key: a dotted variant gets no band rather than a guess.
+    expect(bandsFor("swingPct.right", { age: 65, condition: "stroke" })).toEqual([]);
   });
 
   it("DFA α: Hausdorff 1997 young 0.87 ± 0.15 and elderly 0.68 ± 0.14 by age, nothing in between", () => {

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { METRICS } from "../../metrics/metric-catalog";
 import { annotateTrends } from "../annotate-trends";
 import { CLINICAL_CAUTIONS } from "../cautions";
-import { METRIC_INFO } from "../metric-catalog";
+import { BASE_METRIC_INFO } from "../../contracts/metric-catalog";
 import { changeAlertMail, digestMail, reminderMail } from "../notifications/messages";
 import { REFERENCE_BANDS } from "../reference-bands";
 import { PUBLISHED_IMPORTANT_CHANGE, PUBLISHED_MDC } from "../reliability";
@@ -47,7 +47,7 @@ describe("no user-facing text says a value is unconfirmed", () => {
       JSON.stringify(REFERENCE_BANDS),
       JSON.stringify(PUBLISHED_MDC),
       JSON.stringify(PUBLISHED_IMPORTANT_CHANGE),
-      JSON.stringify(METRIC_INFO),
+      JSON.stringify(BASE_METRIC_INFO),
       ...CLINICAL_CAUTIONS,
       ...Object.values(reminderMail("https://pendula.example")),
       ...Object.values(changeAlertMail("https://pendula.example", "00000000-0000-4000-8000-000000000001")),
