@@ -4,10 +4,9 @@ import {
   CASELOAD_FLAG_RULES_VERSION,
   latestSessionFlags,
   type CaseloadFlagInput,
-  type FlagSeries,
 } from "../clinical/caseload-flags";
-import { METRIC_KEYS } from "../metrics/metric-catalog";
-import { trendFingerprints, trendRowsByPatient, type TrendRow } from "./trend-rows.repository";
+import { metricSeries } from "../sessions/metric-rows";
+import { trendFingerprints, trendRowsByPatient } from "./trend-rows.repository";
 
 /**
  * Stored caseload flags (table `caseload_flags`): the flags of each patient's latest processed
@@ -40,22 +39,6 @@ export function flagSourceFingerprint(sessions: string, p: Omit<PatientFlagField
   return `${CASELOAD_FLAG_RULES_VERSION}|${sessions}|${p.birth_year}|${p.condition}|${p.enrolled_on}`;
 }
 
-/** Trend rows of one patient as the rules' series, in catalogue order (as the trend route builds them). */
-function seriesOf(rows: readonly TrendRow[]): FlagSeries[] {
-  const grouped = new Map<string, FlagSeries>();
-  for (const r of rows) {
-    let m = grouped.get(r.metric_key);
-    if (!m) grouped.set(r.metric_key, (m = { key: r.metric_key, unit: r.unit, points: [] }));
-    m.points.push({
-      sessionId: r.session_id,
-      recordedAt: new Date(r.recorded_at).toISOString(),
-      value: Number(r.value),
-      n: r.n === null || r.n === undefined ? null : Number(r.n),
-    });
-  }
-  return [...grouped.values()].sort((a, b) => METRIC_KEYS.indexOf(a.key) - METRIC_KEYS.indexOf(b.key));
-}
-
 /**
  * Computes the flags of `patientIds` from one snapshot (repeatable read), so each row's
  * fingerprint names exactly the data its flags came from, even while a worker writes.
@@ -71,7 +54,7 @@ export async function computeCaseloadFlags(db: Knex, patientIds: readonly string
       const fingerprints = await trendFingerprints(trx, ids);
       const rows = await trendRowsByPatient(trx, ids, [...CASELOAD_FLAG_KEYS]);
       for (const p of patients) {
-        const { flags, latestSessionId } = latestSessionFlags(seriesOf(rows.get(p.id) ?? []), {
+        const { flags, latestSessionId } = latestSessionFlags(metricSeries(rows.get(p.id) ?? []), {
           birthYear: p.birth_year,
           condition: p.condition,
           enrolledOn: p.enrolled_on,

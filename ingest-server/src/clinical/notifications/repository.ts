@@ -2,6 +2,7 @@
 import type { Knex } from "knex";
 import { computeAdherence, type Adherence } from "../adherence";
 import type { AnnotateTrendsInput } from "../annotate-trends";
+import { metricSeries } from "../../sessions/metric-rows";
 import type { ClinicianRecipient, ReminderCandidate } from "./select-recipients";
 
 export interface WeekRange {
@@ -84,17 +85,10 @@ export async function patientTrendData(
     .join("walk_sessions as s", "s.id", "m.session_id")
     .where({ "m.patient_id": patientId, "s.status": "done" })
     .orderBy([{ column: "m.recorded_at" }, { column: "m.session_id" }])
-    .select("m.session_id", "m.recorded_at", "m.metric_key", "m.value", "m.unit");
+    .select("m.session_id", "m.recorded_at", "m.metric_key", "m.value", "m.unit", "m.n", "s.walking_aid");
   // By session: compared in SQL, so microsecond timestamps are not cut to JavaScript milliseconds.
   if (typeof until === "string") q.andWhere("m.recorded_at", "<=", until);
   else if (until) q.andWhere("m.recorded_at", "<=", db("walk_sessions").where({ id: until.sessionId }).select("recorded_at"));
-  const byKey = new Map<string, AnnotateTrendsInput["metrics"][number]>();
-  for (const r of await q) {
-    const key = r.metric_key as string;
-    let m = byKey.get(key);
-    if (!m) byKey.set(key, (m = { key, unit: r.unit as string, points: [] }));
-    m.points.push({ sessionId: r.session_id, recordedAt: new Date(r.recorded_at).toISOString(), value: Number(r.value) });
-  }
   return {
     patient: {
       birthYear: Number(p.birth_year),
@@ -103,7 +97,8 @@ export async function patientTrendData(
       enrolledOn: p.enrolled_on as string,
       expectedPerWeek: Number(p.expected_uploads_per_week),
     },
-    metrics: [...byKey.values()],
+    // The trend page's series (sessions/metric-rows.ts), counts included, so an e-mail never flags what the page does not.
+    metrics: metricSeries(await q),
   };
 }
 

@@ -1,5 +1,6 @@
 import type { Knex } from "knex";
 import { auditEachRowOf, type AuditRowValues } from "../../audit/audit";
+import { readSessionMetrics, type SessionMetrics } from "../../sessions/metric-rows";
 import type { SessionRow } from "../../sessions/sessions.repository";
 
 export interface PatientRow {
@@ -68,28 +69,18 @@ export async function sessionDates(db: Knex, patientIds: string[], since?: Date)
   return out;
 }
 
-/** Latest processed session per patient and its values of `keys`. */
-export async function latestMetrics(
-  db: Knex,
-  patientIds: string[],
-  keys: string[],
-): Promise<Map<string, { sessionId: string; values: Record<string, number> }>> {
-  const out = new Map<string, { sessionId: string; values: Record<string, number> }>();
+/** Latest processed session per patient and its stored metrics of `keys`. */
+export async function latestMetrics(db: Knex, patientIds: string[], keys: string[]): Promise<Map<string, { sessionId: string; metrics: SessionMetrics }>> {
+  const out = new Map<string, { sessionId: string; metrics: SessionMetrics }>();
   if (patientIds.length === 0) return out;
-  const latest = await db
+  const latest: Array<{ patient_id: string; id: string }> = await db
     .select(db.raw("DISTINCT ON (patient_id) patient_id, id"))
     .from("walk_sessions")
     .whereIn("patient_id", patientIds)
     .andWhere({ status: "done" })
     .orderBy([{ column: "patient_id" }, { column: "recorded_at", order: "desc" }]);
-  if (latest.length === 0) return out;
-  const metrics = await db("session_metrics")
-    .whereIn("session_id", latest.map((l) => l.id))
-    .whereIn("metric_key", keys)
-    .select("session_id", "metric_key", "value");
-  for (const l of latest) out.set(l.patient_id, { sessionId: l.id, values: {} });
-  const bySession = new Map(latest.map((l) => [l.id as string, l.patient_id as string]));
-  for (const m of metrics) out.get(bySession.get(m.session_id)!)!.values[m.metric_key] = Number(m.value);
+  const metrics = await readSessionMetrics(db, latest.map((l) => l.id), keys);
+  for (const l of latest) out.set(l.patient_id, { sessionId: l.id, metrics: metrics.get(l.id) ?? new Map() });
   return out;
 }
 
@@ -99,18 +90,6 @@ export async function listSessions(db: Knex, patientId: string, limit: number, o
     db("walk_sessions").where({ patient_id: patientId }).count<{ n: string }[]>({ n: "*" }),
   ]);
   return { items, total: Number(total[0]?.n ?? 0) };
-}
-
-export async function sessionMetricValues(db: Knex, sessionIds: string[], keys: string[]) {
-  const out = new Map<string, Record<string, number>>();
-  if (sessionIds.length === 0) return out;
-  const rows = await db("session_metrics").whereIn("session_id", sessionIds).whereIn("metric_key", keys).select("session_id", "metric_key", "value");
-  for (const r of rows) {
-    const v = out.get(r.session_id) ?? {};
-    v[r.metric_key] = Number(r.value);
-    out.set(r.session_id, v);
-  }
-  return out;
 }
 
 export interface TrendReadContext {

@@ -15,11 +15,11 @@ import {
   listPatients,
   listSessions,
   sessionDates,
-  sessionMetricValues,
   sessionStats,
   updatePatientFields,
   type PatientRow,
 } from "./patients.repository";
+import { metricSeries, metricValues, readSessionMetrics } from "../../sessions/metric-rows";
 import { readCaseloadFlags } from "../../trends/caseload-flags.repository";
 import { trendRows } from "../../trends/trend-rows.repository";
 import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
@@ -49,28 +49,6 @@ export function recentAdherencePct(p: PatientRow, dates: string[], now: Date): n
   const ended = a.weeks.slice(1, -1).slice(-ADHERENCE_WINDOW_WEEKS);
   if (ended.length === 0) return null;
   return Math.round((100 * ended.filter((w) => w.met).length) / ended.length);
-}
-
-type TrendInput = {
-  key: string;
-  unit: string;
-  points: Array<{ sessionId: string; recordedAt: string; value: number; n: number | null; walkingAid: string | null }>;
-};
-
-function groupTrendRows(rows: Awaited<ReturnType<typeof trendRows>>): TrendInput[] {
-  const grouped = new Map<string, TrendInput>();
-  for (const r of rows) {
-    let m = grouped.get(r.metric_key);
-    if (!m) grouped.set(r.metric_key, (m = { key: r.metric_key, unit: r.unit, points: [] }));
-    m.points.push({
-      sessionId: r.session_id,
-      recordedAt: new Date(r.recorded_at).toISOString(),
-      value: Number(r.value),
-      n: r.n === null || r.n === undefined ? null : Number(r.n),
-      walkingAid: r.walking_aid ?? null,
-    });
-  }
-  return [...grouped.values()].sort((a, b) => METRIC_KEYS.indexOf(a.key) - METRIC_KEYS.indexOf(b.key));
 }
 
 /** Adherence looks at the last four ended weeks; eight weeks of dates cover them and the current one. */
@@ -103,6 +81,7 @@ export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthCon
     items: rows.map((p) => {
       const s = stats.get(p.id);
       const l = latest.get(p.id);
+      const value = (key: string) => l?.metrics.get(key)?.value ?? null;
       return {
         ...identity(p),
         birthYear: p.birth_year,
@@ -117,10 +96,10 @@ export async function listPatientsFor(deps: AppDeps, req: Request, auth: AuthCon
         flags: orderCaseloadFlags(flags.get(p.id) ?? []),
         latest: {
           sessionId: l?.sessionId ?? null,
-          cadenceStepsPerMin: l?.values.cadenceStepsPerMin ?? null,
-          strideTimeCvPct: l?.values.strideTimeCvPct ?? null,
-          phaseCoordinationIndexPct: l?.values.phaseCoordinationIndexPct ?? null,
-          walkingSpeedMPerS: l?.values.walkingSpeedMPerS ?? null,
+          cadenceStepsPerMin: value("cadenceStepsPerMin"),
+          strideTimeCvPct: value("strideTimeCvPct"),
+          phaseCoordinationIndexPct: value("phaseCoordinationIndexPct"),
+          walkingSpeedMPerS: value("walkingSpeedMPerS"),
         },
       };
     }),
@@ -161,9 +140,9 @@ export async function updatePatient(deps: AppDeps, req: Request, auth: AuthConte
 export async function getPatientSessions(deps: AppDeps, req: Request, auth: AuthContext, id: string, limit: number, offset: number) {
   await assertPatientAccess(deps.db, auth, id, "clinical");
   const { items, total } = await listSessions(deps.db, id, limit, offset);
-  const values = await sessionMetricValues(deps.db, items.map((s) => s.id), SUMMARY_KEYS);
+  const metrics = await readSessionMetrics(deps.db, items.map((s) => s.id), SUMMARY_KEYS);
   await audit(deps.db, req, { action: "patient.read_sessions", resourceType: "patient", resourceId: id, patientId: id });
-  return { items: items.map((s) => toSummary(s, values.get(s.id))), total, limit, offset };
+  return { items: items.map((s) => toSummary(s, metricValues(metrics.get(s.id)))), total, limit, offset };
 }
 
 function parseKeys(raw: string | undefined): string[] | null {
@@ -182,7 +161,7 @@ function parseKeys(raw: string | undefined): string[] | null {
 function trendsPayload(id: string, p: Pick<PatientRow, "birth_year" | "condition" | "enrolled_on">, rows: Awaited<ReturnType<typeof trendRows>>, query: { from?: string; to?: string }) {
   // Catalogue order, so the portal's metric list is stable. The date window only hides points:
   // baselines, MDC and events always come from the whole series, so zooming never moves them.
-  const grouped = groupTrendRows(rows);
+  const grouped = metricSeries(rows);
   const annotated = annotateTrends({
     metrics: grouped,
     patient: { birthYear: p.birth_year, condition: p.condition, enrolledOn: p.enrolled_on },

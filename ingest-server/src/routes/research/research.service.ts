@@ -26,6 +26,7 @@ import {
   suppressSmallCells,
   weeksSinceEnrolment,
 } from "../../research/safe-harbor";
+import { readSessionMetrics } from "../../sessions/metric-rows";
 import { ownProject } from "./projects.service";
 
 /**
@@ -188,16 +189,7 @@ export async function exportCohort(
     counts: {},
   }));
   if (rows.length) {
-    const metricRows = await deps.db("session_metrics")
-      .whereIn("metric_key", keys)
-      .whereIn("session_id", kept.map((r) => r.sessionId))
-      .select("session_id", "metric_key", "value", "n");
-    const bySession = new Map<string, Map<string, { value: number; n: number | null }>>();
-    for (const m of metricRows) {
-      const map = bySession.get(m.session_id) ?? new Map();
-      map.set(m.metric_key, { value: Number(m.value), n: m.n === null || m.n === undefined ? null : Number(m.n) });
-      bySession.set(m.session_id, map);
-    }
+    const bySession = await readSessionMetrics(deps.db, kept.map((r) => r.sessionId), keys);
     kept.forEach((r, i) => {
       const values = bySession.get(r.sessionId);
       const out = rows[i]!;

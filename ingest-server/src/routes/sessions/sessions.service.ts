@@ -7,6 +7,7 @@ import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
 import { metricDefinition } from "../../metrics/metric-catalog";
 import { minMaxDecimate } from "../../processing/min-max-decimate";
+import { metricValues, readSessionMetrics, type StoredMetric } from "../../sessions/metric-rows";
 import { enqueueProcessing } from "../../sessions/process-session-job";
 import type { AnswerCache, CachedAnswer } from "../../http/answer-cache";
 import {
@@ -85,16 +86,16 @@ export async function getSessionJson(
   ].join("|");
   const hit = cache.get(id, fingerprint);
   if (hit) return hit;
-  const [files, metricRows, analysis] = await Promise.all([
+  const [files, stored, analysis] = await Promise.all([
     listRawFiles(deps.db, id),
-    deps.db("session_metrics").where({ session_id: id }).select("metric_key", "value", "n"),
+    readSessionMetrics(deps.db, [id]).then((m) => m.get(id) ?? new Map<string, StoredMetric>()),
     s.status === "done" ? sessionAnalysis(deps.db, id) : Promise.resolve(null),
   ]);
-  const metrics = Object.fromEntries(metricRows.map((m) => [m.metric_key as string, Number(m.value)]));
+  const metrics = metricValues(stored);
   const metricCounts = Object.fromEntries(
-    metricRows
-      .filter((m) => m.n !== null && m.n !== undefined)
-      .map((m) => [m.metric_key as string, { n: Number(m.n), countNoun: metricDefinition(m.metric_key)?.countNoun ?? "strides" }]),
+    [...stored]
+      .filter(([, m]) => m.n !== null)
+      .map(([key, m]) => [key, { n: m.n!, countNoun: metricDefinition(key)?.countNoun ?? "strides" }]),
   );
   const detail: SessionDetail = {
     ...toSummary(s, metrics),
