@@ -5,6 +5,7 @@ import { ParentSize } from "@visx/responsive";
 import { scaleLinear, scaleTime } from "@visx/scale";
 import { LinePath } from "@visx/shape";
 import type { ReactNode } from "react";
+import { formatDate, formatNumber } from "@/lib/format";
 
 export type PointFlag = "improved" | "worsened" | "within-error";
 
@@ -142,7 +143,7 @@ function Chart({ width, height, ariaLabel, series, bands = [], markers = [], xDo
                 data-flag={p.flag ?? "none"}
               >
                 <FlagGlyph flag={p.flag} x={x(p.t)} y={y(p.v)} color={s.color} />
-                <title>{`${s.label}: ${formatY ? formatY(p.v) : p.v.toFixed(1)} on ${p.t.toLocaleDateString()}${p.flag ? ` (${p.flag.replace("-", " ")})` : ""}${p.note ? `; ${p.note}` : ""}`}</title>
+                <title>{`${s.label}: ${formatY ? formatY(p.v) : formatNumber(p.v, 1)} on ${formatDate(p.t)}${p.flag ? ` (${p.flag.replace("-", " ")})` : ""}${p.note ? `; ${p.note}` : ""}`}</title>
               </g>
             ))}
           </g>

@@ -3,8 +3,8 @@ import { IconAlert, IconInfo, IconSteady, IconTrendDown, IconTrendUp } from "@/c
 import type { TrendMetric } from "../api/trends";
 import { countWords, fmt } from "./trend-family-card";
 import { summaryGroups, trendCardId, type BandPosition, type ChangeVerdict, type SummaryRow } from "./trend-summary-model";
+import { formatDate } from "@/lib/format";
 
-const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: "numeric", month: "short", year: "numeric" });
 
 /** "+0.19 m/s", "−3.0 %", "±0"; a change that rounds to nothing is not given a sign. */
 function signed(v: number, rawUnit: string): string {
@@ -69,7 +69,7 @@ function BandCell({ row }: { row: SummaryRow }) {
 function LatestCell({ row, latestDay }: { row: SummaryRow; latestDay: string | null }) {
   const p = row.latest;
   if (!p) return <span className="text-ink-soft">No values yet</span>;
-  const when = day(p.recordedAt);
+  const when = formatDate(p.recordedAt);
   const extras = [
     countWords(p.n, row.metric.countNoun),
     typeof p.walkingSpeedMPerS === "number" ? `at ${p.walkingSpeedMPerS.toFixed(2)} m/s` : null,
@@ -121,7 +121,7 @@ export function TrendSummary({ metrics }: { metrics: TrendMetric[] }) {
   const latestIso = groups
     .flatMap((g) => g.rows.map((r) => r.latest?.recordedAt ?? ""))
     .reduce((a, b) => (b > a ? b : a), "");
-  const latestDay = latestIso ? day(latestIso) : null;
+  const latestDay = latestIso ? formatDate(latestIso) : null;
 
   return (
     <section aria-labelledby="trend-summary-title" className="card mb-6 p-3 sm:p-4">

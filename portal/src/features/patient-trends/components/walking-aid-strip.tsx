@@ -1,8 +1,8 @@
 import type { ChartMarker } from "@/components/charts/time-series-chart";
 import { walkingAidLabel } from "@/lib/walking-aid";
 import type { PatientSession } from "../api/trends";
+import { formatDate } from "@/lib/format";
 
-const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: "numeric", month: "short", year: "numeric" });
 
 export interface AidRun {
   aid: string | null;
@@ -46,7 +46,7 @@ export function WalkingAidStrip({ runs }: { runs: AidRun[] }) {
         <li key={r.from} className="rounded-lg border border-line bg-paper px-2.5 py-1">
           <span className="font-semibold">{walkingAidLabel(r.aid)}</span>{" "}
           <span className="text-ink-soft">
-            {r.sessions === 1 ? `1 session, ${day(r.from)}` : `${r.sessions} sessions, ${day(r.from)} – ${day(r.to)}`}
+            {r.sessions === 1 ? `1 session, ${formatDate(r.from)}` : `${r.sessions} sessions, ${formatDate(r.from)} – ${formatDate(r.to)}`}
           </span>
         </li>
       ))}

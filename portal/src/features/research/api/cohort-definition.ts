@@ -1,15 +1,11 @@
 import { z } from "zod";
+import { CONDITION_OPTIONS } from "@/lib/condition-labels";
 
 /*
  * The cohort a researcher asks for. The option lists mirror the server's enumerations; the server
  * validates again, so a stale list here fails with a 400 rather than exporting the wrong cohort.
  */
-export const CONDITION_OPTIONS = [
-  { value: "incomplete_sci", label: "Incomplete spinal cord injury" },
-  { value: "stroke", label: "Stroke" },
-  { value: "parkinsons", label: "Parkinson's disease" },
-  { value: "other", label: "Other condition" },
-] as const;
+export { CONDITION_OPTIONS } from "@/lib/condition-labels";
 
 /**
  * 5-year bands with everyone 90 or older in one group (HIPAA Safe Harbor, 45 CFR

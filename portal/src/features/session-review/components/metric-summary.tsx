@@ -1,8 +1,9 @@
 import type { Analysis, ArmLegCoupling } from "@pendula/signal";
+import { formatNumber } from "@/lib/format";
 
 export type MetricCounts = Record<string, { n: number; countNoun: string }>;
 
-const f = (v: number | null | undefined, d = 1, unit = "") => (typeof v === "number" && Number.isFinite(v) ? `${v.toFixed(d)}${unit}` : "—");
+const f = formatNumber;
 
 /** "n = 42 strides" for one stored metric, or null when the analysis gave no count. */
 export function countText(counts: MetricCounts | undefined, key: string): string | null {

@@ -8,18 +8,11 @@ import { signalQueryOptions, useSession } from "../api/session";
 import { SignalChart, type Trace } from "./signal-chart";
 import { ArmSwingSummary, CouplingCard, MetricsGrid, type MetricCounts } from "./metric-summary";
 import { qualityLabel } from "./quality-labels";
+import { formatNumber } from "@/lib/format";
+import { placementLabel } from "@/lib/placement-labels";
 import { walkingAidLabel } from "@/lib/walking-aid";
 import { WalkingAidEditor } from "./walking-aid-editor";
 
-const PLACE_LABEL: Record<string, string> = {
-  left_shank: "Left shank",
-  right_shank: "Right shank",
-  left_wrist: "Left wrist",
-  right_wrist: "Right wrist",
-  left_foot: "Left foot",
-  right_foot: "Right foot",
-  lower_back: "Lower back",
-};
 const TRACE_COLOR: Record<string, string> = {
   left_shank: "var(--color-moss)",
   right_shank: "var(--color-clay-deep)",
@@ -39,7 +32,7 @@ const EXCLUDED_WORDS: Record<string, string> = {
   unsteady: "not steady walking",
 };
 
-const f = (v: number | null | undefined, d = 1, unit = "") => (typeof v === "number" && Number.isFinite(v) ? `${v.toFixed(d)}${unit}` : "—");
+const f = formatNumber;
 
 function SignalSection({ sessionId, analysis }: { sessionId: string; analysis: Analysis }) {
   const available = analysis.session.placements;
@@ -58,7 +51,7 @@ function SignalSection({ sessionId, analysis }: { sessionId: string; analysis: A
         const leg = p.endsWith("_shank") || p.endsWith("_foot");
         return {
           id: `${p}-${t.placement}`,
-          label: PLACE_LABEL[t.placement] ?? t.placement,
+          label: placementLabel(t.placement),
           color: TRACE_COLOR[t.placement] ?? "var(--color-ink)",
           timeS: t.timeS,
           value: t.value,
@@ -85,7 +78,7 @@ function SignalSection({ sessionId, analysis }: { sessionId: string; analysis: A
               onChange={(e) => setShown((s) => (e.target.checked ? [...s, p] : s.filter((x) => x !== p)))}
             />
             <span className="inline-block h-0.5 w-4" style={{ background: TRACE_COLOR[p] }} aria-hidden="true" />
-            {PLACE_LABEL[p] ?? p}
+            {placementLabel(p)}
           </label>
         ))}
       </fieldset>
@@ -159,7 +152,7 @@ function QualityList({ a }: { a: Analysis }) {
               <span className="flex flex-1 flex-col">
                 <span className="font-semibold">
                   {qualityLabel(q.code)}
-                  {q.placement ? ` (${PLACE_LABEL[q.placement] ?? q.placement})` : ""}
+                  {q.placement ? ` (${placementLabel(q.placement)})` : ""}
                 </span>
                 <span>{q.message}</span>
               </span>
