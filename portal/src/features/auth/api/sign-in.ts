@@ -1,8 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { z } from "zod";
 import { api, setAccessToken } from "@/lib/api-client";
-import { loginResponse, meResponse, tokenResponse } from "@pendula/ingest-server/contracts";
-import { authKeys, ENROLMENT_SCOPE, type Me, type TokenResponse } from "./auth-keys";
+import { authKeys, LoginResponseSchema, MeSchema, TokenResponseSchema, type Me, type TokenResponse } from "./auth-keys";
 
 export const SignInInputSchema = z.object({
   email: z.email("Enter the e-mail address your care team or administrator used to invite you."),
@@ -30,14 +29,14 @@ async function adoptSession(res: TokenResponse, email?: string): Promise<Me> {
   setAccessToken(res.accessToken);
   // /me carries the e-mail, name and scopes the shell uses; the token answer alone is enough to route.
   try {
-    return await api.get("/me", { schema: meResponse });
+    return await api.get("/me", { schema: MeSchema });
   } catch {
-    return { ...res.user, email: email ?? "", scopes: res.secondFactor === "enrolment_required" ? [ENROLMENT_SCOPE] : [] };
+    return { ...res.user, email: email ?? "", scopes: res.secondFactor === "enrolment_required" ? ["second-factor:enrol"] : undefined };
   }
 }
 
 export async function signIn(input: SignInInput): Promise<SignInResult> {
-  const res = await api.post("/auth/login", input, { schema: loginResponse });
+  const res = await api.post("/auth/login", input, { schema: LoginResponseSchema });
   if ("secondFactorRequired" in res) return { kind: "second-factor", challenge: res.challenge, expiresIn: res.expiresIn };
   return { kind: "signed-in", me: await adoptSession(res, input.email) };
 }
@@ -49,7 +48,7 @@ export interface SecondFactorInput {
 }
 
 export async function completeSecondFactor(input: SecondFactorInput): Promise<Me> {
-  const res = await api.post("/auth/login/second-factor", input, { schema: tokenResponse });
+  const res = await api.post("/auth/login/second-factor", input, { schema: TokenResponseSchema });
   return adoptSession(res);
 }
 
