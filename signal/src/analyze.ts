@@ -1,37 +1,21 @@
 import { boutsToMask, detectWalkingMask, maskToBouts } from "./activity/walking-bouts";
-import { detectTurns, yawRateAboutGravity } from "./activity/turns";
+import { sessionTurns } from "./activity/session-turns";
 import { type WalkingAid, sessionArms } from "./coordination/session-arms";
-import { detectFootEvents } from "./gait/detect-foot-events";
-import { detectShankEvents } from "./gait/detect-shank-events";
-import { longestConsecutiveRun } from "./gait/consecutive-strides";
-import { dfaAlphaOrReason } from "./gait/dfa";
-import type { LegEvents } from "./gait/gait-events";
-import { phaseCoordinationIndex } from "./gait/phase-coordination-index";
+import { type LegSignal, legSignal } from "./gait/leg-signals";
+import { sessionDfa } from "./gait/session-dfa";
+import { sessionPci } from "./gait/session-pci";
 import { strideMetrics } from "./gait/stride-metrics";
 import { buildSessionStrides } from "./gait/strides";
-import { describeExcludedStrides } from "./gait/excluded-strides";
-import { detectInvertedFoot, detectInvertedShank } from "./orientation/detect-inverted-segment";
-import { type SagittalAxis, projectOnAxis, sagittalAxis } from "./orientation/sagittal-axis";
 import { sagittalSignals } from "./orientation/sagittal-signals";
-import { SATURATION_FLOOR_ACC_M_S2, SATURATION_FLOOR_GYRO_DEG_S, countSaturatedSamples } from "./quality/saturation";
-import { shankSwingAxisCheck } from "./quality/shank-swing-axis";
-import { MIN_STEADY_STRIDES_FOR_VARIABILITY, MISALIGNMENT_INFO_DEG, RATE_MISMATCH_FRACTION } from "./quality/thresholds";
+import { recordingQuality } from "./quality/recording-quality";
+import { strideQuality, walkingAmountQuality } from "./quality/stride-quality";
 import { alignLegClocks } from "./timebase/align-clocks";
 import { alignWristClocks } from "./timebase/align-wrist-clocks";
 import { type ResampledSensor, resampleToGrid } from "./timebase/resample-to-grid";
 import { sessionGrid } from "./timebase/session-grid";
 import { sessionStrideLengths } from "./spatial/session-stride-lengths";
 import { walkingSpeedFromStrides } from "./spatial/walking-speed";
-import {
-  type Analysis,
-  type ArmLegCoupling,
-  type Bout,
-  type Placement,
-  type QualityItem,
-  type SensorRecording,
-  type Side,
-  SignalInputError,
-} from "./types";
+import { type Analysis, type ArmLegCoupling, type Bout, type Placement, type QualityItem, type SensorRecording, type Side, SignalInputError } from "./types";
 
 /** Bumped whenever a change can alter any number in the output. */
 export const ALGORITHM_VERSION = "1.4.0";
@@ -49,15 +33,6 @@ export interface AnalyzeOptions {
 
 const NO_COUPLING: ArmLegCoupling = { frequencyRatio: null, meanRelativePhaseDeg: null, couplingStrength: null, circularSdDeg: null, reason: "arm analysis skipped" };
 
-interface LegSignal {
-  side: Side;
-  placement: Placement;
-  omega: Float64Array;
-  events: LegEvents;
-  axis: SagittalAxis;
-  inverted: boolean;
-}
-
 /**
  * The one analysis pipeline (CLI, worker and portal pre-check all call it): time base → resampling →
  * walking bouts → sagittal axes and inversion → events → turns → strides → metrics → quality.
@@ -69,18 +44,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   const h = options.heightCm;
   if (h !== undefined && !(Number.isFinite(h) && h >= 100 && h <= 230)) throw new SignalInputError(`height ${h} cm is outside 100–230 cm`);
   const quality: QualityItem[] = [];
-  const placed: SensorRecording[] = [];
-  const seen = new Map<Placement, string>();
-  for (const r of recordings) {
-    if (r.placement === null) {
-      quality.push({ code: "missing-placement", severity: "warning", message: `${r.fileName} (device ${r.deviceSerial}) has no placement; it was not analysed` });
-      continue;
-    }
-    const other = seen.get(r.placement);
-    if (other) throw new SignalInputError(`${r.fileName}: placement ${r.placement} is also given by ${other}`, r.fileName);
-    seen.set(r.placement, r.fileName);
-    placed.push(r);
-  }
+  const placed = placedRecordings(recordings, quality);
   const grid = sessionGrid(recordings);
   const fs = grid.sampleRateHz;
   const n = grid.length;
@@ -88,7 +52,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   for (const r of placed) {
     const s = resampleToGrid(r, grid, recordings.indexOf(r));
     sensors.set(r.placement!, s);
-    reportRecordingQuality(r, s, quality);
+    quality.push(...recordingQuality(r, s));
   }
   // Clock alignment of the right leg sensor to the left one (impacts felt by the trunk or wrists),
   // then of each wrist to the legs (the impacts it feels against the legs' combined train).
@@ -122,76 +86,24 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   const invalidSpans: Bout[] = mergeSpans(legSensors.flatMap((s) => s.invalidSpans));
   const gapSpans: Bout[] = mergeSpans(legSensors.flatMap((s) => s.gaps.filter((g) => g.interpolated).map((g) => ({ startS: g.startS, endS: g.endS }))));
 
-  // Events per leg.
+  // Sagittal angular velocity and events per leg.
   const legs: Partial<Record<Side, LegSignal>> = {};
   const unreliableSides: Side[] = [];
   for (const side of ["left", "right"] as const) {
     const placement = legPlacement(side);
     if (!placement) continue;
-    const s = sensors.get(placement)!;
-    const mask = andMask(boutMask, s.valid);
-    const axis = sagittalAxis(s.gyroX, s.gyroY, s.gyroZ, mask);
-    if (!axis) continue;
-    if (axis.angleFromNominalDeg > MISALIGNMENT_INFO_DEG) {
-      quality.push({ code: "misalignment", severity: "info", placement, message: `${placement} sagittal axis is ${axis.angleFromNominalDeg.toFixed(0)}° from the nominal +z axis; corrected from the walking data` });
-    }
-    const isFoot = placement.endsWith("_foot");
-    const swingAxis = isFoot ? null : shankSwingAxisCheck(s.accX, s.accY, s.accZ, axis.axis, mask);
-    if (swingAxis && !swingAxis.plausible) {
-      unreliableSides.push(side);
-      quality.push({
-        code: "misalignment",
-        severity: "warning",
-        placement,
-        message: `${placement}: the main rotation is ${swingAxis.angleToLongAxisDeg!.toFixed(0)}° from the lower leg's long axis instead of about 90° (loose or rotated strap?); ${placement.replace("_shank", "")} events and left–right metrics from this sensor are unreliable — check the strap before the next walk`,
-      });
-    }
-    const omega = projectOnAxis(s.gyroX, s.gyroY, s.gyroZ, axis.axis);
-    const inversion = isFoot ? detectInvertedFoot(omega, mask) : detectInvertedShank(omega, mask);
-    if (inversion.inverted) {
-      for (let i = 0; i < omega.length; i++) omega[i] = -omega[i]!;
-      quality.push({ code: "inverted-sensor", severity: "warning", placement, message: `${placement} appears to be worn upside down or back to front (swing rotation has the wrong sign); the signal was inverted before analysis` });
-    }
-    const events = isFoot ? detectFootEvents(omega, mask, fs) : detectShankEvents(omega, mask, fs, s);
-    legs[side] = { side, placement, omega, events, axis, inverted: inversion.inverted };
+    const outcome = legSignal(side, placement, sensors.get(placement)!, boutMask, fs);
+    quality.push(...outcome.quality);
+    if (outcome.unreliable) unreliableSides.push(side);
+    if (outcome.leg) legs[side] = outcome.leg;
   }
 
   // Turns: lower back when worn (cleanest yaw), else the mean over the leg sensors.
-  const back = sensors.get("lower_back");
-  const yawSources = back ? [back] : legSensors;
-  let turns: Bout[] = [];
-  if (yawSources.length > 0) {
-    const traces = yawSources.map((s) => yawRateAboutGravity(s, fs));
-    const m = traces[0]!.yawDegS.length;
-    const yaw = new Float64Array(m);
-    const count = new Uint8Array(m);
-    for (const tr of traces) {
-      for (let i = 0; i < m; i++) if (tr.valid[i]) {
-        yaw[i]! += tr.yawDegS[i]!;
-        count[i]!++;
-      }
-    }
-    for (let i = 0; i < m; i++) if (count[i]! > 1) yaw[i]! /= count[i]!;
-    turns = detectTurns(yaw, traces[0]!.sampleRateHz).map((t) => ({ startS: t.startS, endS: t.endS }));
-  }
+  const turns = sessionTurns(sensors.get("lower_back"), legSensors, fs);
 
   // Strides: per-leg checks, then the session-relative steady-state gate (gait/strides.ts).
   const strides = buildSessionStrides(legs.left?.events ?? null, legs.right?.events ?? null, { bouts, turns, invalidSpans, gapSpans, unreliableSides });
-  const excludedItem = describeExcludedStrides(strides);
-  if (excludedItem) quality.push({ code: "strides-excluded", severity: "info", message: excludedItem });
-  const order = strides.filter((s) => s.excludedReason === "event-order").length;
-  if (order > 0) {
-    quality.push({ code: "event-order", severity: "info", message: `${order} stride(s) left out because their initial contacts did not alternate plausibly between the legs (opening step outside 15–85 % of the stride)` });
-  }
-  const fcRejected = strides.filter((s) => s.steady && s.finalContactRejected);
-  if (fcRejected.length > 0) {
-    const steadyCount = strides.filter((s) => s.steady).length;
-    quality.push({
-      code: "event-order",
-      severity: fcRejected.length > 0.5 * steadyCount ? "warning" : "info",
-      message: `${fcRejected.length} of ${steadyCount} steady stride(s) have no usable final contact (missing, or not in the order IC < FC(other) < IC(other) < FC < next IC): they count for cadence, stride time and PCI but not for stance, swing or double support`,
-    });
-  }
+  quality.push(...strideQuality(strides));
 
   const base = strideMetrics(strides);
   const steady = strides.filter((s) => s.steady);
@@ -215,23 +127,9 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
     quality.push({ code: "speed-unavailable", severity: "info", message: `walking speed and stride length not computed: ${speed.reason}` });
   }
 
-  // PCI: reference leg = longer mean swing time (Plotnik 2007).
-  let pci: number | null = null;
-  let pciPhases = 0;
-  const swL = base.swingTimeMeanS.left;
-  const swR = base.swingTimeMeanS.right;
-  if (swL !== null && swR !== null && legs.left && legs.right) {
-    const ref: Side = swL >= swR ? "left" : "right";
-    const other = legs[ref === "left" ? "right" : "left"]!;
-    const r = phaseCoordinationIndex(steady.filter((s) => s.side === ref), other.events.initialContactsS);
-    pci = r?.pciPct ?? null;
-    pciPhases = r?.phiDeg.length ?? 0;
-  }
-
-  // DFA over the longest run of consecutive steady strides of one leg in one bout (never joined
-  // across pauses, turns or excluded strides).
-  const run = longestConsecutiveRun(strides);
-  const dfa = dfaAlphaOrReason(run?.strideTimesS ?? []);
+  // PCI against the leg with the longer mean swing time; DFA over one unbroken run of strides.
+  const pci = sessionPci(base.swingTimeMeanS, steady, { left: legs.left?.events.initialContactsS ?? null, right: legs.right?.events.initialContactsS ?? null });
+  const dfa = sessionDfa(strides);
   if (dfa.alpha === null && base.steadyStrideCount > 0) {
     quality.push({ code: "dfa-unavailable", severity: "info", message: `DFA α not computed: ${dfa.reason}` });
   }
@@ -252,15 +150,8 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
       });
   quality.push(...arms.quality);
 
-  if (bouts.length === 0 || strides.length === 0) {
-    quality.push({ code: "no-walking", severity: "error", message: "no walking was found in this session; no gait metrics were computed" });
-  } else if (base.steadyStrideCount < MIN_STEADY_STRIDES_FOR_VARIABILITY) {
-    quality.push({
-      code: "few-strides",
-      severity: "warning",
-      message: `only ${base.steadyStrideCount} steady-state strides; variability (CV, PCI) needs at least ${MIN_STEADY_STRIDES_FOR_VARIABILITY} steps (Galna et al. 2013; Kroneberg et al. 2019) — interpret with caution`,
-    });
-  }
+  const walkingAmount = walkingAmountQuality(bouts.length, strides.length, base.steadyStrideCount);
+  if (walkingAmount) quality.push(walkingAmount);
 
   const eventsOf = (side: Side) => ({
     initialContacts: legs[side]?.events.initialContactsS ?? [],
@@ -289,7 +180,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
       stancePct: base.stancePct,
       swingPct: base.swingPct,
       doubleSupportPct: base.doubleSupportPct,
-      phaseCoordinationIndexPct: pci,
+      phaseCoordinationIndexPct: pci.pciPct,
       gaitAsymmetryPct: base.gaitAsymmetryPct,
       dfaAlpha: dfa.alpha,
       dfaAlphaReason: dfa.reason,
@@ -301,7 +192,7 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
       stepTimeAsymmetryPct: base.stepTimeAsymmetryPct,
       armSwing: arms.armSwing,
       armSwingReason: arms.armSwingReason,
-      counts: { ...base.counts, phaseCoordinationIndexPct: pciPhases, dfaAlpha: dfa.strideCount, walkingSpeedMPerS: speed.strideCount, strideLengthM: speed.strideCount, ...arms.counts },
+      counts: { ...base.counts, phaseCoordinationIndexPct: pci.phaseCount, dfaAlpha: dfa.strideCount, walkingSpeedMPerS: speed.strideCount, strideLengthM: speed.strideCount, ...arms.counts },
       armLeg: arms.armLeg,
     },
     quality,
@@ -312,63 +203,21 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   };
 }
 
-function reportRecordingQuality(r: SensorRecording, s: ResampledSensor, quality: QualityItem[]): void {
-  const placement = r.placement!;
-  const short = s.gaps.filter((g) => g.interpolated);
-  if (short.length > 0) {
-    const total = short.reduce((a, g) => a + g.endS - g.startS, 0);
-    const longest = Math.max(...short.map((g) => g.endS - g.startS));
-    quality.push({
-      code: "gap",
-      severity: "info",
-      placement,
-      message: `${r.fileName}: ${short.length} short gap(s) (≤ 150 ms, longest ${(longest * 1000).toFixed(0)} ms, ${total.toFixed(2)} s in total) were interpolated`,
-      startS: short[0]!.startS,
-      endS: short[short.length - 1]!.endS,
-    });
+/** Recordings with a placement, in input order; one without is reported and left out, the same placement twice is refused. */
+function placedRecordings(recordings: readonly SensorRecording[], quality: QualityItem[]): SensorRecording[] {
+  const placed: SensorRecording[] = [];
+  const seen = new Map<Placement, string>();
+  for (const r of recordings) {
+    if (r.placement === null) {
+      quality.push({ code: "missing-placement", severity: "warning", message: `${r.fileName} (device ${r.deviceSerial}) has no placement; it was not analysed` });
+      continue;
+    }
+    const other = seen.get(r.placement);
+    if (other) throw new SignalInputError(`${r.fileName}: placement ${r.placement} is also given by ${other}`, r.fileName);
+    seen.set(r.placement, r.fileName);
+    placed.push(r);
   }
-  for (const span of s.invalidSpans) {
-    quality.push({
-      code: "invalid-span",
-      severity: "warning",
-      placement,
-      message: `${r.fileName}: ${(span.endS - span.startS).toFixed(2)} s without data; no events or strides there`,
-      startS: span.startS,
-      endS: span.endS,
-    });
-  }
-  const mismatch = Math.abs(s.effectiveSampleRateHz - r.nominalSampleRateHz) / r.nominalSampleRateHz;
-  if (mismatch > RATE_MISMATCH_FRACTION) {
-    quality.push({
-      code: "rate-mismatch",
-      severity: "warning",
-      placement,
-      message: `${r.fileName}: effective sampling rate ${s.effectiveSampleRateHz.toFixed(1)} Hz differs from the nominal ${r.nominalSampleRateHz} Hz by ${(100 * mismatch).toFixed(1)} %`,
-    });
-  }
-  const channels: Array<[string, ArrayLike<number>, number]> = [
-    ["gyro_x", r.gyroX, SATURATION_FLOOR_GYRO_DEG_S],
-    ["gyro_y", r.gyroY, SATURATION_FLOOR_GYRO_DEG_S],
-    ["gyro_z", r.gyroZ, SATURATION_FLOOR_GYRO_DEG_S],
-    ["acc_x", r.accX, SATURATION_FLOOR_ACC_M_S2],
-    ["acc_y", r.accY, SATURATION_FLOOR_ACC_M_S2],
-    ["acc_z", r.accZ, SATURATION_FLOOR_ACC_M_S2],
-  ];
-  const clipped = channels.map(([name, x, floor]) => [name, countSaturatedSamples(x, floor)] as const).filter(([, c]) => c > 0);
-  if (clipped.length > 0) {
-    quality.push({
-      code: "saturation",
-      severity: "warning",
-      placement,
-      message: `${r.fileName}: flat-topped samples at the sensor's range (${clipped.map(([nm, c]) => `${nm} ${c}`).join(", ")}); peaks there are clipped`,
-    });
-  }
-}
-
-function andMask(a: Uint8Array, b: Uint8Array): Uint8Array {
-  const out = new Uint8Array(a.length);
-  for (let i = 0; i < a.length; i++) out[i] = a[i]! & b[i]!;
-  return out;
+  return placed;
 }
 
 function mergeSpans(spans: Bout[]): Bout[] {
