@@ -13,7 +13,7 @@ export const CLINICAL_DETAIL_ACTIONS = ["training.", "session.update"] as const;
 export const isClinicalDetailAction = (action: string): boolean =>
   CLINICAL_DETAIL_ACTIONS.some((a) => (a.endsWith(".") ? action.startsWith(a) : action === a));
 
-const auditEventFields = z.object({
+const auditEventFields = z.strictObject({
   id: z.string(),
   at: isoDateTime,
   actorId: z.uuid().nullable(),

@@ -9,7 +9,7 @@ export const loginRequest = z.object({
 });
 export type LoginRequest = z.input<typeof loginRequest>;
 
-export const sessionUser = z.object({
+export const sessionUser = z.strictObject({
   id: z.uuid(),
   role: z.enum(ROLES),
   displayName: z.string(),
@@ -24,7 +24,7 @@ export const sessionUser = z.object({
 export const SECOND_FACTOR_STATES = ["verified", "enrolment_required", "not_enrolled"] as const;
 
 /** Answer of sign-in, refresh and invitation accept. The refresh token travels only as a cookie. */
-export const tokenResponse = z.object({
+export const tokenResponse = z.strictObject({
   accessToken: z.string(),
   tokenType: z.literal("Bearer"),
   expiresIn: z.number().int().describe("seconds until the access token expires"),
@@ -34,7 +34,7 @@ export const tokenResponse = z.object({
 export type TokenResponse = z.infer<typeof tokenResponse>;
 
 /** Password accepted for an account with an authenticator: the code is asked for next. */
-export const secondFactorChallenge = z.object({
+export const secondFactorChallenge = z.strictObject({
   secondFactorRequired: z.literal(true),
   challenge: z.string().describe("opaque; send it back with the code to POST /api/auth/login/second-factor"),
   expiresIn: z.number().int().describe("seconds the challenge stays open"),
@@ -60,7 +60,7 @@ export const secondFactorLoginRequest = z.discriminatedUnion("method", [
 ]);
 export type SecondFactorLoginRequest = z.infer<typeof secondFactorLoginRequest>;
 
-export const secondFactorStatus = z.object({
+export const secondFactorStatus = z.strictObject({
   enrolled: z.boolean(),
   required: z.boolean().describe("true for staff roles: they cannot use Pendula without a second factor"),
   enrolledAt: z.iso.datetime({ offset: true }).nullable(),
@@ -68,7 +68,7 @@ export const secondFactorStatus = z.object({
 });
 export type SecondFactorStatus = z.infer<typeof secondFactorStatus>;
 
-export const enrolmentStart = z.object({
+export const enrolmentStart = z.strictObject({
   secret: z.string().describe("base32, for typing into the app when the QR code cannot be scanned"),
   otpauthUri: z.string().describe("otpauth://totp/… for the QR code"),
   issuer: z.string(),
@@ -81,7 +81,7 @@ export type EnrolmentStart = z.infer<typeof enrolmentStart>;
 export const codeRequest = z.object({ code: totpCodeInput });
 export type CodeRequest = z.input<typeof codeRequest>;
 
-export const recoveryCodesResponse = z.object({
+export const recoveryCodesResponse = z.strictObject({
   recoveryCodes: z.array(z.string()).describe("shown once; only their digests are stored"),
 });
 export type RecoveryCodesResponse = z.infer<typeof recoveryCodesResponse>;
@@ -98,7 +98,7 @@ export const secondFactorResetRequest = z.object({
 });
 export type SecondFactorResetRequest = z.input<typeof secondFactorResetRequest>;
 
-export const secondFactorResetResponse = z.object({ userId: z.uuid(), enrolled: z.literal(false), endedSessions: z.number().int() });
+export const secondFactorResetResponse = z.strictObject({ userId: z.uuid(), enrolled: z.literal(false), endedSessions: z.number().int() });
 
 const token = z.string().min(20, { error: "token is malformed" }).max(200).regex(/^[A-Za-z0-9_-]+$/, { error: "token is malformed" });
 
@@ -111,4 +111,4 @@ export type PasswordResetRequest = z.input<typeof passwordResetRequest>;
 export const passwordResetConfirm = z.object({ token, password: newPassword });
 export type PasswordResetConfirm = z.input<typeof passwordResetConfirm>;
 
-export const acceptedResponse = z.object({ status: z.literal("accepted"), message: z.string() });
+export const acceptedResponse = z.strictObject({ status: z.literal("accepted"), message: z.string() });

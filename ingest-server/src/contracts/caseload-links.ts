@@ -11,7 +11,7 @@ const reason = z
   .min(3, { error: "give a reason of at least 3 characters" })
   .max(500, { error: "the reason is at most 500 characters" });
 
-export const caseloadLinkView = z.object({
+export const caseloadLinkView = z.strictObject({
   id: z.uuid(),
   clinicianId: z.uuid(),
   clinicianName: z.string(),
@@ -54,7 +54,7 @@ export const endCaseloadLinkRequest = z.strictObject({ reason });
 export type EndCaseloadLinkRequest = z.input<typeof endCaseloadLinkRequest>;
 
 /** What a patient is told about who can read their walks: names and dates, nothing else. */
-export const careTeamMember = z.object({
+export const careTeamMember = z.strictObject({
   clinicianName: z.string(),
   active: z.boolean(),
   since: isoDateTime,

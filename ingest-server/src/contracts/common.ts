@@ -4,8 +4,8 @@ export const uuid = z.uuid();
 export const idParams = z.object({ id: z.uuid({ error: "id must be a UUID" }) });
 export const isoDateTime = z.iso.datetime({ offset: true });
 
-export const errorBody = z.object({
-  error: z.object({ code: z.string(), message: z.string(), details: z.unknown().optional() }),
+export const errorBody = z.strictObject({
+  error: z.strictObject({ code: z.string(), message: z.string(), details: z.unknown().optional() }),
 });
 export type ErrorBody = z.infer<typeof errorBody>;
 
@@ -15,7 +15,7 @@ export const paging = z.object({
 });
 
 export const page = <T extends z.ZodType>(item: T) =>
-  z.object({ items: z.array(item), total: z.number().int(), limit: z.number().int(), offset: z.number().int() });
+  z.strictObject({ items: z.array(item), total: z.number().int(), limit: z.number().int(), offset: z.number().int() });
 
 export const email = z
   .email({ error: "a valid e-mail address is required" })

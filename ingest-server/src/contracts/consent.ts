@@ -8,20 +8,20 @@ export const CONSENT_RECORDER_ROLES = ["patient", "clinician", "admin", "migrati
 export type ConsentRecorderRole = (typeof CONSENT_RECORDER_ROLES)[number];
 
 /** One recorded change of a patient's research consent. */
-export const consentEvent = z.object({
+export const consentEvent = z.strictObject({
   id: z.uuid(),
   kind: z.enum(CONSENT_KINDS),
   at: isoDateTime,
   recorderRole: z.enum(CONSENT_RECORDER_ROLES),
   /** Null when the account was removed, or for the flag that predates the history. */
-  recordedBy: z.object({ id: z.uuid(), displayName: z.string() }).nullable(),
+  recordedBy: z.strictObject({ id: z.uuid(), displayName: z.string() }).nullable(),
   reason: z.string().nullable(),
   /** False for a clinician's "given", which waits for the patient's own confirmation. */
   counts: z.boolean(),
 });
 export type ConsentEvent = z.infer<typeof consentEvent>;
 
-export const consentState = z.object({
+export const consentState = z.strictObject({
   patientId: z.uuid(),
   /** Research use allowed now, by the counting events. */
   inForce: z.boolean(),

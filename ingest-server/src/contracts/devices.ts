@@ -2,7 +2,7 @@ import { z } from "zod";
 import { isoDateTime } from "./common";
 import { DEVICE_KINDS, DEVICE_STATUSES, PLACEMENTS } from "./enums";
 
-export const assignmentView = z.object({
+export const assignmentView = z.strictObject({
   id: z.uuid(),
   deviceId: z.uuid(),
   patientId: z.uuid(),
@@ -14,7 +14,7 @@ export const assignmentView = z.object({
 export type AssignmentView = z.infer<typeof assignmentView>;
 
 /** Device list entry. `assignment` is the one active now (null when the device is on no one). */
-export const deviceView = z.object({
+export const deviceView = z.strictObject({
   id: z.uuid(),
   serial: z.string(),
   kind: z.enum(DEVICE_KINDS),
@@ -81,4 +81,8 @@ export const swapPlacementRequest = z.object({ placement: z.enum(PLACEMENTS), at
 export type SwapPlacementRequest = z.input<typeof swapPlacementRequest>;
 
 export const assignmentList = z.array(assignmentView);
+
+/** Answer of a placement swap: the assignment that ended and the one that started. */
+export const swapPlacementResponse = z.strictObject({ ended: assignmentView, started: assignmentView });
+export type SwapPlacementResponse = z.infer<typeof swapPlacementResponse>;
 export const assignmentParams = z.object({ id: z.uuid(), assignmentId: z.uuid() });

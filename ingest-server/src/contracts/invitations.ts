@@ -37,7 +37,7 @@ export const createInvitationRequest = z
   });
 export type CreateInvitationRequest = z.input<typeof createInvitationRequest>;
 
-export const invitationSummary = z.object({
+export const invitationSummary = z.strictObject({
   id: z.uuid(),
   userId: z.uuid(),
   email: z.string(),

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { ROLES } from "./enums";
 
-export const meResponse = z.object({
+export const meResponse = z.strictObject({
   id: z.uuid(),
   email: z.string(),
   role: z.enum(ROLES),

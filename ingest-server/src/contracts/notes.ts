@@ -6,7 +6,7 @@ export const createNote = z.object({
   sessionId: z.uuid().optional(),
 });
 
-export const note = z.object({
+export const note = z.strictObject({
   id: z.uuid(),
   patientId: z.uuid(),
   sessionId: z.uuid().nullable(),
@@ -16,4 +16,4 @@ export const note = z.object({
   createdAt: isoDateTime,
 });
 
-export const noteList = z.object({ items: z.array(note) });
+export const noteList = z.strictObject({ items: z.array(note) });

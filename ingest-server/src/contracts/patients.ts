@@ -4,7 +4,7 @@ import { CONDITIONS, SEXES } from "./enums";
 import { sessionSummary } from "./sessions";
 
 /** Admin view: identity only — no metrics, no clinical data. */
-export const patientIdentity = z.object({
+export const patientIdentity = z.strictObject({
   id: z.uuid(),
   displayName: z.string(),
   researchId: z.string(),
@@ -25,7 +25,7 @@ export const patientSummary = patientIdentity.extend({
   adherencePct: z.number().nullable(),
   /** Flags open on the latest session (beyond MDC, or a coordination event): prompts to look, not diagnoses. */
   flags: z.array(
-    z.object({
+    z.strictObject({
       metricKey: z.string(),
       flag: z.string(),
       /** What the flag is (clinical/caseload-flags.ts): worsened, a coordination event, a phase shift, improved… */
@@ -36,7 +36,7 @@ export const patientSummary = patientIdentity.extend({
       severity: z.number().optional(),
     }),
   ),
-  latest: z.object({
+  latest: z.strictObject({
     sessionId: z.uuid().nullable(),
     cadenceStepsPerMin: z.number().nullable(),
     strideTimeCvPct: z.number().nullable(),
@@ -50,7 +50,14 @@ export const patientListQuery = z.object({
   q: z.string().trim().max(100).optional(),
 });
 
-export const patientList = z.object({ items: z.array(z.union([patientSummary, patientIdentity])) });
+/** GET /api/patients for a clinician: the caseload, with summary columns. */
+export const caseloadList = z.strictObject({ items: z.array(patientSummary) });
+export type CaseloadList = z.infer<typeof caseloadList>;
+/** GET /api/patients for an admin: identity only. */
+export const patientIdentityList = z.strictObject({ items: z.array(patientIdentity) });
+export type PatientIdentity = z.infer<typeof patientIdentity>;
+/** GET /api/patients: which of the two depends on the caller's role. */
+export const patientList = z.union([caseloadList, patientIdentityList]);
 
 export const patientDetail = patientIdentity.extend({
   birthYear: z.number().int().optional(),
@@ -61,6 +68,7 @@ export const patientDetail = patientIdentity.extend({
   /** Standing height (cm), entered by the clinician; null until entered. */
   heightCm: z.number().nullable().optional(),
 });
+export type PatientDetail = z.infer<typeof patientDetail>;
 
 /** Plausible adult standing heights (common practice range; the analysis accepts the same 100–230 cm). */
 export const HEIGHT_CM_RANGE = { min: 100, max: 230 } as const;
@@ -79,7 +87,7 @@ export const patientUpdate = z
 export type PatientUpdate = z.infer<typeof patientUpdate>;
 
 export const patientSessionsQuery = paging;
-export const patientSessions = z.object({
+export const patientSessions = z.strictObject({
   items: z.array(sessionSummary),
   total: z.number().int(),
   limit: z.number().int(),

@@ -20,7 +20,7 @@ export type CohortDefinition = z.infer<typeof cohortDefinition>;
  * A released cell names its condition and age band; a suppressed one names neither (null), so the
  * preview never says which small group exists — only that some group of fewer than k was held back.
  */
-export const cohortCell = z.object({
+export const cohortCell = z.strictObject({
   condition: z.enum(CONDITIONS).nullable(),
   ageBand: z.string().nullable(),
   /** "stroke, 60-64" or "suppressed group (n < 5)". */
@@ -31,12 +31,13 @@ export const cohortCell = z.object({
   suppressed: z.boolean(),
 });
 
-export const cohortPreview = z.object({
+export const cohortPreview = z.strictObject({
   k: z.number().int(),
-  definition: cohortDefinition,
+  // The definition as the server read it (defaults filled in), echoed back.
+  definition: cohortDefinition.strict(),
   metrics: z.array(z.string()),
   cells: z.array(cohortCell),
-  totals: z.object({ subjects: z.number().int(), sessions: z.number().int(), suppressedCells: z.number().int() }),
+  totals: z.strictObject({ subjects: z.number().int(), sessions: z.number().int(), suppressedCells: z.number().int() }),
 });
 
 /** GET /api/research/cohort-metrics: the definition as query parameters (comma-separated lists). */
@@ -51,7 +52,7 @@ export const cohortMetricsQuery = z.object({
   metrics: z.string().max(2000).optional(),
 });
 
-export const researchRow = z.object({
+export const researchRow = z.strictObject({
   subjectId: z.string(),
   sessionRef: z.string(),
   condition: z.enum(CONDITIONS),
@@ -64,28 +65,28 @@ export const researchRow = z.object({
   counts: z.record(z.string(), z.number().int().nullable()).optional(),
 });
 
-export const exportPrecisionEntry = z.object({ key: z.string(), unit: z.string(), label: z.string(), step: z.number(), decimals: z.number().int(), why: z.string() });
+export const exportPrecisionEntry = z.strictObject({ key: z.string(), unit: z.string(), label: z.string(), step: z.number(), decimals: z.number().int(), why: z.string() });
 
-export const studyClock = z.object({ blockWeeks: z.number().int(), capWeeks: z.number().int(), releaseLagDays: z.number().int() });
+export const studyClock = z.strictObject({ blockWeeks: z.number().int(), capWeeks: z.number().int(), releaseLagDays: z.number().int() });
 
-export const cohortMetricsJson = z.object({
+export const cohortMetricsJson = z.strictObject({
   k: z.number().int(),
-  project: z.object({ id: z.uuid(), name: z.string() }),
-  metrics: z.array(z.object({ key: z.string(), unit: z.string(), countNoun: z.string().optional(), step: z.number(), countStep: z.number() })),
+  project: z.strictObject({ id: z.uuid(), name: z.string() }),
+  metrics: z.array(z.strictObject({ key: z.string(), unit: z.string(), countNoun: z.string().optional(), step: z.number(), countStep: z.number() })),
   studyClock,
   rows: z.array(researchRow),
   suppressedCells: z.number().int(),
 });
 
-export const researchProject = z.object({
+export const researchProject = z.strictObject({
   id: z.uuid(),
   name: z.string(),
   purpose: z.string().nullable(),
-  owner: z.object({ id: z.uuid(), displayName: z.string() }),
+  owner: z.strictObject({ id: z.uuid(), displayName: z.string() }),
   createdAt: isoDateTime,
 });
 export type ResearchProject = z.infer<typeof researchProject>;
-export const researchProjectList = z.object({ items: z.array(researchProject) });
+export const researchProjectList = z.strictObject({ items: z.array(researchProject) });
 
 export const createResearchProjectRequest = z
   .object({
@@ -95,4 +96,4 @@ export const createResearchProjectRequest = z
   .strict();
 
 /** How each metric and the study clock leave the server (GET /api/research/export-rules). */
-export const exportRules = z.object({ k: z.number().int(), metrics: z.array(exportPrecisionEntry), countStep: z.number(), studyClock });
+export const exportRules = z.strictObject({ k: z.number().int(), metrics: z.array(exportPrecisionEntry), countStep: z.number(), studyClock });

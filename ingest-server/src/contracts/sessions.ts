@@ -10,14 +10,14 @@ export const uploadFields = z.object({
   startUtc: isoDateTime.optional(),
 });
 
-export const uploadResponse = z.object({
+export const uploadResponse = z.strictObject({
   id: z.uuid(),
   status: z.enum(SESSION_STATUSES),
   duplicate: z.boolean().optional(),
 });
 export type UploadResponse = z.infer<typeof uploadResponse>;
 
-export const sessionFile = z.object({
+export const sessionFile = z.strictObject({
   placement: z.enum(PLACEMENTS),
   deviceSerial: z.string().optional(),
   sizeBytes: z.number().int(),
@@ -30,7 +30,7 @@ export const analysisSchema = z.custom<Analysis>((v) => typeof v === "object" &&
   error: "analysis must be the analyze() object",
 });
 
-export const sessionSummary = z.object({
+export const sessionSummary = z.strictObject({
   id: z.uuid(),
   patientId: z.uuid(),
   status: z.enum(SESSION_STATUSES),
@@ -54,7 +54,7 @@ export const sessionDetail = sessionSummary.extend({
   files: z.array(sessionFile),
   analysis: analysisSchema.optional(),
   /** Per stored metric key (session_metrics), how many strides/steps/arm cycles its value rests on, when known. */
-  metricCounts: z.record(z.string(), z.object({ n: z.number().int(), countNoun: z.string() })).optional(),
+  metricCounts: z.record(z.string(), z.strictObject({ n: z.number().int(), countNoun: z.string() })).optional(),
 });
 export type SessionDetail = z.infer<typeof sessionDetail>;
 
@@ -65,14 +65,14 @@ export const signalQuery = z.object({
   maxPoints: z.coerce.number().int().min(10).max(20_000).default(2000),
 });
 
-export const signalResponse = z.object({
+export const signalResponse = z.strictObject({
   sessionId: z.uuid(),
   unit: z.literal("deg/s"),
   quantity: z.literal("sagittal angular velocity"),
   fromS: z.number(),
   toS: z.number(),
   traces: z.array(
-    z.object({
+    z.strictObject({
       placement: z.enum(PLACEMENTS),
       sampleRateHz: z.number(),
       /** True when min/max decimation was applied (each bucket gives its minimum and maximum). */
@@ -93,6 +93,6 @@ export const sessionUpdate = z
   })
   .strict();
 export type SessionUpdate = z.infer<typeof sessionUpdate>;
-export const sessionUpdateResponse = z.object({ id: z.uuid(), walkingAid: z.enum(WALKING_AIDS).nullable() });
+export const sessionUpdateResponse = z.strictObject({ id: z.uuid(), walkingAid: z.enum(WALKING_AIDS).nullable() });
 
-export const reprocessResponse = z.object({ id: z.uuid(), status: z.enum(SESSION_STATUSES) });
+export const reprocessResponse = z.strictObject({ id: z.uuid(), status: z.enum(SESSION_STATUSES) });

@@ -9,7 +9,7 @@ export const createTraining = z.object({
   description: z.string().trim().max(2000).optional(),
 });
 
-export const trainingEntry = z.object({
+export const trainingEntry = z.strictObject({
   id: z.uuid(),
   patientId: z.uuid(),
   authorId: z.uuid(),
@@ -20,4 +20,4 @@ export const trainingEntry = z.object({
   createdAt: isoDateTime,
 });
 
-export const trainingList = z.object({ items: z.array(trainingEntry) });
+export const trainingList = z.strictObject({ items: z.array(trainingEntry) });

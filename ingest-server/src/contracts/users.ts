@@ -2,7 +2,7 @@ import { z } from "zod";
 import { isoDateTime, page, paging } from "./common";
 import { ROLES, USER_STATUSES } from "./enums";
 
-export const userSummary = z.object({
+export const userSummary = z.strictObject({
   id: z.uuid(),
   email: z.string(),
   displayName: z.string(),

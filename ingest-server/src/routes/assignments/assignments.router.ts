@@ -1,4 +1,3 @@
-import { z } from "zod";
 import type { AppDeps } from "../../deps";
 import { idParams } from "../../contracts/common";
 import {
@@ -8,6 +7,7 @@ import {
   createAssignmentRequest,
   endAssignmentRequest,
   swapPlacementRequest,
+  swapPlacementResponse,
 } from "../../contracts/devices";
 import { ApiRouter, type RouteModule } from "../../http/api-router";
 import { createAssignmentsService } from "./assignments.service";
@@ -52,7 +52,7 @@ export function assignmentsRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["assignments:write"] },
       status: 201,
       request: { params: assignmentParams, body: swapPlacementRequest },
-      response: z.object({ ended: assignmentView, started: assignmentView }),
+      response: swapPlacementResponse,
       handler: ({ auth, params, body }, req) => service.swap(auth, params.id, params.assignmentId, body, req),
     });
 }
