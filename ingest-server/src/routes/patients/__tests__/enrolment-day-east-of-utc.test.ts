@@ -78,4 +78,17 @@ describe("enrolment day on a server east of UTC", () => {
     ]);
     expect(adherence?.missedWeeks).toEqual([]);
   });
+
+  it("a training day (the other DATE column) is answered as entered, on write and on read", async () => {
+    const auth = { Authorization: `Bearer ${await ctx.tokenFor(clinician)}` };
+    const created = await request(ctx.app)
+      .post(`/api/patients/${patient.patientId}/training`)
+      .set(auth)
+      .send({ performedOn: enrolledOn, kind: "overground", minutes: 20 });
+    expect(created.status).toBe(201);
+    expect(created.body.performedOn).toBe(enrolledOn);
+    const list = await request(ctx.app).get(`/api/patients/${patient.patientId}/training`).set(auth);
+    expect(list.status).toBe(200);
+    expect(list.body.items.map((t: { performedOn: string }) => t.performedOn)).toEqual([enrolledOn]);
+  });
 });
