@@ -1,22 +1,14 @@
-/** Small descriptive statistics used by the clinical rules. Inputs must be finite; callers drop NaN first. */
+import { mean, standardDeviation } from "@pendula/signal";
 
-function requireFinite(values: readonly number[], what: string): void {
+/**
+ * Line fit and circular statistics used by the clinical rules. Mean and SD are the analysis's own
+ * (`mean`, `standardDeviation` of @pendula/signal, gait/descriptive.ts: null when undefined for the
+ * input). Inputs here must be finite; callers drop NaN first.
+ */
+
+/** Throws a RangeError naming `what` when any value is NaN or ±Infinity. */
+export function requireFinite(values: readonly number[], what: string): void {
   for (const v of values) if (!Number.isFinite(v)) throw new RangeError(`${what}: every value must be finite`);
-}
-
-export function mean(values: readonly number[]): number {
-  if (values.length === 0) throw new RangeError("mean: empty input");
-  requireFinite(values, "mean");
-  // Two-pass (mean of deviations) keeps precision for values far from zero.
-  const first = values.reduce((s, v) => s + v, 0) / values.length;
-  return first + values.reduce((s, v) => s + (v - first), 0) / values.length;
-}
-
-/** Sample standard deviation with n − 1 in the denominator (NumPy `std(ddof=1)`). */
-export function sampleSd(values: readonly number[]): number {
-  if (values.length < 2) throw new RangeError("sampleSd: needs at least 2 values");
-  const m = mean(values);
-  return Math.sqrt(values.reduce((s, v) => s + (v - m) ** 2, 0) / (values.length - 1));
 }
 
 export interface LinearFit {
@@ -32,6 +24,7 @@ export function olsFit(x: readonly number[], y: readonly number[]): LinearFit {
   requireFinite(y, "olsFit y");
   const mx = mean(x);
   const my = mean(y);
+  if (mx === null || my === null) throw new RangeError("olsFit: needs at least 2 points");
   let sxx = 0;
   let sxy = 0;
   for (let i = 0; i < x.length; i++) {
@@ -98,7 +91,8 @@ export function circularDeviationSd(anglesDeg: readonly number[]): number {
   if (anglesDeg.length < 2) throw new RangeError("circularDeviationSd: needs at least 2 values");
   const { meanDeg } = circularSummary(anglesDeg);
   if (Number.isNaN(meanDeg)) return Number.POSITIVE_INFINITY; // no mean direction: no usable spread
-  return sampleSd(anglesDeg.map((a) => circularDifferenceDeg(a, meanDeg)));
+  // At least 2 deviations, so the sample SD exists.
+  return standardDeviation(anglesDeg.map((a) => circularDifferenceDeg(a, meanDeg)), 1)!;
 }
 
 /**

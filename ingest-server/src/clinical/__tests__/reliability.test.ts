@@ -9,7 +9,8 @@ import {
   resolveMdc,
   standardErrorOfMeasurement,
 } from "../reliability";
-import { mean, olsFit, sampleSd } from "../statistics";
+import { mean, standardDeviation } from "@pendula/signal";
+import { olsFit } from "../statistics";
 
 describe("standardErrorOfMeasurement and minimalDetectableChange95", () => {
   it("reproduces the worked example SD 0.20, ICC 0.90 → SEM 0.06325, MDC95 0.1753 (Weir 2005 formula; docs/methods.md#measurement-error-and-important-change)", () => {
@@ -50,12 +51,12 @@ describe("iccBand (Koo & Li 2016 cut-offs, docs/methods.md#measurement-error-and
 describe("sample statistics against NumPy/SciPy fixtures", () => {
   it.each(Object.entries(fixtures.sd))("mean and SD (ddof 1) of %s match numpy", (_name, f) => {
     expect(mean(f.values)).toBeCloseTo(f.mean, 12);
-    expect(sampleSd(f.values)).toBeCloseTo(f.sd, 12);
+    expect(standardDeviation(f.values, 1)).toBeCloseTo(f.sd, 12);
   });
 
   it("stride CV of [1.10, 1.12, 1.08, 1.11, 1.09, 1.10] s is 1.2856 % (docs/methods.md#worked-examples, ddof 1)", () => {
     const v = fixtures.sd.stride.values;
-    expect((100 * sampleSd(v)) / mean(v)).toBeCloseTo(1.2856, 4);
+    expect((100 * standardDeviation(v, 1)!) / mean(v)!).toBeCloseTo(1.2856, 4);
   });
 
   it("OLS slope and intercept match scipy.stats.linregress", () => {
@@ -64,11 +65,15 @@ describe("sample statistics against NumPy/SciPy fixtures", () => {
     expect(fit.intercept).toBeCloseTo(fixtures.ols.intercept, 12);
   });
 
-  it("refuses empty, single-value and constant-x input", () => {
-    expect(() => mean([])).toThrow(RangeError);
-    expect(() => sampleSd([1])).toThrow(RangeError);
+  it("gives no mean or SD where none is defined (null: no values, one value for the sample SD)", () => {
+    expect(mean([])).toBeNull();
+    expect(standardDeviation([1], 1)).toBeNull();
+  });
+
+  it("refuses a single point, constant x and non-finite values in the line fit", () => {
+    expect(() => olsFit([1], [2])).toThrow(RangeError);
     expect(() => olsFit([1, 1], [2, 3])).toThrow(RangeError);
-    expect(() => mean([1, Number.NaN])).toThrow(RangeError);
+    expect(() => olsFit([1, 2], [2, Number.NaN])).toThrow(RangeError);
   });
 });
 

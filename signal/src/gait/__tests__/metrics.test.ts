@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { Stride } from "../../types";
-import { coefficientOfVariationPct, standardDeviation } from "../descriptive";
+import { coefficientOfVariationPct, mean, standardDeviation } from "../descriptive";
 import { dfaAlphaOrReason, detrendedFluctuation, DFA_MIN_STRIDES } from "../dfa";
 import { gaitAsymmetryPct } from "../gait-asymmetry";
 import { phaseCoordinationIndex } from "../phase-coordination-index";
@@ -50,6 +50,24 @@ describe("gaitAsymmetryPct(swingL, swingR)", () => {
     expect(gaitAsymmetryPct(0.4, 0.4)).toBe(0);
     expect(gaitAsymmetryPct(null, 0.4)).toBeNull();
     expect(gaitAsymmetryPct(0, 0.4)).toBeNull();
+  });
+});
+
+describe("mean and standardDeviation: one empty-input policy (null where undefined)", () => {
+  it("match NumPy mean and std(ddof=1) of the stride times [1.10, 1.12, 1.08, 1.11, 1.09, 1.10] s to 1e-12", () => {
+    // np.mean → 1.0999999999999999, np.std(ddof=1) → 0.014142135623730963 (NumPy; the clinical
+    // reliability fixtures hold the same values).
+    const v = [1.1, 1.12, 1.08, 1.11, 1.09, 1.1];
+    expect(Math.abs(mean(v)! - 1.0999999999999999)).toBeLessThan(1e-12);
+    expect(Math.abs(standardDeviation(v, 1)! - 0.014142135623730963)).toBeLessThan(1e-12);
+  });
+
+  it("is null for no values, and the SD for n ≤ ddof; NaN propagates rather than being dropped", () => {
+    expect(mean([])).toBeNull();
+    expect(standardDeviation([], 0)).toBeNull();
+    expect(standardDeviation([2.5], 1)).toBeNull();
+    expect(standardDeviation([2.5], 0)).toBe(0);
+    expect(mean([1, Number.NaN])).toBeNaN();
   });
 });
 
