@@ -22,9 +22,6 @@ export const CONDITION_SHORT_LABEL: Record<Condition, string> = {
   other: "Other",
 };
 
-export { CONDITIONS };
-export type { Condition };
-
 /** Every condition in the server's order, with its full words (selects and check lists). */
 export const CONDITION_OPTIONS: readonly { value: Condition; label: string }[] = CONDITIONS.map((value) => ({ value, label: CONDITION_LABEL[value] }));
 

@@ -28,8 +28,6 @@ export const PLACEMENT_PLAIN_WORDS: Record<Placement, string> = {
   lower_back: "lower back",
 };
 
-export { PLACEMENTS };
-
 /** The four placements of the weekly home test first, then the others the hardware supports. */
 export const PLACEMENT_OPTIONS: readonly { value: Placement; label: string }[] = PLACEMENTS.map((value) => ({ value, label: PLACEMENT_LABEL[value] }));
 

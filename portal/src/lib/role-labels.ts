@@ -1,4 +1,4 @@
-import { ROLES, type Role } from "@pendula/ingest-server/contracts";
+import type { Role } from "@pendula/ingest-server/contracts";
 
 /** Words for the four roles; a Record over the server's enumeration, so a new role needs its words. */
 export const ROLE_LABEL: Record<Role, string> = {
@@ -7,9 +7,6 @@ export const ROLE_LABEL: Record<Role, string> = {
   researcher: "Researcher",
   admin: "Administrator",
 };
-
-export { ROLES };
-export type { Role };
 
 /** Words for a role; a value this build does not know is shown as it came. */
 export function roleLabel(value: string): string {

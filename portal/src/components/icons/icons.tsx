@@ -104,22 +104,10 @@ export const IconSearch = (p: IconProps) => (
     <path d="M12.6 12.6l4.4 4.4" />
   </Svg>
 );
-export const IconClose = (p: IconProps) => (
-  <Svg {...p}>
-    <path d="M5 5l10 10M15 5L5 15" />
-  </Svg>
-);
 export const IconClock = (p: IconProps) => (
   <Svg {...p}>
     <circle cx="10" cy="10" r="7.2" />
     <path d="M10 5.8V10l2.8 1.8" />
-  </Svg>
-);
-export const IconNote = (p: IconProps) => (
-  <Svg {...p}>
-    <path d="M4 3h12v10.5L12.5 17H4z" />
-    <path d="M12.5 17v-3.5H16" />
-    <path d="M7 7h6M7 10h4" />
   </Svg>
 );
 export const IconSort = (p: Omit<IconProps, "direction"> & { sortDir?: "asc" | "desc" | false }) => {
@@ -131,12 +119,6 @@ export const IconSort = (p: Omit<IconProps, "direction"> & { sortDir?: "asc" | "
     </Svg>
   );
 };
-export const IconPerson = (p: IconProps) => (
-  <Svg {...p}>
-    <circle cx="10" cy="6.5" r="3.2" />
-    <path d="M3.8 17c.7-3.3 3.2-5 6.2-5s5.5 1.7 6.2 5" />
-  </Svg>
-);
 export const IconSignOut = (p: IconProps) => (
   <Svg {...p}>
     <path d="M8 3.5H4.2v13H8" />
@@ -146,11 +128,5 @@ export const IconSignOut = (p: IconProps) => (
 export const IconWave = (p: IconProps) => (
   <Svg {...p}>
     <path d="M2.5 10c1.2-4 2.4-4 3.6 0s2.4 4 3.6 0 2.4-4 3.6 0 2.4 4 3.6 0" />
-  </Svg>
-);
-export const IconLink = (p: IconProps) => (
-  <Svg {...p}>
-    <path d="M8.5 11.5l3-3" />
-    <path d="M7 9.5l-1.8 1.8a2.6 2.6 0 003.7 3.7l1.8-1.8M13 10.5l1.8-1.8a2.6 2.6 0 00-3.7-3.7L9.3 6.8" />
   </Svg>
 );

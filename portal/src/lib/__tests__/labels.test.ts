@@ -1,7 +1,8 @@
 import { describe, expect, it } from "vitest";
-import { CONDITION_LABEL, CONDITION_OPTIONS, CONDITION_SHORT_LABEL, CONDITIONS, conditionLabel } from "../condition-labels";
-import { PLACEMENT_LABEL, PLACEMENT_OPTIONS, PLACEMENT_PLAIN_WORDS, PLACEMENTS, placementLabel, placementWords } from "../placement-labels";
-import { ROLE_LABEL, ROLES, roleLabel } from "../role-labels";
+import { CONDITIONS, PLACEMENTS, ROLES } from "@pendula/ingest-server/contracts";
+import { CONDITION_LABEL, CONDITION_OPTIONS, CONDITION_SHORT_LABEL, conditionLabel } from "../condition-labels";
+import { PLACEMENT_LABEL, PLACEMENT_OPTIONS, PLACEMENT_PLAIN_WORDS, placementLabel, placementWords } from "../placement-labels";
+import { ROLE_LABEL, roleLabel } from "../role-labels";
 
 // The value lists are the server's enumerations (db/src/enums.ts, enforced by CHECK constraints);
 // the Records make a missing label a type error, these checks make a stray or empty one a failure.
