@@ -9,10 +9,9 @@ import {
   listCaseloadLinksQuery,
 } from "../../contracts/caseload-links";
 import { ApiRouter, type RouteModule } from "../../http/api-router";
-import { createCaseloadLinksService } from "./caseload-links.service";
+import { createCaseloadLink, endCaseloadLink, listCaseloadLinks, readCareTeam } from "./caseload-links.service";
 
 export function caseloadLinksRouter(deps: AppDeps): ApiRouter {
-  const service = createCaseloadLinksService(deps);
   return new ApiRouter("/api/caseload-links", deps)
     .endpoint({
       method: "get",
@@ -21,7 +20,7 @@ export function caseloadLinksRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["users:read", "patients:read:caseload"] },
       request: { query: listCaseloadLinksQuery },
       response: caseloadLinkPage,
-      handler: ({ auth, query }, req) => service.list(auth, query, req),
+      handler: ({ auth, query }, req) => listCaseloadLinks(deps, auth, query, req),
     })
     .endpoint({
       method: "post",
@@ -31,7 +30,7 @@ export function caseloadLinksRouter(deps: AppDeps): ApiRouter {
       status: 201,
       request: { body: createCaseloadLinkRequest },
       response: caseloadLinkView,
-      handler: ({ auth, body }, req) => service.create(auth, body, req),
+      handler: ({ auth, body }, req) => createCaseloadLink(deps, auth, body, req),
     })
     .endpoint({
       method: "delete",
@@ -40,7 +39,7 @@ export function caseloadLinksRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["users:write"] },
       request: { params: idParams, body: endCaseloadLinkRequest },
       response: caseloadLinkView,
-      handler: ({ auth, params, body }, req) => service.end(auth, params.id, body, req),
+      handler: ({ auth, params, body }, req) => endCaseloadLink(deps, auth, params.id, body, req),
     })
     .endpoint({
       method: "get",
@@ -48,7 +47,7 @@ export function caseloadLinksRouter(deps: AppDeps): ApiRouter {
       summary: "The signed-in patient's clinicians who can read their walks, and former ones",
       access: { scopes: ["sessions:read:own"] },
       response: careTeam,
-      handler: ({ auth }, req) => service.careTeam(auth, req),
+      handler: ({ auth }, req) => readCareTeam(deps, auth, req),
     });
 }
 

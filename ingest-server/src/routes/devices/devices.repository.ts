@@ -89,6 +89,21 @@ export const devicesRepository = {
     return row.id as string;
   },
 
+  /** The fields a change is judged on, with the row locked until the transaction ends. */
+  lockForChange(trx: Knex.Transaction, id: string): Promise<Pick<DeviceRow, "status" | "firmware" | "notes"> | undefined> {
+    return trx("devices").where({ id }).forUpdate().first("status", "firmware", "notes");
+  },
+
+  /** True while an assignment of the device is in force now. */
+  async hasAssignmentInForce(db: Db, id: string): Promise<boolean> {
+    const row = await db("device_assignments")
+      .where({ device_id: id })
+      .where("valid_from", "<=", db.fn.now())
+      .where((w) => w.whereNull("valid_to").orWhere("valid_to", ">", db.fn.now()))
+      .first("id");
+    return row !== undefined;
+  },
+
   update(db: Db, id: string, patch: Record<string, unknown>): Promise<number> {
     return db("devices").where({ id }).update(patch);
   },

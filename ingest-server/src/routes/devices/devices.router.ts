@@ -2,10 +2,9 @@ import type { AppDeps } from "../../deps";
 import { idParams } from "../../contracts/common";
 import { createDeviceRequest, deviceList, deviceView, listDevicesQuery, updateDeviceRequest } from "../../contracts/devices";
 import { ApiRouter, type RouteModule } from "../../http/api-router";
-import { createDevicesService } from "./devices.service";
+import { createDevice, getDevice, listDevices, updateDevice } from "./devices.service";
 
 export function devicesRouter(deps: AppDeps): ApiRouter {
-  const service = createDevicesService(deps);
   return new ApiRouter("/api/devices", deps)
     .endpoint({
       method: "get",
@@ -14,7 +13,7 @@ export function devicesRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["devices:read"] },
       request: { query: listDevicesQuery },
       response: deviceList,
-      handler: ({ query }) => service.list(query),
+      handler: ({ query }) => listDevices(deps, query),
     })
     .endpoint({
       method: "post",
@@ -24,7 +23,7 @@ export function devicesRouter(deps: AppDeps): ApiRouter {
       status: 201,
       request: { body: createDeviceRequest },
       response: deviceView,
-      handler: ({ body }, req) => service.create(body, req),
+      handler: ({ body }, req) => createDevice(deps, body, req),
     })
     .endpoint({
       method: "get",
@@ -33,7 +32,7 @@ export function devicesRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["devices:read"] },
       request: { params: idParams },
       response: deviceView,
-      handler: ({ params }) => service.get(params.id),
+      handler: ({ params }) => getDevice(deps, params.id),
     })
     .endpoint({
       method: "patch",
@@ -42,7 +41,7 @@ export function devicesRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["devices:write"] },
       request: { params: idParams, body: updateDeviceRequest },
       response: deviceView,
-      handler: ({ params, body }, req) => service.update(params.id, body, req),
+      handler: ({ params, body }, req) => updateDevice(deps, params.id, body, req),
     });
 }
 

@@ -54,6 +54,16 @@ export const usersRepository = {
     return row;
   },
 
+  /** The fields a change is judged on, with the row locked until the transaction ends. */
+  lockForChange(trx: Knex.Transaction, id: string): Promise<Pick<Row, "id" | "role" | "status" | "display_name"> | undefined> {
+    return trx("users").where({ id }).forUpdate().first("id", "role", "status", "display_name");
+  },
+
+  /** Ends every open refresh session of the user. */
+  async revokeRefreshTokens(db: Db, userId: string): Promise<void> {
+    await db("refresh_tokens").where({ user_id: userId }).whereNull("revoked_at").update({ revoked_at: db.fn.now() });
+  },
+
   countActiveAdmins(db: Db): Promise<number> {
     return db("users")
       .where({ role: "admin", status: "active" })

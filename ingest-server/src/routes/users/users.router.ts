@@ -2,10 +2,9 @@ import type { AppDeps } from "../../deps";
 import { idParams } from "../../contracts/common";
 import { listUsersQuery, updateUserRequest, userPage, userSummary } from "../../contracts/users";
 import { ApiRouter, type RouteModule } from "../../http/api-router";
-import { createUsersService } from "./users.service";
+import { getUser, listUsers, updateUser } from "./users.service";
 
 export function usersRouter(deps: AppDeps): ApiRouter {
-  const service = createUsersService(deps);
   return new ApiRouter("/api/users", deps)
     .endpoint({
       method: "get",
@@ -14,7 +13,7 @@ export function usersRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["users:read"] },
       request: { query: listUsersQuery },
       response: userPage,
-      handler: ({ query }) => service.list(query),
+      handler: ({ query }) => listUsers(deps, query),
     })
     .endpoint({
       method: "get",
@@ -23,7 +22,7 @@ export function usersRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["users:read"] },
       request: { params: idParams },
       response: userSummary,
-      handler: ({ params }) => service.get(params.id),
+      handler: ({ params }) => getUser(deps, params.id),
     })
     .endpoint({
       method: "patch",
@@ -32,7 +31,7 @@ export function usersRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["users:write"] },
       request: { params: idParams, body: updateUserRequest },
       response: userSummary,
-      handler: ({ auth, params, body }, req) => service.update(auth, params.id, body, req),
+      handler: ({ auth, params, body }, req) => updateUser(deps, auth, params.id, body, req),
     })
     .endpoint({
       method: "post",
@@ -41,7 +40,7 @@ export function usersRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["users:write"] },
       request: { params: idParams },
       response: userSummary,
-      handler: ({ auth, params }, req) => service.update(auth, params.id, { status: "disabled" }, req),
+      handler: ({ auth, params }, req) => updateUser(deps, auth, params.id, { status: "disabled" }, req),
     });
 }
 
