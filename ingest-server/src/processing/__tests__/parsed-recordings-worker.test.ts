@@ -34,6 +34,8 @@ describe("processing from the parsed recordings", () => {
     const res = await upload(ctx, token, synthFor(serials, { seed: 17, durationS: 120, strideTimeS: 1.1 }).files);
     expect(res.status, JSON.stringify(res.body)).toBe(202);
     const id = res.body.id as string;
+    // Where the upload's time went (W3C Server Timing), read by `npm run bench:e2e`.
+    for (const part of ["parse", "store", "record"]) expect(res.headers["server-timing"]).toMatch(new RegExp(`(^|, )${part};dur=\\d+\\.\\d(,|$)`));
     const key = parsedRecordingsKey(patient.patientId!, id);
     expect(await listObjectKeys(ctx)).toContain(key);
 

@@ -103,16 +103,6 @@ async function mapPlacements(deps: AppDeps, patientId: string, upload: UploadSum
   return mapped;
 }
 
-/** A cache of the parse, not the record: if it cannot be stored the worker parses the originals. */
-async function storeParsedRecordings(deps: AppDeps, key: string, file: string, stored: string[]): Promise<void> {
-  stored.push(key);
-  try {
-    await deps.storage.putFile(key, file, "application/octet-stream");
-  } catch (err) {
-    console.error(`[upload] parsed recordings not stored (${key}); the worker will parse the uploaded files`, err);
-  }
-}
-
 /** `<DeviceSerialNumber>:<tracked point>` → its two parts (the serial itself may hold colons). */
 function splitBidsSerial(serial: string): [string, string] {
   const at = serial.lastIndexOf(":");
@@ -121,112 +111,186 @@ function splitBidsSerial(serial: string): [string, string] {
 
 /**
  * POST /api/sessions. Order matters for "nothing lost, nothing orphaned":
- * 1. parse and validate everything in a parse thread, from the request's private folder (a 4xx
- *    here stores nothing; the folder goes when the response closes);
- * 2. same patient + same content → the existing session (200 duplicate);
- * 3. raw files streamed from disk to object storage under keys unique to this attempt, all at
- *    once, with the parse thread's recordings beside them (the worker reads those instead of
- *    parsing the text again; best effort: without them it parses the originals);
- * 4. session + raw_files rows in one transaction; if it fails, this attempt's objects are deleted.
- *    A concurrent identical upload loses on the unique (patient_id, content_sha256) constraint,
- *    deletes its own objects and answers with the winner;
+ * 1. the files start streaming from the request's private folder to object storage under keys
+ *    unique to this attempt (the attempt's session id), while a parse thread validates them and
+ *    writes their parsed recordings beside them — storing no longer waits for parsing;
+ * 2. any refusal (a 4xx from the parse, an unknown or unassigned device) waits for the PUTs still
+ *    running and deletes every key of this attempt before answering, so a refused upload leaves
+ *    nothing behind; the folder goes when the response closes;
+ * 3. same patient + same content → the existing session (200 duplicate; this attempt's objects
+ *    are deleted);
+ * 4. the parsed recordings are stored too (best effort: without them the worker parses the
+ *    originals), then session + raw_files rows in one transaction; if it fails, this attempt's
+ *    objects are deleted. A concurrent identical upload loses on the unique (patient_id,
+ *    content_sha256) constraint, deletes its own objects and answers with the winner;
  * 5. enqueue processing. If enqueueing fails the session stays `queued` and the worker's sweep
  *    re-enqueues it, so the upload is never lost.
+ * Keys never hold anything another attempt could share, so deleting them never touches what was
+ * stored before.
  */
 export async function uploadSession(deps: AppDeps, req: Request, input: UploadInput): Promise<UploadResult> {
   const patientId = resolvePatient(input.auth, input.patientId);
   await assertPatientAccess(deps.db, input.auth, patientId, "clinical");
 
-  // The parse thread writes the parsed recordings next to the bodies, in the request's private folder.
-  const parsedPath = input.files[0] ? path.join(path.dirname(input.files[0].path), "parsed-recordings") : undefined;
-  const upload = await uploadParsePool().run({
-    files: input.files,
-    ...(parsedPath === undefined ? {} : { parsedPath }),
-    maxChars: deps.config.upload.maxFileBytes,
-    ...(input.bidsStartUtc === undefined ? {} : { bidsStartUtc: input.bidsStartUtc }),
-  });
-  const placements = await mapPlacements(deps, patientId, upload);
-
-  const existing = await findSessionByContent(deps.db, patientId, upload.contentSha256);
-  if (existing) {
-    await audit(deps.db, req, { action: "session.upload_duplicate", resourceType: "session", resourceId: existing.id, patientId });
-    return { id: existing.id, status: existing.status, duplicate: true };
-  }
-
+  const timing = new ServerTiming();
   const sessionId = randomUUID();
-  const recordedAt = upload.recordings.map((r) => r.startUtc).sort()[0]!;
-  const rows: NewRawFile[] = upload.files.map((file, fileIndex) => {
-    // Sidecars of a BIDS set describe the recordings of their data file.
-    const dataIndex = file.bidsMotionFile ? upload.files.findIndex((f) => f.originalName === file.bidsMotionFile) : fileIndex;
-    const recIndexes = upload.files[dataIndex]!.recordingIndexes;
-    const first = recIndexes[0]!;
-    const recording = upload.recordings[first]!;
-    const isData = fileIndex === dataIndex;
-    return {
-      // Keys never contain names a user chose (see ObjectStorage); the attempt's session id keeps
-      // two concurrent uploads of the same bytes from ever sharing — and deleting — one object.
-      storage_key: `raw/${patientId}/${sessionId}/${String(fileIndex).padStart(2, "0")}-${file.sha256}`,
-      sha256: file.sha256,
-      size_bytes: file.sizeBytes,
-      original_name: file.originalName,
-      format: file.format,
-      device_serial: recording.deviceSerial,
-      device_id: placements[first]!.deviceId,
-      placement: placements[first]!.placement,
-      start_utc: new Date(recording.startUtc),
-      recording_placements:
-        file.format === "bids-motion" && isData
-          ? Object.fromEntries(recIndexes.map((r) => [upload.recordings[r]!.deviceSerial, placements[r]!.placement]))
-          : null,
-    };
-  });
+  // Keys never contain names a user chose (see ObjectStorage); the attempt's session id keeps two
+  // concurrent uploads of the same bytes from ever sharing — and deleting — one object.
+  const keys = input.files.map((_, i) => `raw/${patientId}/${sessionId}/${String(i).padStart(2, "0")}`);
+  const attempt = new StoredAttempt(deps);
+  const storing = timing.measure(
+    "store",
+    attempt.putAll(
+      input.files.map((f, i) => ({ key: keys[i]!, path: f.path, contentType: f.originalName.toLowerCase().endsWith(".json") ? "application/json" : "text/plain" })),
+    ),
+  );
+  // A refusal may come before the PUTs settle; their failure is then no longer anyone's answer.
+  storing.catch(() => undefined);
 
-  const stored: string[] = [];
-  const removeStored = async () => {
-    await Promise.allSettled(stored.map((key) => deps.storage.delete(key)));
-  };
   try {
-    // In parallel: the storage round trips overlap instead of adding up. Every key is recorded
-    // before its PUT starts (deleting a missing key is no error), so a failure of any one removes
-    // the others, including a PUT that timed out on our side but completed on the storage's.
-    const puts = rows.map(async (row, i) => {
-      const contentType = upload.files[i]!.originalName.toLowerCase().endsWith(".json") ? "application/json" : "text/plain";
-      stored.push(row.storage_key);
-      await deps.storage.putFile(row.storage_key, upload.files[i]!.path, contentType);
+    // The parse thread writes the parsed recordings next to the bodies, in the request's private folder.
+    const parsedPath = input.files[0] ? path.join(path.dirname(input.files[0].path), "parsed-recordings") : undefined;
+    const upload = await timing.measure(
+      "parse",
+      uploadParsePool().run({
+        files: input.files,
+        ...(parsedPath === undefined ? {} : { parsedPath }),
+        maxChars: deps.config.upload.maxFileBytes,
+        ...(input.bidsStartUtc === undefined ? {} : { bidsStartUtc: input.bidsStartUtc }),
+      }),
+    );
+    const placements = await mapPlacements(deps, patientId, upload);
+
+    const existing = await findSessionByContent(deps.db, patientId, upload.contentSha256);
+    if (existing) {
+      await attempt.discard();
+      await audit(deps.db, req, { action: "session.upload_duplicate", resourceType: "session", resourceId: existing.id, patientId });
+      return { id: existing.id, status: existing.status, duplicate: true };
+    }
+
+    const recordedAt = upload.recordings.map((r) => r.startUtc).sort()[0]!;
+    const rows: NewRawFile[] = upload.files.map((file, fileIndex) => {
+      // Sidecars of a BIDS set describe the recordings of their data file.
+      const dataIndex = file.bidsMotionFile ? upload.files.findIndex((f) => f.originalName === file.bidsMotionFile) : fileIndex;
+      const recIndexes = upload.files[dataIndex]!.recordingIndexes;
+      const first = recIndexes[0]!;
+      const recording = upload.recordings[first]!;
+      const isData = fileIndex === dataIndex;
+      return {
+        storage_key: keys[fileIndex]!,
+        sha256: file.sha256,
+        size_bytes: file.sizeBytes,
+        original_name: file.originalName,
+        format: file.format,
+        device_serial: recording.deviceSerial,
+        device_id: placements[first]!.deviceId,
+        placement: placements[first]!.placement,
+        start_utc: new Date(recording.startUtc),
+        recording_placements:
+          file.format === "bids-motion" && isData
+            ? Object.fromEntries(recIndexes.map((r) => [upload.recordings[r]!.deviceSerial, placements[r]!.placement]))
+            : null,
+      };
     });
-    if (parsedPath) puts.push(storeParsedRecordings(deps, parsedRecordingsKey(patientId, sessionId), parsedPath, stored));
+
+    // A cache of the parse, not the record: if it cannot be stored the worker parses the originals.
+    const parsedStored = parsedPath
+      ? attempt.putAll([{ key: parsedRecordingsKey(patientId, sessionId), path: parsedPath, contentType: "application/octet-stream" }]).catch((err: unknown) => {
+          console.error(`[upload] parsed recordings of session ${sessionId} not stored; the worker will parse the uploaded files`, err);
+        })
+      : Promise.resolve();
+    await Promise.all([storing, parsedStored]);
+    try {
+      await timing.measure(
+        "record",
+        insertSessionWithFiles(deps.db, { id: sessionId, patientId, recordedAt, uploadedBy: input.auth.userId, contentSha256: upload.contentSha256 }, rows),
+      );
+    } catch (err) {
+      if (!isDuplicateContentError(err)) throw err;
+      await attempt.discard();
+      const winner = await findSessionByContent(deps.db, patientId, upload.contentSha256);
+      if (!winner) throw err;
+      await audit(deps.db, req, { action: "session.upload_duplicate", resourceType: "session", resourceId: winner.id, patientId });
+      return { id: winner.id, status: winner.status, duplicate: true };
+    }
+    attempt.keep();
+
+    await audit(deps.db, req, {
+      action: "session.upload",
+      resourceType: "session",
+      resourceId: sessionId,
+      patientId,
+      details: { files: rows.length, bytes: rows.reduce((n, r) => n + Number(r.size_bytes), 0) },
+    });
+    try {
+      await enqueueProcessing(deps, sessionId);
+    } catch (err) {
+      console.error(`[upload] session ${sessionId} stored but not enqueued; the worker sweep will pick it up`, err);
+    }
+    const session = await findSession(deps.db, sessionId);
+    return { id: sessionId, status: session?.status ?? "queued", duplicate: false };
+  } finally {
+    // Refused, failed or a duplicate: nothing of this attempt stays in storage (a no-op once kept).
+    await attempt.discard();
+    if (req.res && !req.res.headersSent) req.res.setHeader("Server-Timing", timing.header());
+  }
+}
+
+/**
+ * The objects one upload attempt writes. Every key is recorded before its PUT starts (deleting a
+ * missing key is no error), so discarding removes whatever made it, including a PUT that failed
+ * on our side but completed on the storage's. Discarding waits for running PUTs to finish rather
+ * than abandoning them: a PUT cut off on our side may still be completed by the storage after
+ * our DELETE, leaving an orphan (seen with the fake); a refusal waits at most for its own files.
+ */
+class StoredAttempt {
+  private readonly keys: string[] = [];
+  private readonly running = new Set<Promise<unknown>>();
+  private kept = false;
+
+  constructor(private readonly deps: Pick<AppDeps, "storage">) {}
+
+  /** All at once: the storage round trips overlap instead of adding up. Rejects with the first failure, after all have settled. */
+  async putAll(files: Array<{ key: string; path: string; contentType: string }>): Promise<void> {
+    const puts = files.map((f) => {
+      this.keys.push(f.key);
+      const put = this.deps.storage.putFile(f.key, f.path, f.contentType);
+      this.running.add(put);
+      void put.catch(() => undefined).finally(() => this.running.delete(put));
+      return put;
+    });
     const outcomes = await Promise.allSettled(puts);
     const failed = outcomes.find((o): o is PromiseRejectedResult => o.status === "rejected");
     if (failed) throw failed.reason;
-    await insertSessionWithFiles(
-      deps.db,
-      { id: sessionId, patientId, recordedAt, uploadedBy: input.auth.userId, contentSha256: upload.contentSha256 },
-      rows,
-    );
-  } catch (err) {
-    await removeStored();
-    if (isDuplicateContentError(err)) {
-      const winner = await findSessionByContent(deps.db, patientId, upload.contentSha256);
-      if (winner) {
-        await audit(deps.db, req, { action: "session.upload_duplicate", resourceType: "session", resourceId: winner.id, patientId });
-        return { id: winner.id, status: winner.status, duplicate: true };
-      }
-    }
-    throw err;
   }
 
-  await audit(deps.db, req, {
-    action: "session.upload",
-    resourceType: "session",
-    resourceId: sessionId,
-    patientId,
-    details: { files: rows.length, bytes: rows.reduce((n, r) => n + Number(r.size_bytes), 0) },
-  });
-  try {
-    await enqueueProcessing(deps, sessionId);
-  } catch (err) {
-    console.error(`[upload] session ${sessionId} stored but not enqueued; the worker sweep will pick it up`, err);
+  /** The session row now points at these objects: they are the record. */
+  keep(): void {
+    this.kept = true;
   }
-  const session = await findSession(deps.db, sessionId);
-  return { id: sessionId, status: session?.status ?? "queued", duplicate: false };
+
+  async discard(): Promise<void> {
+    if (this.kept || this.keys.length === 0) return;
+    await Promise.allSettled([...this.running]);
+    const keys = this.keys.splice(0);
+    await Promise.allSettled(keys.map((key) => this.deps.storage.delete(key)));
+  }
+}
+
+/** W3C Server Timing (https://www.w3.org/TR/server-timing/): where an upload's time went, for clients and benchmarks. */
+class ServerTiming {
+  private readonly parts: Array<[string, number]> = [];
+
+  async measure<T>(name: string, work: Promise<T>): Promise<T> {
+    const t0 = performance.now();
+    try {
+      return await work;
+    } finally {
+      this.parts.push([name, performance.now() - t0]);
+    }
+  }
+
+  header(): string {
+    return this.parts.map(([name, ms]) => `${name};dur=${ms.toFixed(1)}`).join(", ");
+  }
 }
