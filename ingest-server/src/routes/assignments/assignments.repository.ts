@@ -31,6 +31,19 @@ const base = (db: Db) =>
     .select("a.id", "a.device_id", "d.serial", "a.patient_id", "p.display_name as patient_label", "a.placement", "a.valid_from", "a.valid_to");
 
 export const assignmentsRepository = {
+  /** The device an assignment change is about, locked until the transaction ends. */
+  lockDevice(trx: Db, id: string): Promise<{ id: string; serial: string; status: string } | undefined> {
+    return trx("devices").where({ id }).forUpdate().first("id", "serial", "status");
+  },
+
+  async deviceExists(db: Db, id: string): Promise<boolean> {
+    return (await db("devices").where({ id }).first("id")) !== undefined;
+  },
+
+  async patientExists(db: Db, id: string): Promise<boolean> {
+    return (await db("patients").where({ id }).first("id")) !== undefined;
+  },
+
   listForDevice(db: Db, deviceId: string): Promise<Row[]> {
     return base(db).where("a.device_id", deviceId).orderBy("a.valid_from", "desc");
   },

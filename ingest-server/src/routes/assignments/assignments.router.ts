@@ -10,12 +10,11 @@ import {
   swapPlacementResponse,
 } from "../../contracts/devices";
 import { ApiRouter, type RouteModule } from "../../http/api-router";
-import { createAssignmentsService } from "./assignments.service";
+import { createAssignment, endAssignment, listAssignments, swapAssignmentPlacement } from "./assignments.service";
 
 const PREFIX = "/api/devices";
 
 export function assignmentsRouter(deps: AppDeps): ApiRouter {
-  const service = createAssignmentsService(deps);
   return new ApiRouter(PREFIX, deps)
     .endpoint({
       method: "get",
@@ -24,7 +23,7 @@ export function assignmentsRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["assignments:read"] },
       request: { params: idParams },
       response: assignmentList,
-      handler: ({ params }) => service.list(params.id),
+      handler: ({ params }) => listAssignments(deps, params.id),
     })
     .endpoint({
       method: "post",
@@ -34,7 +33,7 @@ export function assignmentsRouter(deps: AppDeps): ApiRouter {
       status: 201,
       request: { params: idParams, body: createAssignmentRequest },
       response: assignmentView,
-      handler: ({ auth, params, body }, req) => service.create(auth, params.id, body, req),
+      handler: ({ auth, params, body }, req) => createAssignment(deps, auth, params.id, body, req),
     })
     .endpoint({
       method: "patch",
@@ -43,7 +42,7 @@ export function assignmentsRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["assignments:write"] },
       request: { params: assignmentParams, body: endAssignmentRequest },
       response: assignmentView,
-      handler: ({ params, body }, req) => service.end(params.id, params.assignmentId, body, req),
+      handler: ({ params, body }, req) => endAssignment(deps, params.id, params.assignmentId, body, req),
     })
     .endpoint({
       method: "post",
@@ -53,7 +52,7 @@ export function assignmentsRouter(deps: AppDeps): ApiRouter {
       status: 201,
       request: { params: assignmentParams, body: swapPlacementRequest },
       response: swapPlacementResponse,
-      handler: ({ auth, params, body }, req) => service.swap(auth, params.id, params.assignmentId, body, req),
+      handler: ({ auth, params, body }, req) => swapAssignmentPlacement(deps, auth, params.id, params.assignmentId, body, req),
     });
 }
 

@@ -69,6 +69,10 @@ export const invitationsRepository = {
   },
 
   /** An open invitation stops working when a new one is issued for the same account. */
+  async patientHasAccount(db: Db, patientId: string): Promise<boolean> {
+    return (await db("users").where({ patient_id: patientId }).first("id")) !== undefined;
+  },
+
   closeOpenInvitations(db: Db, userId: string): Promise<number> {
     return db("invitations").where({ user_id: userId }).whereNull("accepted_at").where("expires_at", ">", db.fn.now()).update({ expires_at: db.fn.now() });
   },

@@ -1,10 +1,9 @@
 import type { AppDeps } from "../../deps";
 import { createInvitationRequest, createInvitationResponse, invitationList, listInvitationsQuery } from "../../contracts/invitations";
 import { ApiRouter, type RouteModule } from "../../http/api-router";
-import { createInvitationsService } from "./invitations.service";
+import { createInvitation, listInvitations } from "./invitations.service";
 
 export function invitationsRouter(deps: AppDeps): ApiRouter {
-  const service = createInvitationsService(deps);
   return new ApiRouter("/api/invitations", deps)
     .endpoint({
       method: "post",
@@ -14,7 +13,7 @@ export function invitationsRouter(deps: AppDeps): ApiRouter {
       status: 201,
       request: { body: createInvitationRequest },
       response: createInvitationResponse,
-      handler: ({ auth, body }, req) => service.create(auth, body, req),
+      handler: ({ auth, body }, req) => createInvitation(deps, auth, body, req),
     })
     .endpoint({
       method: "get",
@@ -23,7 +22,7 @@ export function invitationsRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["invitations:write"] },
       request: { query: listInvitationsQuery },
       response: invitationList,
-      handler: ({ auth, query }) => service.list(auth, query.state),
+      handler: ({ auth, query }) => listInvitations(deps, auth, query.state),
     });
 }
 
