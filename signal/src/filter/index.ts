@@ -1,3 +1,3 @@
 export { butterworthSections, sectionsToTransferFunction, type Biquad, type ButterworthKind } from "./butterworth-sections";
 export { butterworthBandSections } from "./butterworth-band-sections";
-export { sosFiltFilt, lowPassZeroPhase, bandPassZeroPhase, lowPassZeroPhaseSegments } from "./zero-phase-butterworth";
+export { sosFiltFilt, lowPassZeroPhase, lowPassZeroPhaseSegments } from "./zero-phase-butterworth";

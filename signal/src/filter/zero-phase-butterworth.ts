@@ -1,4 +1,3 @@
-import { butterworthBandSections } from "./butterworth-band-sections";
 import { type Biquad, butterworthSections } from "./butterworth-sections";
 
 /**
@@ -108,20 +107,6 @@ export function lowPassZeroPhase(
   order = 4,
 ): Float64Array {
   return sosFiltFilt(butterworthSections("lowpass", order, cutoffHz, sampleRateHz), x);
-}
-
-/**
- * Zero-phase Butterworth band-pass: `order` per edge (2·order poles, SciPy's `butter(order, [lo, hi],
- * "band")` convention), applied forward and backward, so the pass-band edges are at −6.02 dB.
- */
-export function bandPassZeroPhase(
-  x: ArrayLike<number>,
-  sampleRateHz: number,
-  lowHz: number,
-  highHz: number,
-  order = 2,
-): Float64Array {
-  return sosFiltFilt(butterworthBandSections(order, lowHz, highHz, sampleRateHz), x);
 }
 
 /**
