@@ -103,7 +103,7 @@ export function AppShell() {
           {me ? (
             <div className="flex items-center gap-3 text-sm">
               <span className="text-sand/85">
-                <span className="font-semibold text-sand">{me.displayName ?? me.name ?? me.email}</span>
+                <span className="font-semibold text-sand">{me.displayName || me.email}</span>
                 <span className="ml-1.5 rounded bg-white/10 px-1.5 py-0.5 text-xs">{ROLE_LABEL[me.role]}</span>
               </span>
               {settingUp ? null : (

@@ -2,6 +2,7 @@ import { afterEach, describe, expect, it, vi } from "vitest";
 import { screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { apiError, json, mockApi, renderAtRoute, type RecordedCall } from "@/testing/feature-test-kit";
+import { patientIdentityFixture } from "@/testing/contract-fixtures";
 import { CaseloadLinksPage } from "../components/caseload-links-page";
 
 const CLINICIAN = "10000000-0000-4000-8000-000000000001";
@@ -44,7 +45,7 @@ const users = {
   limit: 500,
   offset: 0,
 };
-const patients = { items: [{ id: PATIENT, displayName: "Orla Penhaligon" }] };
+const patients = { items: [patientIdentityFixture({ id: PATIENT, displayName: "Orla Penhaligon" })] };
 
 afterEach(() => vi.unstubAllGlobals());
 

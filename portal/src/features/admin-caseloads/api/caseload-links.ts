@@ -1,10 +1,10 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { z } from "zod";
 import {
   caseloadLinkPage,
   caseloadLinkView,
   createCaseloadLinkRequest,
   endCaseloadLinkRequest,
+  patientIdentityList,
   userPage,
   type CaseloadLinkPage,
   type CaseloadLinkView,
@@ -67,13 +67,12 @@ export function useClinicianOptions() {
   return useQuery(cliniciansQueryOptions());
 }
 
-// The admin's patient list (identity only); only what the picker shows is read.
-const patientRecords = z.object({ items: z.array(z.object({ id: z.string(), displayName: z.string() })) });
+// The admin's patient list (identity only); the picker shows the name.
 
 export function patientsQueryOptions() {
   return queryOptions({
     queryKey: caseloadLinkKeys.patients(),
-    queryFn: ({ signal }) => api.get("/patients", { schema: patientRecords, signal }),
+    queryFn: ({ signal }) => api.get("/patients", { schema: patientIdentityList, signal }),
     select: (page): PickerOption[] => page.items.map((p) => ({ id: p.id, label: p.displayName })).sort(byLabel),
   });
 }

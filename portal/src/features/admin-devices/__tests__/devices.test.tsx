@@ -2,27 +2,32 @@ import { afterEach, describe, expect, it, vi } from "vitest";
 import { screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { apiError, mockApi, renderAtRoute } from "@/testing/feature-test-kit";
+import { assignmentFixture, deviceFixture, patientIdentityFixture } from "@/testing/contract-fixtures";
 import { DeviceInventoryPage } from "../components/device-inventory-page";
 import { DevicePage } from "../components/device-page";
 import { assignDeviceInputSchema } from "../api/assign-device";
 
 const PATIENT = "7d1c2a3b-0000-4000-8000-000000000001";
-const open = {
+const WORN_ID = "d0000000-0000-4000-8000-000000000001";
+const open = assignmentFixture({
   id: "a0000000-0000-4000-8000-000000000001",
+  deviceId: WORN_ID,
   patientId: PATIENT,
   patientLabel: "Wren Halloway",
   placement: "left_shank",
   from: "2026-09-01T08:00:00.000Z",
   to: null,
-};
+});
+/** The device list carries the running assignment without its device id. */
+const current = ({ deviceId: _deviceId, ...a }: typeof open) => a;
 const devices = [
-  { id: "d0000000-0000-4000-8000-000000000001", serial: "PND-S-0142", kind: "imu6", status: "assigned", firmware: "2.4.1", assignment: open },
-  { id: "d0000000-0000-4000-8000-000000000002", serial: "PND-S-0007", kind: "imu9", status: "in_stock", firmware: "2.3.0", assignment: null },
-  { id: "d0000000-0000-4000-8000-000000000003", serial: "PND-S-0099", kind: "imu6", status: "retired", firmware: "1.9.0", assignment: null },
+  deviceFixture({ id: WORN_ID, serial: "PND-S-0142", kind: "imu6", status: "assigned", firmware: "2.4.1", assignment: current(open) }),
+  deviceFixture({ id: "d0000000-0000-4000-8000-000000000002", serial: "PND-S-0007", kind: "imu9", status: "in_stock", firmware: "2.3.0" }),
+  deviceFixture({ id: "d0000000-0000-4000-8000-000000000003", serial: "PND-S-0099", kind: "imu6", status: "retired", firmware: "1.9.0" }),
 ];
 const spare = devices[1]!;
 const worn = devices[0]!;
-const patients = { items: [{ id: PATIENT, displayName: "Wren Halloway", researchId: "r1", enrolledOn: "2026-08-01", researchConsent: true }] };
+const patients = { items: [patientIdentityFixture({ id: PATIENT, displayName: "Wren Halloway", researchId: "r1", enrolledOn: "2026-08-01", researchConsent: true })] };
 
 afterEach(() => vi.unstubAllGlobals());
 
@@ -86,12 +91,14 @@ describe("DevicePage", () => {
       "GET /api/devices": devices,
       "GET /api/patients": patients,
       [`GET /api/devices/${spare.id}/assignments`]: [],
-      [`POST /api/devices/${spare.id}/assignments`]: ({ body }: { body: unknown }) => ({
-        ...(body as object),
-        id: "a0000000-0000-4000-8000-000000000009",
-        patientLabel: "Wren Halloway",
-        to: null,
-      }),
+      [`POST /api/devices/${spare.id}/assignments`]: ({ body }: { body: unknown }) =>
+        assignmentFixture({
+          ...(body as { patientId: string; placement: "right_wrist"; from: string }),
+          id: "a0000000-0000-4000-8000-000000000009",
+          deviceId: spare.id,
+          patientLabel: "Wren Halloway",
+          to: null,
+        }),
     });
     renderAtRoute(<DevicePage />, { ...route, url: `/admin/devices/${spare.id}` });
     expect(await screen.findByText("Never assigned")).toBeTruthy();
@@ -139,15 +146,15 @@ describe("DevicePage", () => {
 
   it("draws the history and offers swap and end for a running assignment", async () => {
     const history = [
-      { ...open, id: "a0000000-0000-4000-8000-000000000000", placement: "right_wrist", from: "2026-06-01T08:00:00.000Z", to: "2026-09-01T08:00:00.000Z" },
+      { ...open, id: "a0000000-0000-4000-8000-000000000000", placement: "right_wrist" as const, from: "2026-06-01T08:00:00.000Z", to: "2026-09-01T08:00:00.000Z" },
       open,
     ];
-    const swapped = { ...open, id: "a0000000-0000-4000-8000-000000000005", placement: "right_shank", from: "2026-11-30T09:00:00.000Z" };
+    const swapped = { ...open, id: "a0000000-0000-4000-8000-000000000005", placement: "right_shank" as const, from: "2026-11-30T09:00:00.000Z" };
     let done = false;
     // After the swap the refetched lists carry the new assignment, so the forms are replaced;
     // the confirmation must survive that.
     const { calls } = mockApi({
-      "GET /api/devices": () => (done ? devices.map((d) => (d.id === worn.id ? { ...d, assignment: swapped } : d)) : devices),
+      "GET /api/devices": () => (done ? devices.map((d) => (d.id === worn.id ? { ...d, assignment: current(swapped) } : d)) : devices),
       "GET /api/patients": patients,
       [`GET /api/devices/${worn.id}/assignments`]: () => (done ? [...history.slice(0, 1), { ...open, to: swapped.from }, swapped] : history),
       [`POST /api/devices/${worn.id}/assignments/${open.id}/swap`]: () => {

@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { z } from "zod";
-import { PLACEMENTS } from "@pendula/ingest-server/contracts";
+import { assignmentView, PLACEMENTS } from "@pendula/ingest-server/contracts";
 import { api } from "@/lib/api-client";
 import { localDateTime } from "./date-time";
 import { deviceKeys } from "./device-keys";
-import { assignmentSchema, type Assignment } from "./devices";
+import { type Assignment } from "./devices";
 
 export const assignDeviceInputSchema = z.object({
   patientId: z.string().min(1, { error: "choose a patient" }),
@@ -15,7 +15,7 @@ export const assignDeviceInputSchema = z.object({
 export type AssignDeviceInput = z.output<typeof assignDeviceInputSchema>;
 
 export function assignDevice(deviceId: string, input: AssignDeviceInput): Promise<Assignment> {
-  return api.post(`/devices/${encodeURIComponent(deviceId)}/assignments`, input, { schema: assignmentSchema });
+  return api.post(`/devices/${encodeURIComponent(deviceId)}/assignments`, input, { schema: assignmentView });
 }
 
 /**

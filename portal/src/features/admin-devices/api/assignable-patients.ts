@@ -1,25 +1,17 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import { z } from "zod";
+import { patientIdentityList } from "@pendula/ingest-server/contracts";
 import { api } from "@/lib/api-client";
 import { deviceKeys } from "./device-keys";
 
-const patientSchema = z
-  .object({
-    id: z.string(),
-    label: z.string().nullish(),
-    displayName: z.string().nullish(),
-    pseudonym: z.string().nullish(),
-  })
-  .transform((p) => ({ id: p.id, label: p.label ?? p.displayName ?? p.pseudonym ?? `Patient ${p.id.slice(0, 8)}` }));
+/** A patient the device can be assigned to, as the picker names them (admins see identity only). */
+export interface AssignablePatient {
+  id: string;
+  label: string;
+}
 
-const listSchema = z
-  .union([z.array(patientSchema), z.object({ items: z.array(patientSchema) })])
-  .transform((v) => (Array.isArray(v) ? v : v.items));
-
-export type AssignablePatient = z.output<typeof patientSchema>;
-
-export function getAssignablePatients(signal?: AbortSignal): Promise<AssignablePatient[]> {
-  return api.get("/patients", { schema: listSchema, signal });
+export async function getAssignablePatients(signal?: AbortSignal): Promise<AssignablePatient[]> {
+  const { items } = await api.get("/patients", { schema: patientIdentityList, signal });
+  return items.map((p) => ({ id: p.id, label: p.displayName || `Patient ${p.id.slice(0, 8)}` }));
 }
 
 export function assignablePatientsQueryOptions() {

@@ -1,16 +1,11 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import { z } from "zod";
+import { assignmentList } from "@pendula/ingest-server/contracts";
 import { api } from "@/lib/api-client";
 import { deviceKeys } from "./device-keys";
-import { assignmentSchema, type Assignment } from "./devices";
-
-// Accept a bare array or `{items}`: the history is short, so the server may send it unpaged.
-const historySchema = z
-  .union([z.array(assignmentSchema), z.object({ items: z.array(assignmentSchema) })])
-  .transform((v) => (Array.isArray(v) ? v : v.items));
+import type { Assignment } from "./devices";
 
 export function getDeviceAssignments(deviceId: string, signal?: AbortSignal): Promise<Assignment[]> {
-  return api.get(`/devices/${encodeURIComponent(deviceId)}/assignments`, { schema: historySchema, signal });
+  return api.get(`/devices/${encodeURIComponent(deviceId)}/assignments`, { schema: assignmentList, signal });
 }
 
 export function deviceAssignmentsQueryOptions(deviceId: string) {

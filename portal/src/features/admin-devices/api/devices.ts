@@ -1,31 +1,14 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import { z } from "zod";
+import { deviceList, type AssignmentView, type DeviceView } from "@pendula/ingest-server/contracts";
 import { api } from "@/lib/api-client";
 import { deviceKeys } from "./device-keys";
 
-export const assignmentSchema = z.object({
-  id: z.string(),
-  patientId: z.string(),
-  patientLabel: z.string().nullish(),
-  placement: z.string(),
-  from: z.string(),
-  to: z.string().nullable(),
-});
-
-export const deviceSchema = z.object({
-  id: z.string(),
-  serial: z.string(),
-  kind: z.string(),
-  status: z.string(),
-  firmware: z.string().nullish(),
-  assignment: assignmentSchema.nullable(),
-});
-
-export type Assignment = z.infer<typeof assignmentSchema>;
-export type Device = z.infer<typeof deviceSchema>;
+/** An assignment as the screens use it: a history row, or the device list's current one (which omits the device id). */
+export type Assignment = Omit<AssignmentView, "deviceId">;
+export type Device = DeviceView;
 
 export function getDevices(signal?: AbortSignal): Promise<Device[]> {
-  return api.get("/devices", { schema: z.array(deviceSchema), signal });
+  return api.get("/devices", { schema: deviceList, signal });
 }
 
 export function devicesQueryOptions() {
@@ -43,5 +26,5 @@ export function useDevice(deviceId: string) {
 
 /** Human label for a patient in admin screens, which never show clinical detail. */
 export function patientText(a: Pick<Assignment, "patientId" | "patientLabel">): string {
-  return a.patientLabel ?? `Patient ${a.patientId.slice(0, 8)}`;
+  return a.patientLabel || `Patient ${a.patientId.slice(0, 8)}`;
 }

@@ -1,9 +1,10 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { z } from "zod";
+import { assignmentView } from "@pendula/ingest-server/contracts";
 import { request } from "@/lib/api-client";
 import { localDateTime } from "./date-time";
 import { deviceKeys } from "./device-keys";
-import { assignmentSchema, type Assignment } from "./devices";
+import type { Assignment } from "./devices";
 
 export const endAssignmentInputSchema = z.object({ to: localDateTime("end") });
 
@@ -13,7 +14,7 @@ export function endAssignment(deviceId: string, assignmentId: string, input: End
   return request(`/devices/${encodeURIComponent(deviceId)}/assignments/${encodeURIComponent(assignmentId)}`, {
     method: "PATCH",
     body: input,
-    schema: assignmentSchema,
+    schema: assignmentView,
   });
 }
 

@@ -1,16 +1,13 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import { z } from "zod";
+import { patientIdentityList, type PatientIdentity } from "@pendula/ingest-server/contracts";
 import { api } from "@/lib/api-client";
 import { userKeys } from "./user-keys";
 
-// Only what the invite form needs to link an account to an existing patient record.
-const patientRecord = z.object({ id: z.string(), displayName: z.string() });
-const patientRecords = z.object({ items: z.array(patientRecord) }).transform((v) => v.items);
+/** A patient record the invite form can link an account to (the admin's list: identity only). */
+export type PatientRecord = PatientIdentity;
 
-export type PatientRecord = z.infer<typeof patientRecord>;
-
-export function getPatientRecords(signal?: AbortSignal): Promise<PatientRecord[]> {
-  return api.get("/patients", { schema: patientRecords, signal });
+export async function getPatientRecords(signal?: AbortSignal): Promise<PatientRecord[]> {
+  return (await api.get("/patients", { schema: patientIdentityList, signal })).items;
 }
 
 export function patientRecordsQueryOptions() {

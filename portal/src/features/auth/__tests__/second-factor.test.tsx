@@ -3,11 +3,13 @@ import userEvent from "@testing-library/user-event";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { createRoutes } from "@/app/router";
 import { setAccessToken } from "@/lib/api-client";
+import { meFixture, tokenFixture } from "@/testing/contract-fixtures";
 import { mockApi } from "@/testing/mock-api";
 import { createTestQueryClient, renderRoutes } from "@/testing/render";
 
-const CLINICIAN = { id: "u-c", email: "rowan.tamsett@ferngate-clinic.test", role: "clinician", patientId: null };
 const FULL_SCOPES = ["patients:read:caseload", "sessions:read:caseload"];
+const CLINICIAN = meFixture({ role: "clinician", email: "rowan.tamsett@ferngate-clinic.test", displayName: "Rowan Tamsett", scopes: FULL_SCOPES });
+const session = (accessToken: string, secondFactor: "verified" | "enrolment_required") => tokenFixture(CLINICIAN, { accessToken, secondFactor });
 
 function renderApp(path: string) {
   const queryClient = createTestQueryClient();
@@ -35,14 +37,14 @@ describe("sign-in with an authenticator app", () => {
       "POST /api/auth/login": { body: { secondFactorRequired: true, challenge: "c".repeat(43), expiresIn: 300, methods: ["totp", "recovery_code"] } },
       "POST /api/auth/login/second-factor": ({ body }) => {
         const b = body as { method: string; code: string };
-        if (b.method === "totp" && b.code === "287082") return { body: { accessToken: "token-full", user: CLINICIAN, secondFactor: "verified" } };
-        if (b.method === "recovery_code" && b.code === "7K3M-Q9PA-2XHD") return { body: { accessToken: "token-full", user: CLINICIAN, secondFactor: "verified" } };
+        if (b.method === "totp" && b.code === "287082") return { body: session("token-full", "verified") };
+        if (b.method === "recovery_code" && b.code === "7K3M-Q9PA-2XHD") return { body: session("token-full", "verified") };
         if (b.code === "111111") return { status: 401, body: { error: { code: "code_reused", message: "already used" } } };
         return { status: 401, body: { error: { code: "invalid_code", message: "wrong", details: { attemptsLeft: 4 } } } };
       },
       "GET /api/me": ({ headers }) =>
         headers.get("Authorization") === "Bearer token-full"
-          ? { body: { ...CLINICIAN, displayName: "Rowan Tamsett", scopes: FULL_SCOPES } }
+          ? { body: CLINICIAN }
           : { status: 401, body: { error: { code: "unauthorized", message: "Sign in" } } },
     });
   }
@@ -102,10 +104,10 @@ describe("staff account without a second factor", () => {
     let enrolled = false;
     return mockApi({
       "POST /api/auth/refresh": { status: 401, body: { error: { code: "invalid_refresh", message: "x" } } },
-      "POST /api/auth/login": { body: { accessToken: "token-limited", user: CLINICIAN, secondFactor: "enrolment_required" } },
+      "POST /api/auth/login": { body: session("token-limited", "enrolment_required") },
       "GET /api/me": ({ headers }) =>
         headers.get("Authorization") === "Bearer token-full"
-          ? { body: { ...CLINICIAN, scopes: FULL_SCOPES } }
+          ? { body: CLINICIAN }
           : { body: { ...CLINICIAN, scopes: ["second-factor:enrol"] } },
       "GET /api/auth/second-factor": () => ({ body: { enrolled, required: true, enrolledAt: enrolled ? "2026-12-02T08:00:00.000Z" : null, recoveryCodesLeft: enrolled ? 10 : 0 } }),
       "POST /api/auth/second-factor/enrolment": {
@@ -124,7 +126,7 @@ describe("staff account without a second factor", () => {
         return {
           body: {
             recoveryCodes: Array.from({ length: 10 }, (_, i) => `AAAA-BBBB-${String(i).padStart(4, "0")}`),
-            session: { accessToken: "token-full", user: CLINICIAN, secondFactor: "verified" },
+            session: session("token-full", "verified"),
           },
         };
       },

@@ -3,10 +3,14 @@ import userEvent from "@testing-library/user-event";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { createRoutes } from "@/app/router";
 import { setAccessToken } from "@/lib/api-client";
+import { meFixture, testUuid, tokenFixture } from "@/testing/contract-fixtures";
 import { mockApi } from "@/testing/mock-api";
 import { createTestQueryClient, renderRoutes } from "@/testing/render";
 
 type Role = "patient" | "clinician" | "researcher" | "admin";
+
+const PATIENT_ID = testUuid(1, "7d1c2a3b");
+const meOf = (role: Role) => meFixture({ role, id: testUuid(["patient", "clinician", "researcher", "admin"].indexOf(role) + 1, "0000aaaa"), ...(role === "patient" ? { patientId: PATIENT_ID } : {}) });
 
 function signedOutServer(role: Role) {
   return mockApi({
@@ -14,11 +18,11 @@ function signedOutServer(role: Role) {
     "POST /api/auth/login": ({ body }) => {
       const { password } = body as { password: string };
       if (password !== "correct horse") return { status: 401, body: { error: { code: "bad_credentials", message: "Wrong e-mail or password" } } };
-      return { body: { accessToken: `token-${role}`, user: { id: `u-${role}`, role, patientId: role === "patient" ? "p-1" : undefined } } };
+      return { body: tokenFixture(meOf(role)) };
     },
     "GET /api/me": ({ headers }) =>
       headers.get("Authorization") === `Bearer token-${role}`
-        ? { body: { id: `u-${role}`, email: `${role}@ferngate-clinic.test`, role, patientId: role === "patient" ? "p-1" : null } }
+        ? { body: meOf(role) }
         : { status: 401, body: { error: { code: "unauthenticated", message: "Sign in" } } },
   });
 }
@@ -56,8 +60,8 @@ describe("sign-in routes each role to its home", () => {
     // The first visit of an area transforms its lazy chunk, which takes a moment under test.
     await waitFor(() => expect(router.state.location.pathname).toMatch(new RegExp(`^${home}(/|$)`)), { timeout: 8000 });
     expect(server.calls.some((c) => c.method === "POST" && c.path === "/api/auth/login")).toBe(true);
-    // The shell shows who is signed in and in which role.
-    expect(await screen.findByText(`${role}@ferngate-clinic.test`)).toBeTruthy();
+    // The shell shows who is signed in (GET /api/me's display name) and in which role.
+    expect(await screen.findByText(meOf(role).displayName)).toBeTruthy();
   });
 
   it("shows a plain message and stays on sign-in for wrong credentials", async () => {
@@ -129,7 +133,7 @@ describe("session check on page load", () => {
       "POST /api/auth/refresh": { body: { accessToken: "token-clinician" } },
       "GET /api/me": ({ headers }) =>
         headers.get("Authorization") === "Bearer token-clinician"
-          ? { body: { id: "u-clinician", email: "clinician@ferngate-clinic.test", role: "clinician", patientId: null } }
+          ? { body: meOf("clinician") }
           : { status: 401, body: { error: { code: "unauthenticated", message: "Sign in" } } },
     });
     renderApp("/sign-in");

@@ -1,23 +1,9 @@
-import { z } from "zod";
+import { ROLES, type MeResponse, type Role, type TokenResponse } from "@pendula/ingest-server/contracts";
 
-export const ROLES = ["patient", "clinician", "researcher", "admin"] as const;
-export type Role = (typeof ROLES)[number];
-
-// The shapes of issue 4's auth contract (`POST /api/auth/login`, `GET /api/me`); extra fields
-// the server adds are kept optional so the portal keeps working while the API grows.
-export const SessionUserSchema = z.object({
-  id: z.string(),
-  role: z.enum(ROLES),
-  patientId: z.string().nullish(),
-});
-
-export const MeSchema = SessionUserSchema.extend({
-  email: z.string(),
-  displayName: z.string().nullish(),
-  name: z.string().nullish(),
-  scopes: z.array(z.string()).optional(),
-});
-export type Me = z.infer<typeof MeSchema>;
+// Sign-in and GET /api/me answer with the server's contracts (loginResponse, tokenResponse, meResponse).
+export { ROLES, type Role, type TokenResponse };
+/** The signed-in person as GET /api/me describes them. */
+export type Me = MeResponse;
 
 /** The only scope of a staff session that has not set up its second factor yet (server: auth/scopes.ts). */
 export const ENROLMENT_SCOPE = "second-factor:enrol";
@@ -26,24 +12,8 @@ export const SECOND_FACTOR_SETUP_PATH = "/second-factor/setup";
 
 /** True for a staff session that may do nothing but set up its authenticator app. */
 export function needsSecondFactorSetup(me: Pick<Me, "scopes"> | null | undefined): boolean {
-  return Boolean(me?.scopes?.includes(ENROLMENT_SCOPE));
+  return Boolean(me?.scopes.includes(ENROLMENT_SCOPE));
 }
-
-export const TokenResponseSchema = z.object({
-  accessToken: z.string(),
-  user: SessionUserSchema,
-  secondFactor: z.enum(["verified", "enrolment_required", "not_enrolled"]).optional(),
-});
-export type TokenResponse = z.infer<typeof TokenResponseSchema>;
-
-export const ChallengeResponseSchema = z.object({
-  secondFactorRequired: z.literal(true),
-  challenge: z.string(),
-  expiresIn: z.number(),
-  methods: z.array(z.string()),
-});
-
-export const LoginResponseSchema = z.union([TokenResponseSchema, ChallengeResponseSchema]);
 
 export const authKeys = {
   all: ["auth"] as const,

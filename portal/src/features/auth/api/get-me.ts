@@ -1,7 +1,8 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { api, getAccessToken, refreshAccessToken } from "@/lib/api-client";
 import { isApiError } from "@/lib/api-error";
-import { authKeys, MeSchema, type Me } from "./auth-keys";
+import { meResponse } from "@pendula/ingest-server/contracts";
+import { authKeys, type Me } from "./auth-keys";
 
 /**
  * The signed-in person, or null. After a page reload the in-memory access token is gone, so we
@@ -10,7 +11,7 @@ import { authKeys, MeSchema, type Me } from "./auth-keys";
 export async function getMe(): Promise<Me | null> {
   if (!getAccessToken() && !(await refreshAccessToken())) return null;
   try {
-    return await api.get("/me", { schema: MeSchema });
+    return await api.get("/me", { schema: meResponse });
   } catch (error) {
     if (isApiError(error) && error.status === 401) return null;
     throw error;

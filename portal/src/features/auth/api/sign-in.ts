@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { z } from "zod";
 import { api, setAccessToken } from "@/lib/api-client";
-import { authKeys, LoginResponseSchema, MeSchema, TokenResponseSchema, type Me, type TokenResponse } from "./auth-keys";
+import { loginResponse, meResponse, tokenResponse } from "@pendula/ingest-server/contracts";
+import { authKeys, ENROLMENT_SCOPE, type Me, type TokenResponse } from "./auth-keys";
 
 export const SignInInputSchema = z.object({
   email: z.email("Enter the e-mail address your care team or administrator used to invite you."),
@@ -29,14 +30,14 @@ async function adoptSession(res: TokenResponse, email?: string): Promise<Me> {
   setAccessToken(res.accessToken);
   // /me carries the e-mail, name and scopes the shell uses; the token answer alone is enough to route.
   try {
-    return await api.get("/me", { schema: MeSchema });
+    return await api.get("/me", { schema: meResponse });
   } catch {
-    return { ...res.user, email: email ?? "", scopes: res.secondFactor === "enrolment_required" ? ["second-factor:enrol"] : undefined };
+    return { ...res.user, email: email ?? "", scopes: res.secondFactor === "enrolment_required" ? [ENROLMENT_SCOPE] : [] };
   }
 }
 
 export async function signIn(input: SignInInput): Promise<SignInResult> {
-  const res = await api.post("/auth/login", input, { schema: LoginResponseSchema });
+  const res = await api.post("/auth/login", input, { schema: loginResponse });
   if ("secondFactorRequired" in res) return { kind: "second-factor", challenge: res.challenge, expiresIn: res.expiresIn };
   return { kind: "signed-in", me: await adoptSession(res, input.email) };
 }
@@ -48,7 +49,7 @@ export interface SecondFactorInput {
 }
 
 export async function completeSecondFactor(input: SecondFactorInput): Promise<Me> {
-  const res = await api.post("/auth/login/second-factor", input, { schema: TokenResponseSchema });
+  const res = await api.post("/auth/login/second-factor", input, { schema: tokenResponse });
   return adoptSession(res);
 }
 

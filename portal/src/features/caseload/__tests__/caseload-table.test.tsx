@@ -1,20 +1,21 @@
 import { screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { describe, expect, it } from "vitest";
+import { patientSummaryFixture, testUuid } from "@/testing/contract-fixtures";
 import { renderWithProviders } from "@/testing/render";
 import type { CaseloadRow } from "../api/get-caseload";
 import { CaseloadTable } from "../components/caseload-table";
 
 // An invented caseload of the fictional Ferngate rehabilitation clinic.
 const rows: CaseloadRow[] = [
-  { id: "p1", displayName: "Odile Marchetti", researchId: "FG-014", condition: "stroke", lastUploadAt: "2026-11-20T09:00:00Z", adherencePct: 100, latest: { cadenceStepsPerMin: 92.4, phaseCoordinationIndexPct: 6.1 }, flags: [] },
-  { id: "p2", displayName: "Tamsin Okonkwo-Reyes", researchId: "FG-022", condition: "parkinsons", lastUploadAt: "2026-11-18T09:00:00Z", adherencePct: 40, latest: { cadenceStepsPerMin: 104.9, phaseCoordinationIndexPct: 9.8 }, flags: [
+  patientSummaryFixture({ id: testUuid(1), displayName: "Odile Marchetti", researchId: "FG-014", condition: "stroke", lastUploadAt: "2026-11-20T09:00:00Z", adherencePct: 100, latest: { cadenceStepsPerMin: 92.4, phaseCoordinationIndexPct: 6.1 }, flags: [] }),
+  patientSummaryFixture({ id: testUuid(2), displayName: "Tamsin Okonkwo-Reyes", researchId: "FG-022", condition: "parkinsons", lastUploadAt: "2026-11-18T09:00:00Z", adherencePct: 40, latest: { cadenceStepsPerMin: 104.9, phaseCoordinationIndexPct: 9.8 }, flags: [
     { metricKey: "cadenceStepsPerMin", flag: "improved", kind: "improved", label: "Cadence better than baseline", severity: 10 },
     { metricKey: "strideTimeCvPct", flag: "worsened", kind: "worsened", label: "Stride time variability worse than baseline", severity: 50 },
     { metricKey: "armLegLeftArmRightLegFrequencyRatio", flag: "arm-leg-mode-change", kind: "coordination-change", label: "Arm–leg coordination mode changed (left arm – right leg)", severity: 40 },
-  ] },
-  { id: "p3", displayName: "Bartholomew Ianakiev", researchId: "FG-031", condition: "incomplete_sci", lastUploadAt: null, adherencePct: null, latest: { cadenceStepsPerMin: null, phaseCoordinationIndexPct: null } },
-  { id: "p4", displayName: "Wren Castellanos", researchId: "FG-040", condition: "stroke", lastUploadAt: "2026-11-22T09:00:00Z", adherencePct: 75, latest: { cadenceStepsPerMin: 78.0, phaseCoordinationIndexPct: 12.3 }, flags: [{ metricKey: "cadenceStepsPerMin", flag: "improved" }] },
+  ] }),
+  patientSummaryFixture({ id: testUuid(3), displayName: "Bartholomew Ianakiev", researchId: "FG-031", condition: "incomplete_sci", lastUploadAt: null, adherencePct: null, latest: { cadenceStepsPerMin: null, phaseCoordinationIndexPct: null } }),
+  patientSummaryFixture({ id: testUuid(4), displayName: "Wren Castellanos", researchId: "FG-040", condition: "stroke", lastUploadAt: "2026-11-22T09:00:00Z", adherencePct: 75, latest: { cadenceStepsPerMin: 78.0, phaseCoordinationIndexPct: 12.3 }, flags: [{ metricKey: "cadenceStepsPerMin", flag: "improved" }] }),
 ];
 
 const bodyNames = () => within(screen.getAllByRole("rowgroup")[1]!).getAllByRole("link").map((a) => a.textContent);

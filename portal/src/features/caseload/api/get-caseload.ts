@@ -1,35 +1,9 @@
 import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
-import { z } from "zod";
+import { caseloadList, type PatientSummary } from "@pendula/ingest-server/contracts";
 import { api } from "@/lib/api-client";
 
-// ingest-server/src/contracts/patients.ts `patientSummary` (copied: the contracts index does not
-// re-export it yet). `flags` is optional: the server may add the open change flags per patient.
-export const caseloadRowSchema = z.object({
-  id: z.string(),
-  displayName: z.string(),
-  researchId: z.string().optional(),
-  condition: z.string().optional(),
-  lastUploadAt: z.string().nullish(),
-  adherencePct: z.number().nullish(),
-  expectedUploadsPerWeek: z.number().optional(),
-  latest: z
-    .object({
-      sessionId: z.string().nullish(),
-      cadenceStepsPerMin: z.number().nullish(),
-      strideTimeCvPct: z.number().nullish(),
-      phaseCoordinationIndexPct: z.number().nullish(),
-      walkingSpeedMPerS: z.number().nullish(),
-    })
-    .optional(),
-  flags: z
-    .array(
-      z
-        .object({ metricKey: z.string(), flag: z.string(), kind: z.string().optional(), label: z.string().optional(), severity: z.number().optional() })
-        .catchall(z.unknown()),
-    )
-    .optional(),
-});
-export type CaseloadRow = z.infer<typeof caseloadRowSchema>;
+/** A clinician's caseload row: GET /api/patients (contracts `patientSummary`). */
+export type CaseloadRow = PatientSummary;
 
 /**
  * A caseload flag with its words and urgency. The server names them (ingest-server
@@ -79,7 +53,7 @@ export const caseloadKeys = {
   list: () => [...caseloadKeys.all, "list"] as const,
 };
 
-export const getCaseload = (signal?: AbortSignal) => api.get("/patients", { schema: z.object({ items: z.array(caseloadRowSchema) }), signal });
+export const getCaseload = (signal?: AbortSignal) => api.get("/patients", { schema: caseloadList, signal });
 
 export const caseloadQueryOptions = () => queryOptions({ queryKey: caseloadKeys.list(), queryFn: ({ signal }) => getCaseload(signal) });
 

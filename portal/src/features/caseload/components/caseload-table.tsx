@@ -163,7 +163,7 @@ export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
       return `${row.original.displayName} ${row.original.researchId ?? ""}`.toLowerCase().includes(q);
     },
   });
-  const conditions = [...new Set(rows.map((r) => r.condition).filter((c): c is string => Boolean(c)))].sort();
+  const conditions = [...new Set(rows.map((r) => r.condition))].sort();
   const shown = table.getRowModel().rows;
 
   return (
