@@ -1,6 +1,8 @@
 import { Suspense } from "react";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import { screen } from "@testing-library/react";
+import { trainingList } from "@pendula/ingest-server/contracts";
+import { conforming, testUuid } from "@/testing/contract-fixtures";
 import { mockApi, renderAtRoute } from "@/testing/feature-test-kit";
 import { NotesPanel } from "../components/notes-panel";
 
@@ -22,7 +24,20 @@ describe("NotesPanel", () => {
     expect(new Date("2026-01-05T12:00:00Z").getDate()).toBe(6); // the shift the panel must not make
     mockApi({
       [`GET /api/patients/${PATIENT}/notes`]: { items: [] },
-      [`GET /api/patients/${PATIENT}/training`]: { items: [{ id: "t1", performedOn: "2026-01-05", kind: "treadmill", minutes: 30, description: null }] },
+      [`GET /api/patients/${PATIENT}/training`]: conforming(trainingList, {
+        items: [
+          {
+            id: testUuid(1, "70000000"),
+            patientId: PATIENT,
+            authorId: testUuid(2, "0000aaaa"),
+            performedOn: "2026-01-05",
+            kind: "treadmill",
+            minutes: 30,
+            description: null,
+            createdAt: "2026-01-05T15:00:00.000Z",
+          },
+        ],
+      }),
     });
     renderAtRoute(
       <Suspense fallback={<p>loading</p>}>

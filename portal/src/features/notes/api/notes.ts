@@ -1,30 +1,14 @@
 import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from "@tanstack/react-query";
 import { z } from "zod";
+import { createNote, note, noteList, trainingList } from "@pendula/ingest-server/contracts";
 import { api } from "@/lib/api-client";
 
-// ingest-server/src/contracts/notes.ts and training.ts (copied until the contracts index exports them).
-export const noteSchema = z.object({
-  id: z.string(),
-  patientId: z.string(),
-  sessionId: z.string().nullish(),
-  authorName: z.string().optional(),
-  body: z.string(),
-  createdAt: z.string(),
-});
-export type Note = z.infer<typeof noteSchema>;
+export type Note = z.infer<typeof note>;
+export type TrainingEntry = z.infer<typeof trainingList>["items"][number];
 
-export const trainingSchema = z.object({
-  id: z.string(),
-  performedOn: z.string(),
-  kind: z.string(),
-  minutes: z.number(),
-  description: z.string().nullish(),
-});
-export type TrainingEntry = z.infer<typeof trainingSchema>;
-
-export const createNoteInput = z.object({
+/** The note form: the server's `createNote` request with the words this form shows. */
+export const createNoteInput = createNote.extend({
   body: z.string().trim().min(1, "Write something before saving.").max(10_000, "Notes are limited to 10 000 characters."),
-  sessionId: z.string().optional(),
 });
 
 export const notesKeys = {
@@ -39,13 +23,13 @@ const enc = encodeURIComponent;
 export const notesQueryOptions = (patientId: string) =>
   queryOptions({
     queryKey: notesKeys.notes(patientId),
-    queryFn: ({ signal }) => api.get(`/patients/${enc(patientId)}/notes`, { schema: z.object({ items: z.array(noteSchema) }), signal }),
+    queryFn: ({ signal }) => api.get(`/patients/${enc(patientId)}/notes`, { schema: noteList, signal }),
   });
 
 export const trainingQueryOptions = (patientId: string) =>
   queryOptions({
     queryKey: notesKeys.training(patientId),
-    queryFn: ({ signal }) => api.get(`/patients/${enc(patientId)}/training`, { schema: z.object({ items: z.array(trainingSchema) }), signal }),
+    queryFn: ({ signal }) => api.get(`/patients/${enc(patientId)}/training`, { schema: trainingList, signal }),
   });
 
 export const useNotes = (patientId: string) => useSuspenseQuery(notesQueryOptions(patientId));
@@ -54,7 +38,7 @@ export const useTraining = (patientId: string) => useSuspenseQuery(trainingQuery
 export function useCreateNote(patientId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: z.infer<typeof createNoteInput>) => api.post(`/patients/${enc(patientId)}/notes`, input, { schema: noteSchema }),
+    mutationFn: (input: z.infer<typeof createNoteInput>) => api.post(`/patients/${enc(patientId)}/notes`, input, { schema: note }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: notesKeys.notes(patientId) }),
   });
 }

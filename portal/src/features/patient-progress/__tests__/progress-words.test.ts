@@ -1,12 +1,9 @@
 import { describe, expect, it } from "vitest";
+import { sessionSummaryFixture, testUuid } from "@/testing/contract-fixtures";
 import { progressWords, speedInWords } from "../components/progress-words";
 
-const walk = (i: number, walkingSpeedMPerS: number | null) => ({
-  id: `w${i}`,
-  status: "done" as const,
-  recordedAt: new Date(Date.UTC(2026, 8, 1 + 7 * i)).toISOString(),
-  walkingSpeedMPerS,
-});
+const walk = (i: number, walkingSpeedMPerS: number | null) =>
+  sessionSummaryFixture({ id: testUuid(i + 1, "5e550000"), status: "done", recordedAt: new Date(Date.UTC(2026, 8, 1 + 7 * i)).toISOString(), walkingSpeedMPerS });
 
 describe("walking speed in the patient's own words", () => {
   it("converts m/s to km/h by 3.6 (3600 s per hour / 1000 m per km)", () => {

@@ -2,6 +2,7 @@ import { screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { synthesizeSession } from "@pendula/signal";
+import { sessionDetailFixture } from "@/testing/contract-fixtures";
 import { renderWithProviders } from "@/testing/render";
 import { WeeklyWalk } from "../components/weekly-walk";
 import { PREPARATION_ITEMS } from "../components/safety-checklist";
@@ -191,7 +192,8 @@ function fakeUploadServer(files: File[]) {
     vi.fn(async () => {
       polls += 1;
       const status = polls < 2 ? "processing" : "done";
-      return new Response(JSON.stringify({ id: "0b7c2a8e-1d1f-4c61-9a39-3f1f6f1b2a10", status, progressPct: 50 }), { status: 200 });
+      const session = sessionDetailFixture({ id: "0b7c2a8e-1d1f-4c61-9a39-3f1f6f1b2a10", status, progressPct: status === "done" ? 100 : 50 });
+      return new Response(JSON.stringify(session), { status: 200 });
     }),
   );
   return { sent, polls: () => polls };

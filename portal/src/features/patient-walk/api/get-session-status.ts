@@ -1,9 +1,10 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { env } from "@/config/env";
 import { api } from "@/lib/api-client";
-import { sessionStatusSchema, walkKeys } from "./walk-keys";
+import { sessionDetail } from "@pendula/ingest-server/contracts";
+import { walkKeys } from "./walk-keys";
 
-export const getSessionStatus = (id: string, signal?: AbortSignal) => api.get(`/sessions/${encodeURIComponent(id)}`, { schema: sessionStatusSchema, signal });
+export const getSessionStatus = (id: string, signal?: AbortSignal) => api.get(`/sessions/${encodeURIComponent(id)}`, { schema: sessionDetail, signal });
 
 /** Polls until the server has finished with the session, then stops. */
 export const sessionStatusQueryOptions = (id: string) =>

@@ -1,6 +1,6 @@
 import { useMutation } from "@tanstack/react-query";
 import { uploadWithProgress, type UploadProgress } from "@/lib/api-client";
-import { uploadResponseSchema, type UploadResponse } from "./walk-keys";
+import { uploadResponse, type UploadResponse } from "@pendula/ingest-server/contracts";
 
 export interface FileProgress {
   name: string;
@@ -41,7 +41,7 @@ export function uploadSession({ files, startUtc }: UploadRequest, onProgress: (p
       return form;
     },
     (p) => onProgress(perFileProgress(files, p)),
-    { schema: uploadResponseSchema, signal },
+    { schema: uploadResponse, signal },
   );
 }
 

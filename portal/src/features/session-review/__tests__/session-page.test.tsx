@@ -2,6 +2,8 @@ import { screen, waitFor, within } from "@testing-library/react";
 import { Suspense } from "react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import type { Analysis } from "@pendula/signal";
+import { signalResponse, type WalkingAid } from "@pendula/ingest-server/contracts";
+import { conforming, sessionDetailFixture } from "@/testing/contract-fixtures";
 import { mockApi } from "@/testing/mock-api";
 import { renderWithProviders } from "@/testing/render";
 import { SessionPage } from "../components/session-page";
@@ -54,8 +56,8 @@ function analysis(): Analysis {
   };
 }
 
-function detailBody(walkingAid: string | null = null) {
-  return {
+function detailBody(walkingAid: WalkingAid | null = null) {
+  return sessionDetailFixture({
     id: SID,
     patientId: PID,
     status: "done",
@@ -65,13 +67,13 @@ function detailBody(walkingAid: string | null = null) {
     walkingAid,
     analysis: analysis(),
     metricCounts: { walkingSpeedMPerS: { n: 36, countNoun: "strides" }, strideLengthM: { n: 36, countNoun: "strides" }, armSwingAmplitudeDegLeft: { n: 30, countNoun: "arm cycles" } },
-  };
+  });
 }
 
 function server(extra: Parameters<typeof mockApi>[0] = {}) {
   return mockApi({
     [`GET /api/sessions/${SID}`]: { body: detailBody() },
-    [`GET /api/sessions/${SID}/signal`]: { body: { sessionId: SID, unit: "deg/s", fromS: 0, toS: 100, traces: [] } },
+    [`GET /api/sessions/${SID}/signal`]: { body: conforming(signalResponse, { sessionId: SID, unit: "deg/s", quantity: "sagittal angular velocity", fromS: 0, toS: 100, traces: [] }) },
     ...extra,
   });
 }
@@ -160,11 +162,11 @@ describe("session page", () => {
 
   it("after saving, offers to reprocess the session so the analysis is told about the aid", async () => {
     const { default: userEvent } = await import("@testing-library/user-event");
-    let aid: string | null = null;
+    let aid: WalkingAid | null = null;
     const api = server({
       [`GET /api/sessions/${SID}`]: () => ({ body: detailBody(aid) }),
       [`PATCH /api/sessions/${SID}`]: ({ body }) => {
-        aid = (body as { walkingAid: string }).walkingAid;
+        aid = (body as { walkingAid: WalkingAid }).walkingAid;
         return { body: { id: SID, walkingAid: aid } };
       },
       [`POST /api/sessions/${SID}/reprocess`]: { status: 202, body: { id: SID, status: "queued" } },

@@ -1,45 +1,16 @@
 import { queryOptions, useMutation, useQuery, useQueryClient, useSuspenseQuery } from "@tanstack/react-query";
-import { z } from "zod";
-import type { Analysis } from "@pendula/signal";
 import { api, request } from "@/lib/api-client";
-import { WALKING_AIDS, reprocessResponse, sessionUpdate, sessionUpdateResponse, type SessionUpdate } from "@pendula/ingest-server/contracts";
+import {
+  reprocessResponse,
+  sessionDetail,
+  sessionUpdate,
+  sessionUpdateResponse,
+  signalResponse,
+  type SessionUpdate,
+} from "@pendula/ingest-server/contracts";
 
-// ingest-server/src/contracts/sessions.ts (`sessionDetail`, `signalResponse`), copied because the
-// contracts index does not re-export them yet. The analysis is signal's own `Analysis` object.
-export const sessionDetailSchema = z.object({
-  id: z.string(),
-  patientId: z.string(),
-  status: z.enum(["queued", "processing", "done", "failed"]),
-  progressPct: z.number().optional(),
-  recordedAt: z.string(),
-  uploadedAt: z.string().optional(),
-  durationS: z.number().nullish(),
-  algorithmVersion: z.string().nullish(),
-  error: z.string().nullish(),
-  files: z.array(z.object({ placement: z.string(), deviceSerial: z.string().optional(), originalName: z.string().optional() })).optional(),
-  walkingAid: z.enum(WALKING_AIDS).nullish(),
-  /** Per metric key: how many strides/steps/arm cycles the value rests on, and which of them. */
-  metricCounts: z.record(z.string(), z.object({ n: z.number(), countNoun: z.string() })).optional(),
-  analysis: z.custom<Analysis>((v) => typeof v === "object" && v !== null && "metrics" in v && "events" in v).optional(),
-});
-export type SessionDetail = z.infer<typeof sessionDetailSchema>;
-
-export const signalSchema = z.object({
-  sessionId: z.string(),
-  unit: z.string(),
-  fromS: z.number(),
-  toS: z.number(),
-  traces: z.array(
-    z.object({
-      placement: z.string(),
-      sampleRateHz: z.number(),
-      decimated: z.boolean().optional(),
-      timeS: z.array(z.number()),
-      value: z.array(z.number()),
-    }),
-  ),
-});
-export type SignalTraces = z.infer<typeof signalSchema>;
+// GET /api/sessions/:id and its signal answer with the server's contracts; `analysis` is signal's own `Analysis` object.
+export type { SessionDetail, SignalResponse as SignalTraces } from "@pendula/ingest-server/contracts";
 
 export const sessionKeys = {
   all: ["session-review"] as const,
@@ -52,7 +23,7 @@ const enc = encodeURIComponent;
 export const sessionQueryOptions = (id: string) =>
   queryOptions({
     queryKey: sessionKeys.detail(id),
-    queryFn: ({ signal }) => api.get(`/sessions/${enc(id)}`, { schema: sessionDetailSchema, signal }),
+    queryFn: ({ signal }) => api.get(`/sessions/${enc(id)}`, { schema: sessionDetail, signal }),
     // While the worker has it (after an upload or a reprocess), look again every few seconds.
     refetchInterval: (q) => (q.state.data?.status === "queued" || q.state.data?.status === "processing" ? 3000 : false),
   });
@@ -60,7 +31,7 @@ export const sessionQueryOptions = (id: string) =>
 export const signalQueryOptions = (id: string, placement: string) =>
   queryOptions({
     queryKey: sessionKeys.signal(id, placement),
-    queryFn: ({ signal }) => api.get(`/sessions/${enc(id)}/signal`, { schema: signalSchema, query: { placement, maxPoints: 6000 }, signal }),
+    queryFn: ({ signal }) => api.get(`/sessions/${enc(id)}/signal`, { schema: signalResponse, query: { placement, maxPoints: 6000 }, signal }),
     staleTime: Infinity,
   });
 
