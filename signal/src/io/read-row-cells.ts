@@ -14,7 +14,7 @@ export function readRowCells(
   lineEnd: number,
   lineNo: number,
   names: readonly string[],
-  target: Int8Array,
+  target: Int32Array,
   row: Float64Array,
   fail: SensorCsvFail,
 ): boolean {

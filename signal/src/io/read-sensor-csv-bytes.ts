@@ -2,7 +2,7 @@ import type { SensorRecording } from "../types";
 import { MAX_SENSOR_FILE_CHARS, type ReadSensorCsvOptions, readSensorCsv } from "./read-sensor-csv";
 import { readRowCells } from "./read-row-cells";
 import { rowCapacityBytes } from "./row-capacity";
-import { scanDecimalRowBytes } from "./scan-decimal-row-bytes";
+import { COMMA, scanDecimalRowBytes } from "./scan-decimal-row-bytes";
 import { SENSOR_CSV_COLUMNS, type SensorCsvFail, type SensorCsvLayout, readSensorCsvHeader, sensorCsvFail } from "./sensor-csv-header";
 
 /**
@@ -96,7 +96,7 @@ function readDataRows(bytes: Uint8Array, pos: number, layout: SensorCsvLayout, o
 
   while (pos < n) {
     lineNo++;
-    let end = bytes[pos] === 35 || pos > lastNewline ? -1 : scanDecimalRowBytes(bytes, pos, nCols, target, row);
+    let end = bytes[pos] === 35 || pos > lastNewline ? -1 : scanDecimalRowBytes(bytes, pos, COMMA, nCols, target, row);
     if (end < 0) {
       end = pos > lastNewline ? n : bytes.indexOf(10, pos);
       const lineEnd = end > pos && bytes[end - 1] === 13 ? end - 1 : end;

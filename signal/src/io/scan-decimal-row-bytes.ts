@@ -1,30 +1,48 @@
 const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
 
+/** The two separators the byte readers scan for: sensor CSV and BIDS Motion TSV. */
+export const COMMA = 44;
+export const TAB = 9;
+
 /**
- * `scanDecimalRow` over UTF-8 (or ASCII) bytes instead of a string: one data row of `nCols`
- * comma-separated cells from `pos`, ended by `\n` or `\r\n`, values of plain decimals (≤ 15
- * significant digits, power of ten within ±22) written to `row[target[col]]` with the arithmetic of
- * `parseDecimal`, so a file read as bytes gives the same doubles as its text. Every byte the
- * scanner looks for is ASCII, and in UTF-8 an ASCII byte is always that character, so the bytes of
- * a row split and parse exactly as its characters do.
+ * `scanDecimalRow` over UTF-8 (or ASCII) bytes instead of a string: one data row of `nCols` cells
+ * split by `separator` (`COMMA` for the sensor CSV, `TAB` for BIDS Motion) from `pos`, ended by
+ * `\n` or `\r\n`, values of plain decimals (≤ 15 significant digits, power of ten within ±22)
+ * written to `row[target[col]]` with the arithmetic of `parseDecimal` (a mantissa of ≤ 15 digits
+ * and a power of ten within ±22 are both exact, so the quotient or product is the correctly
+ * rounded double), so a file read as bytes gives the same doubles as its text. A cell with
+ * `target[col] < 0` is skipped unread. Every byte the scanner looks for is ASCII, and in UTF-8 an
+ * ASCII byte is always that character, so the bytes of a row split and parse exactly as its
+ * characters do.
  *
  * Returns the index of the row's `\n`, or −1 for anything else (the caller's general path decides);
  * `row` may be partly written on −1. The scanner never steps over a `\n`, so a row followed by one
  * is read without bounds checks; a last row without `\n` gives −1 (and is better not offered: reading
  * past the end slows the compiled scanner down for the rest of the process).
+ *
+ * Both readers call this one function, each with its separator as a literal. A separator held in a
+ * register costs what a constant did: the readers' first-run CPU time on the 30-minute bench
+ * session moved by +1–3 %, inside the spread of the runs (DEVELOPERS.md, issue #16 decisions).
  */
-export function scanDecimalRowBytes(bytes: Uint8Array, pos: number, nCols: number, target: Int8Array, row: Float64Array): number {
+export function scanDecimalRowBytes(
+  bytes: Uint8Array,
+  pos: number,
+  separator: number,
+  nCols: number,
+  target: Int32Array,
+  row: Float64Array,
+): number {
   let p = pos;
   const lastCol = nCols - 1;
   for (let col = 0; ; col++) {
     const k = target[col]!;
     let c = bytes[p]!;
     if (k < 0) {
-      // Ignored cell: anything up to the separator; a comma in the last cell means too many cells.
+      // Ignored cell: anything up to the separator; a separator in the last cell means too many cells.
       const n = bytes.length;
-      while (c !== 44 && c !== 10 && p < n) c = bytes[++p]!;
+      while (c !== separator && c !== 10 && p < n) c = bytes[++p]!;
       if (col === lastCol) return c === 10 ? p : -1;
-      if (c !== 44) return -1;
+      if (c !== separator) return -1;
       p++;
       continue;
     }
@@ -76,7 +94,7 @@ export function scanDecimalRowBytes(bytes: Uint8Array, pos: number, nCols: numbe
     if (e > 22 || e < -22) return -1;
     row[k] = sign * (e >= 0 ? mantissa * POW10[e]! : mantissa / POW10[-e]!);
     if (col !== lastCol) {
-      if (c !== 44) return -1;
+      if (c !== separator) return -1;
       p++;
       continue;
     }

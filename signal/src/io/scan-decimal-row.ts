@@ -12,7 +12,7 @@ const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
  * takes the general path, which parses what it can and reports the rest. `row` may be partly
  * written on −1.
  */
-export function scanDecimalRow(text: string, pos: number, nCols: number, target: Int8Array, row: Float64Array): number {
+export function scanDecimalRow(text: string, pos: number, nCols: number, target: Int32Array, row: Float64Array): number {
   const n = text.length;
   let p = pos;
   for (let col = 0; col < nCols; col++) {

@@ -36,7 +36,7 @@ export interface SensorCsvLayout {
   /** Column names as written (trimmed, lower-cased), for error messages. */
   names: string[];
   /** target[col] = output channel fed by column col (0 = t_s … 6 = gyro_z), −1 = ignored extra column. */
-  target: Int8Array;
+  target: Int32Array;
   /** 1-based number of the column header line (the last line read). */
   lineNo: number;
 }
@@ -123,7 +123,7 @@ export function readSensorCsvHeader(nextLine: () => string | null, fail: SensorC
       fail(lineNo, c, `${kind} column "${c}" is missing from the column header`);
     }
   });
-  const target = new Int8Array(names.length).fill(-1);
+  const target = new Int32Array(names.length).fill(-1);
   index.forEach((col, k) => (target[col] = k));
 
   return {

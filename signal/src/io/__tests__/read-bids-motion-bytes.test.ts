@@ -100,6 +100,25 @@ describe("readBidsMotionBytes(bytes) — same as readBidsMotion(text)", () => {
     expect(same(lines.join("\n"))).toBe("read");
   });
 
+  it("reads channels past column 127 (130 magnetometer channels first) as the same recordings", () => {
+    // The scanner's cell → column map must hold any column index, not only a byte's worth.
+    const extra = 130;
+    const [header, ...rows] = set.channelsTsv.trimEnd().split("\n");
+    const magnetometer = Array.from({ length: extra }, (_, k) => `head_magn_${k}\tx\tMAGN\tHead\tnT`);
+    const channels = [header, ...magnetometer, ...rows].join("\n") + "\n";
+    const motion = set.motionTsv
+      .split("\n")
+      .map((line) => (line === "" ? line : `${"21.5\t".repeat(extra)}${line}`))
+      .join("\n");
+    expect(expectSameBothWays({ motion: encode(motion), channels, json: set.motionJson })).toBe("read");
+    const wide = readBidsMotionBytes({ ...set, channelsTsv: channels, motionTsv: encode(motion) });
+    const plain = readBidsMotionBytes({ ...set, motionTsv: encode(set.motionTsv) });
+    expect(wide.length).toBe(plain.length);
+    wide.forEach((r, i) => {
+      for (const k of ARRAYS) expect(bitsOf(r[k]).equals(bitsOf(plain[i]![k])), `${k} bit for bit`).toBe(true);
+    });
+  });
+
   it("refuses what the text reader refuses, with its message, line and column", () => {
     const lines = set.motionTsv.split("\n");
     const broken = (row: number, line: string) => lines.map((l, i) => (i === row ? line : l)).join("\n");

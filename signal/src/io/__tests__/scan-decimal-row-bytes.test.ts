@@ -1,15 +1,15 @@
 import { describe, expect, it } from "vitest";
 import { scanDecimalRow } from "../scan-decimal-row";
-import { scanDecimalRowBytes } from "../scan-decimal-row-bytes";
+import { COMMA, scanDecimalRowBytes } from "../scan-decimal-row-bytes";
 
 const encode = (text: string) => new TextEncoder().encode(text);
 
-function scanBoth(text: string, target: Int8Array) {
+function scanBoth(text: string, target: Int32Array) {
   const fromText = new Float64Array(target.length).fill(Number.NaN);
   const fromBytes = new Float64Array(target.length).fill(Number.NaN);
   return {
     text: { end: scanDecimalRow(text, 0, target.length, target, fromText), row: Array.from(fromText) },
-    bytes: { end: scanDecimalRowBytes(encode(text), 0, target.length, target, fromBytes), row: Array.from(fromBytes) },
+    bytes: { end: scanDecimalRowBytes(encode(text), 0, COMMA, target.length, target, fromBytes), row: Array.from(fromBytes) },
   };
 }
 
@@ -22,11 +22,11 @@ function lcg(seed: number): () => number {
   };
 }
 
-describe("scanDecimalRowBytes(bytes, pos, nCols, target, row)", () => {
+describe("scanDecimalRowBytes(bytes, pos, separator, nCols, target, row)", () => {
   it("gives the text scanner's doubles and row end on rows ended by \\n, odd cells included", () => {
     const rnd = lcg(20261202);
     const pieces = ["", "-", "+", ".", "e", "E-", "e+", "1", "0", "9", "7", "5", "3", " ", "x", "\r", "ü", "00000000"];
-    const target = Int8Array.of(0, -1, 1, 2);
+    const target = Int32Array.of(0, -1, 1, 2);
     const mismatches: string[] = [];
     for (let trial = 0; trial < 20_000; trial++) {
       const cells = Array.from({ length: 3 + Math.floor(rnd() * 3) }, () =>
@@ -43,13 +43,13 @@ describe("scanDecimalRowBytes(bytes, pos, nCols, target, row)", () => {
   });
 
   it("returns the index of the \\n of a \\n or \\r\\n row, and −1 for a row without one", () => {
-    const all = Int8Array.of(0, 1, 2);
+    const all = Int32Array.of(0, 1, 2);
     expect(scanBoth("1,2,3\n4,5,6", all).bytes).toEqual({ end: 5, row: [1, 2, 3] });
     expect(scanBoth("1,2,3\r\n", all).bytes.end).toBe(6);
     expect(scanBoth("1,2,3", all).bytes.end).toBe(-1);
     expect(scanBoth("1,2,3\r", all).bytes.end).toBe(-1);
-    expect(scanBoth("1,2,x", Int8Array.of(0, 1, -1)).bytes.end).toBe(-1);
+    expect(scanBoth("1,2,x", Int32Array.of(0, 1, -1)).bytes.end).toBe(-1);
     expect(scanBoth("1,2,3,4\n", all).bytes.end).toBe(-1);
-    expect(scanBoth("1,2,3,4\n", Int8Array.of(0, 1, -1)).bytes.end).toBe(-1);
+    expect(scanBoth("1,2,3,4\n", Int32Array.of(0, 1, -1)).bytes.end).toBe(-1);
   });
 });

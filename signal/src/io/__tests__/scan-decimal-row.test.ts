@@ -2,9 +2,9 @@ import { describe, expect, it } from "vitest";
 import { readSensorCsv } from "../read-sensor-csv";
 import { scanDecimalRow } from "../scan-decimal-row";
 
-const ALL = Int8Array.of(0, 1, 2);
+const ALL = Int32Array.of(0, 1, 2);
 
-function scan(text: string, target: Int8Array = ALL): { end: number; row: number[] } {
+function scan(text: string, target: Int32Array = ALL): { end: number; row: number[] } {
   const row = new Float64Array(target.length).fill(Number.NaN);
   const end = scanDecimalRow(text, 0, target.length, target, row);
   return { end, row: Array.from(row) };
@@ -53,10 +53,10 @@ describe("scanDecimalRow(text, pos, nCols, target, row)", () => {
   });
 
   it("skips ignored cells whatever they hold and parses the others", () => {
-    const { end, row } = scan("7,n/a,-2.5e1\n", Int8Array.of(0, -1, 1));
+    const { end, row } = scan("7,n/a,-2.5e1\n", Int32Array.of(0, -1, 1));
     expect(end).toBe(12);
     expect(row.slice(0, 2)).toEqual([7, -25]);
-    expect(scan("7,8,\r\n", Int8Array.of(0, 1, -1)).end).toBe(5);
+    expect(scan("7,8,\r\n", Int32Array.of(0, 1, -1)).end).toBe(5);
   });
 
   it("returns −1 for every row the general path must judge", () => {
@@ -81,7 +81,7 @@ describe("scanDecimalRow(text, pos, nCols, target, row)", () => {
     ]) {
       expect(scan(text).end, JSON.stringify(text)).toBe(-1);
     }
-    expect(scan("1,2,3,4\n", Int8Array.of(0, 1, -1)).end).toBe(-1);
+    expect(scan("1,2,3,4\n", Int32Array.of(0, 1, -1)).end).toBe(-1);
   });
 });
 
