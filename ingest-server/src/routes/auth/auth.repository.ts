@@ -88,6 +88,11 @@ export const authRepository = {
     return result.rowCount === 1;
   },
 
+  /** Refuses one access token until it would have expired anyway (sign-out). */
+  async revokeAccessToken(db: Db, jti: string, userId: string, expiresAt: Date): Promise<void> {
+    await db("revoked_access_tokens").insert({ jti, user_id: userId, expires_at: expiresAt }).onConflict("jti").ignore();
+  },
+
   revokeAllRefreshTokens(db: Db, userId: string): Promise<number> {
     return db("refresh_tokens").where({ user_id: userId }).whereNull("revoked_at").update({ revoked_at: db.fn.now() });
   },

@@ -273,10 +273,7 @@ export function createAuthService({ db, config, mailer }: AppDeps) {
       if (accessToken) {
         const claims = await verifyAccessToken(accessToken, config.jwtSecret).catch(() => null);
         if (claims) {
-          await db("revoked_access_tokens")
-            .insert({ jti: claims.tokenId, user_id: claims.userId, expires_at: new Date(Date.now() + config.accessTokenTtlS * 1000) })
-            .onConflict("jti")
-            .ignore();
+          await repo.revokeAccessToken(db, claims.tokenId, claims.userId, new Date(Date.now() + config.accessTokenTtlS * 1000));
         }
       }
       if (!token) return;

@@ -1,12 +1,11 @@
 import type { Request } from "express";
 import { audit } from "../../audit/audit";
 import type { CohortDefinition } from "../../contracts/research";
-import { CONDITIONS } from "../../contracts/enums";
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
 import { METRIC_KEYS, metricDefinition } from "../../metrics/metric-catalog";
-import { consentInForceAt, consentPeriods, type ConsentKind } from "../../research/consent-periods";
+import { consentInForceAt, consentPeriods } from "../../research/consent-periods";
 import { toCsv, type CsvCell } from "../../research/csv";
 import { COUNT_STEP, EXPORT_PRECISION, exportCount, exportValue } from "../../research/export-precision";
 import { observationBundle, type ResearchSessionRow } from "../../research/fhir-bundle";
@@ -28,6 +27,7 @@ import {
 } from "../../research/safe-harbor";
 import { readSessionMetrics } from "../../sessions/metric-rows";
 import { ownProject } from "./projects.service";
+import { cohortSourceRows, countingConsentEvents, type CohortSourceRow } from "./research.repository";
 
 /**
  * Research cohorts under HIPAA Safe Harbor (45 CFR 164.514(b)(2)). What leaves this module: a
@@ -40,22 +40,12 @@ import { ownProject } from "./projects.service";
  * the time it was recorded, and only when it is older than the release lag. Every condition ×
  * age-band cell with fewer than MIN_CELL_SUBJECTS distinct subjects is withheld.
  */
-interface SourceRow {
-  patient_id: string;
-  session_id: string;
-  condition: (typeof CONDITIONS)[number];
-  birth_year: number;
-  /** 'YYYY-MM-DD' (DATE columns arrive as the stored day). */
-  enrolled_on: string;
-  recorded_at: Date;
-  algorithm_version: string | null;
-}
 
 /** One session of the cohort before pseudonyms are applied; the patient and session ids never leave the server. */
 interface CohortRow {
   patientId: string;
   sessionId: string;
-  condition: SourceRow["condition"];
+  condition: CohortSourceRow["condition"];
   ageBand: string;
   weekBlock: number;
   algorithmVersion: string | null;
@@ -80,24 +70,10 @@ const enrolledDate = (day: string) => new Date(`${day}T00:00:00Z`);
  * blocks, so narrowing it cannot reveal a session's exact week.
  */
 async function cohortRows(deps: AppDeps, def: CohortDefinition, now: Date): Promise<CohortRow[]> {
-  const q = deps.db("walk_sessions as s")
-    .join("patients as p", "p.id", "s.patient_id")
-    .where("s.status", "done")
-    .andWhere("s.recorded_at", "<", releaseCutoff(now))
-    .whereExists(deps.db("consent_events as c").whereRaw("c.patient_id = p.id").andWhere("c.counts", true).andWhere("c.kind", "given"))
-    .select("p.id as patient_id", "s.id as session_id", "p.condition", "p.birth_year", "p.enrolled_on", "s.recorded_at", "s.algorithm_version")
-    .orderBy([{ column: "p.id" }, { column: "s.recorded_at" }, { column: "s.id" }]);
-  if (def.conditions.length) q.whereIn("p.condition", def.conditions);
-  const source: SourceRow[] = await q;
+  const source = await cohortSourceRows(deps.db, releaseCutoff(now), def.conditions);
   if (source.length === 0) return [];
   const patientIds = [...new Set(source.map((s) => s.patient_id))];
-  const events: Array<{ patient_id: string; kind: ConsentKind; counts: boolean; at: Date }> = await deps.db("consent_events")
-    .whereIn("patient_id", patientIds)
-    .andWhere("counts", true)
-    .orderBy([{ column: "patient_id" }, { column: "at" }, { column: "seq" }])
-    .select("patient_id", "kind", "counts", "at");
-  const byPatient = new Map<string, typeof events>();
-  for (const e of events) byPatient.set(e.patient_id, [...(byPatient.get(e.patient_id) ?? []), e]);
+  const byPatient = await countingConsentEvents(deps.db, patientIds);
   const periods = new Map(patientIds.map((id) => [id, consentPeriods((byPatient.get(id) ?? []).map((e) => ({ ...e, at: new Date(e.at) })))]));
 
   const rows: CohortRow[] = [];
@@ -125,7 +101,7 @@ export async function previewCohort(deps: AppDeps, req: Request, def: CohortDefi
   const released = cells
     .filter((c) => !c.suppressed)
     .map((c) => {
-      const [condition, band] = c.cell.split("|") as [SourceRow["condition"], string];
+      const [condition, band] = c.cell.split("|") as [CohortSourceRow["condition"], string];
       return { condition, ageBand: band, label: `${condition}, ${band}`, subjects: c.subjects, sessions: sessionsPerCell.get(c.cell) ?? 0, suppressed: false };
     });
   // Suppressed cells come last and carry no attributes, so neither their names nor their place in the sorted list tell which group it is.

@@ -59,11 +59,6 @@ export const usersRepository = {
     return trx("users").where({ id }).forUpdate().first("id", "role", "status", "display_name");
   },
 
-  /** Ends every open refresh session of the user. */
-  async revokeRefreshTokens(db: Db, userId: string): Promise<void> {
-    await db("refresh_tokens").where({ user_id: userId }).whereNull("revoked_at").update({ revoked_at: db.fn.now() });
-  },
-
   countActiveAdmins(db: Db): Promise<number> {
     return db("users")
       .where({ role: "admin", status: "active" })

@@ -4,6 +4,7 @@ import type { ListUsersFilter, UpdateUserRequest, UserSummary } from "../../cont
 import { audit } from "../../audit/audit";
 import type { AuthContext } from "../../middleware/authenticate";
 import { HttpError, notFound } from "../../http-error";
+import { authRepository } from "../auth/auth.repository";
 import { toUserSummary, usersRepository as repo } from "./users.repository";
 
 export async function listUsers({ db }: AppDeps, q: ListUsersFilter) {
@@ -46,7 +47,7 @@ export async function updateUser({ db }: AppDeps, actor: AuthContext, id: string
     if (!after) throw notFound("user");
     // A disabled account or a new role ends every session (access tokens fail the status/role check).
     if (after.status === "disabled" || after.role !== before.role) {
-      await repo.revokeRefreshTokens(trx, id);
+      await authRepository.revokeAllRefreshTokens(trx, id);
     }
     const changed: Record<string, { from: unknown; to: unknown }> = {};
     if (change.role && change.role !== before.role) changed.role = { from: before.role, to: after.role };
