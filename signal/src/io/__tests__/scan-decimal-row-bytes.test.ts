@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { scanDecimalRow } from "../scan-decimal-row";
-import { COMMA, scanDecimalRowBytes } from "../scan-decimal-row-bytes";
+import { COMMA, scanDecimalRowBytes, TAB } from "../scan-decimal-row-bytes";
 
 const encode = (text: string) => new TextEncoder().encode(text);
 
@@ -51,5 +51,16 @@ describe("scanDecimalRowBytes(bytes, pos, separator, nCols, target, row)", () =>
     expect(scanBoth("1,2,x", Int32Array.of(0, 1, -1)).bytes.end).toBe(-1);
     expect(scanBoth("1,2,3,4\n", all).bytes.end).toBe(-1);
     expect(scanBoth("1,2,3,4\n", Int32Array.of(0, 1, -1)).bytes.end).toBe(-1);
+  });
+
+  it("splits at the separator it is given: tabs for BIDS Motion rows, where a comma is a bad cell", () => {
+    const row = new Float64Array(3);
+    expect(scanDecimalRowBytes(encode("1\t-2.5\t3e2\n"), 0, TAB, 3, Int32Array.of(0, 1, 2), row)).toBe(10);
+    expect(Array.from(row)).toEqual([1, -2.5, 300]);
+    expect(scanDecimalRowBytes(encode("1,2,3\n"), 0, TAB, 3, Int32Array.of(0, 1, 2), row)).toBe(-1);
+    expect(scanDecimalRowBytes(encode("1\t2\t3\n"), 0, COMMA, 3, Int32Array.of(0, 1, 2), row)).toBe(-1);
+    // An ignored cell runs to the given separator, so a comma inside it is just part of the cell.
+    expect(scanDecimalRowBytes(encode("1\tx,y\t3\n"), 0, TAB, 3, Int32Array.of(0, -1, 1), row)).toBe(7);
+    expect(Array.from(row.subarray(0, 2))).toEqual([1, 3]);
   });
 });
