@@ -547,6 +547,12 @@ export function metricsOfChart(chart: MetricChartId): MetricDefinition[] {
   return METRICS.filter((m) => m.chart === chart);
 }
 
+/** The label with its printed unit, for lists where no value stands beside it ("Walking speed (m/s)", "Gait asymmetry (swing, %)"). */
+export function labelWithUnit(def: Pick<MetricDefinition, "label" | "unitText">): string {
+  if (def.unitText === "" || def.label.endsWith(`(${def.unitText})`)) return def.label;
+  return def.label.endsWith(")") ? `${def.label.slice(0, -1)}, ${def.unitText})` : `${def.label} (${def.unitText})`;
+}
+
 /** A value as the session summary and tables print it: the entry's decimals and unit ("98.4 steps/min", "31.5°"). */
 export function formatMetricValue(def: Pick<MetricDefinition, "decimals" | "unitText">, value: number | null | undefined): string {
   if (typeof value !== "number" || !Number.isFinite(value)) return "—";

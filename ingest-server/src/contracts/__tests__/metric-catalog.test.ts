@@ -9,6 +9,7 @@ import {
   METRIC_KEYS,
   STORED_METRIC_KEYS,
   formatMetricValue,
+  labelWithUnit,
   isMetricKey,
   metricDefinition,
   metricsOfChart,
@@ -119,6 +120,16 @@ describe("each entry is complete", () => {
     for (const b of BASE_METRICS) expect(METRICS.some((m) => m.base === b), b).toBe(true);
     for (const c of METRIC_CHARTS) expect(metricsOfChart(c.id).length, c.id).toBeGreaterThan(0);
     expect(Object.keys(BASE_METRIC_INFO).sort()).toEqual([...BASE_METRICS].sort());
+  });
+});
+
+describe("labelWithUnit", () => {
+  it("adds the printed unit once, inside a trailing bracket when the label has one, and nothing for a plain number", () => {
+    expect(labelWithUnit(metricDefinition("walkingSpeedMPerS")!)).toBe("Walking speed (m/s)");
+    expect(labelWithUnit(metricDefinition("cadenceStepsPerMin")!)).toBe("Cadence (steps/min)");
+    expect(labelWithUnit(metricDefinition("gaitAsymmetryPct")!)).toBe("Gait asymmetry (swing, %)");
+    expect(labelWithUnit(metricDefinition("armSwingAmplitudeDegLeft")!)).toBe("Arm swing amplitude, left (°)");
+    expect(labelWithUnit(metricDefinition("armLegLeftArmRightLegCouplingStrength")!)).toBe("Left arm–right leg coupling strength (R)");
   });
 });
 

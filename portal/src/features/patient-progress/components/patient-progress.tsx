@@ -3,6 +3,11 @@ import { TimeSeriesChart } from "@/components/charts/time-series-chart";
 import { Badge, buttonClasses, EmptyState, PageHeader, Section, Table, Td, Th } from "@/components/ui";
 import { useMyWalks } from "../api/get-my-walks";
 import { progressWords, SPEED_CAUTION } from "./progress-words";
+import { metricDefinition } from "@pendula/ingest-server/contracts";
+
+// The patient's own words for the two measures shown here, from the metric catalogue.
+const CADENCE = metricDefinition("cadenceStepsPerMin")!.patientLabel!;
+const SPEED = metricDefinition("walkingSpeedMPerS")!.patientLabel!;
 
 const dateWords = (iso: string) => new Date(iso).toLocaleDateString(undefined, { weekday: "short", day: "numeric", month: "long", year: "numeric" });
 
@@ -48,11 +53,11 @@ export function PatientProgress({ patientId }: { patientId: string }) {
           </Section>
 
           {cadencePoints.length >= 2 ? (
-            <Section title="Steps per minute" id="cadence" description="Each dot is one weekly walk.">
+            <Section title={CADENCE} id="cadence" description="Each dot is one weekly walk.">
               <figure className="card p-4">
                 <TimeSeriesChart
-                  ariaLabel="Steps per minute in each weekly walk"
-                  series={[{ id: "cadence", label: "Steps per minute", points: cadencePoints, color: "var(--color-moss)" }]}
+                  ariaLabel={`${CADENCE} in each weekly walk`}
+                  series={[{ id: "cadence", label: CADENCE, points: cadencePoints, color: "var(--color-moss)" }]}
                   formatY={(v) => v.toFixed(0)}
                   height={240}
                 />
@@ -66,8 +71,8 @@ export function PatientProgress({ patientId }: { patientId: string }) {
               <thead>
                 <tr>
                   <Th>Date</Th>
-                  <Th>Steps per minute</Th>
-                  <Th>Walking speed</Th>
+                  <Th>{CADENCE}</Th>
+                  <Th>{SPEED}</Th>
                   <Th>Status</Th>
                 </tr>
               </thead>

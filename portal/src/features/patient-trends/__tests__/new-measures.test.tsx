@@ -3,7 +3,7 @@ import { afterEach, describe, expect, it, vi } from "vitest";
 import { mockApi } from "@/testing/mock-api";
 import { createTestQueryClient, renderWithProviders } from "@/testing/render";
 import { PatientTrendsPage } from "../components/patient-trends-page";
-import { familyOf } from "../api/metric-families";
+import { metricDefinition } from "@pendula/ingest-server/contracts";
 import { walkingAidMarkers, walkingAidRuns } from "../components/walking-aid-strip";
 
 const PID = "5a0c7f0e-2b9d-4b59-9d7e-6a1f3c2b9e01";
@@ -48,7 +48,7 @@ describe("new measures on the patient's trends", () => {
     // A relative phase has no chart of its own: on its own, without R beside each point, it would be over-read.
     ["armLegLeftArmRightLegMeanRelativePhaseDeg", null],
     ["armLegRightArmLeftLegCircularSdDeg", null],
-  ])("%s → %s", (key, family) => expect(familyOf(key)).toBe(family));
+  ])("%s → %s", (key, family) => expect(metricDefinition(key)?.chart).toBe(family));
 
   it("draws no relative phase even when the server sends one", async () => {
     server({

@@ -3,7 +3,7 @@ import { afterEach, describe, expect, it, vi } from "vitest";
 import { mockApi } from "@/testing/mock-api";
 import { createTestQueryClient, renderWithProviders } from "@/testing/render";
 import { PatientTrendsPage, sharedDomain } from "../components/patient-trends-page";
-import { familyOf } from "../api/metric-families";
+import { metricDefinition } from "@pendula/ingest-server/contracts";
 
 const PID = "5a0c7f0e-2b9d-4b59-9d7e-6a1f3c2b9e01";
 const FRENKEL = "Frenkel-Toledo et al. 2005, J NeuroEng Rehabil 2:23, Table 2 (overground, comfortable speed)";
@@ -45,10 +45,10 @@ function server() {
             ],
             mdc: { value: 0.9, source: "patient-baseline", citation: "", confirmed: false },
           },
-          { key: "stancePct.left", unit: "%", points: pts([62, 63, 61]) },
-          { key: "armLeg.leftArmRightLeg.frequencyRatio", unit: "1", points: pts([2, 2, 1, 1]) },
+          { key: "stancePctLeft", unit: "%", points: pts([62, 63, 61]) },
+          { key: "armLegLeftArmRightLegFrequencyRatio", unit: "1", points: pts([2, 2, 1, 1]) },
         ],
-        events: [{ kind: "arm-leg-mode-change", sessionId: "s2", recordedAt: pts([0, 0, 0])[2]!.recordedAt, metricKey: "armLeg.leftArmRightLeg.frequencyRatio", from: 2, to: 1, message: "Left arm–right leg locking changed from 2:1 to 1:1" }],
+        events: [{ kind: "arm-leg-mode-change", sessionId: "s2", recordedAt: pts([0, 0, 0])[2]!.recordedAt, metricKey: "armLegLeftArmRightLegFrequencyRatio", from: 2, to: 1, message: "Left arm–right leg locking changed from 2:1 to 1:1" }],
         cautions: ["A flag or event is a prompt to look at the recording and the patient, not a diagnosis."],
       },
     },
@@ -107,10 +107,15 @@ describe("metric families and the shared time axis", () => {
     ["stancePctLeft", "phases"],
     ["doubleSupportPct", "phases"],
     ["phaseCoordinationIndexPct", "pci"],
-    ["leftArmRightLegCouplingStrength", "armLegCoupling"],
-    ["armLeg.rightArmLeftLeg.frequencyRatio", "armLegRatio"],
+    ["armLegLeftArmRightLegCouplingStrength", "armLegCoupling"],
+    ["armLegRightArmLeftLegFrequencyRatio", "armLegRatio"],
     ["gaitAsymmetryPct", null],
-  ])("%s → %s", (key, family) => expect(familyOf(key)).toBe(family));
+  ])("%s → %s", (key, family) => expect(metricDefinition(key)?.chart).toBe(family));
+
+  // Only the stored spelling is a metric: a dotted or unprefixed variant is drawn on no chart rather than guessed at.
+  it.each(["leftArmRightLegCouplingStrength", "armLeg.rightArmLeftLeg.frequencyRatio", "stancePct.left"])("%s → no chart", (key) =>
+    expect(metricDefinition(key)?.chart ?? null).toBeNull(),
+  );
 
   it("spans every point and marker", () => {
     const d = sharedDomain([{ key: "k", unit: "", points: pts([1, 2]) }], [{ t: new Date(Date.UTC(2026, 9, 1)), glyph: "N", label: "n" }])!;

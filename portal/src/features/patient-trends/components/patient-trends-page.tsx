@@ -3,7 +3,7 @@ import { Link, useNavigate } from "react-router-dom";
 import type { ChartMarker } from "@/components/charts/time-series-chart";
 import { IconAlert, IconPrint } from "@/components/icons";
 import { Badge, Button, EmptyState, PageHeader, Section, Table, Td, Th } from "@/components/ui";
-import { FAMILIES, familyOf } from "../api/metric-families";
+import { formatMetricValue, METRIC_CHARTS, metricDefinition } from "@pendula/ingest-server/contracts";
 import { usePatientDetail, usePatientSessions, useTrends, type CoordinationEvent, type TrendMetric } from "../api/trends";
 import { DEFAULT_CAUTIONS, SHORT_CAUTION } from "./flag-badge";
 import { TrendFamilyCard } from "./trend-family-card";
@@ -14,6 +14,9 @@ import { walkingAidLabel } from "@/lib/walking-aid";
 import { formatCalendarDay } from "@/lib/calendar-day";
 import { conditionLabel } from "@/lib/condition-labels";
 import { formatDateTime } from "@/lib/format";
+
+/** The session list's metric columns: the values each session row carries, named and printed by the catalogue. */
+const SESSION_COLUMNS = ["walkingSpeedMPerS", "cadenceStepsPerMin", "strideTimeCvPct", "phaseCoordinationIndexPct"] as const;
 
 export interface PatientTrendsPageProps {
   patientId: string;
@@ -45,9 +48,10 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
   const aidRuns = walkingAidRuns(sessions.items);
   const chartMarkers = [...markers, ...walkingAidMarkers(aidRuns)];
   const domain = sharedDomain(trends.metrics, chartMarkers);
-  const byFamily = FAMILIES.map((f) => ({
+  const chartOf = (key: string) => metricDefinition(key)?.chart ?? null;
+  const byFamily = METRIC_CHARTS.map((f) => ({
     family: f,
-    metrics: trends.metrics.filter((m) => familyOf(m.key) === f.id),
+    metrics: trends.metrics.filter((m) => chartOf(m.key) === f.id),
   })).filter((g) => g.metrics.length > 0);
 
   return (
@@ -109,7 +113,7 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
               key={family.id}
               family={family}
               metrics={metrics}
-              events={events.filter((e) => e.metricKey && familyOf(e.metricKey) === family.id)}
+              events={events.filter((e) => e.metricKey && chartOf(e.metricKey) === family.id)}
               markers={chartMarkers}
               xDomain={domain}
               cautions={SHORT_CAUTION}
@@ -136,10 +140,9 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
               <tr>
                 <Th>Recorded</Th>
                 <Th>Status</Th>
-                <Th>Walking speed</Th>
-                <Th>Cadence</Th>
-                <Th>Stride-time CV</Th>
-                <Th>PCI</Th>
+                {SESSION_COLUMNS.map((key) => (
+                  <Th key={key}>{metricDefinition(key)!.shortLabel}</Th>
+                ))}
                 <Th>Walking aid</Th>
               </tr>
             </thead>
@@ -156,10 +159,11 @@ export function PatientTrendsPage({ patientId, markers = [], notesPanel }: Patie
                     <Td>
                       {s.status === "done" ? <Badge tone="good">Processed</Badge> : s.status === "failed" ? <Badge tone="alert">Failed</Badge> : <Badge tone="info">{s.status === "queued" ? "Queued" : "Processing"}</Badge>}
                     </Td>
-                    <Td className="tabular">{s.walkingSpeedMPerS != null ? `${s.walkingSpeedMPerS.toFixed(2)} m/s` : "—"}</Td>
-                    <Td className="tabular">{s.cadenceStepsPerMin != null ? `${s.cadenceStepsPerMin.toFixed(1)} steps/min` : "—"}</Td>
-                    <Td className="tabular">{s.strideTimeCvPct != null ? `${s.strideTimeCvPct.toFixed(2)} %` : "—"}</Td>
-                    <Td className="tabular">{s.phaseCoordinationIndexPct != null ? `${s.phaseCoordinationIndexPct.toFixed(1)} %` : "—"}</Td>
+                    {SESSION_COLUMNS.map((key) => (
+                      <Td key={key} className="tabular">
+                        {formatMetricValue(metricDefinition(key)!, s[key])}
+                      </Td>
+                    ))}
                     <Td>{walkingAidLabel(s.walkingAid)}</Td>
                   </tr>
                 ))}

@@ -1,11 +1,16 @@
 import { IconAlert } from "@/components/icons";
 import { TimeSeriesChart, type ChartMarker, type ChartSeries, type PointFlag } from "@/components/charts/time-series-chart";
 import type { CoordinationEvent, TrendBand, TrendMetric } from "../api/trends";
-import { metricLabel, seriesColor, type FamilyInfo } from "../api/metric-families";
+import { metricDefinition, type MetricChart } from "@pendula/ingest-server/contracts";
 import { FlagBadge } from "./flag-badge";
 import { familyBands, trendCardId } from "./trend-summary-model";
 import { walkingAidLabel } from "@/lib/walking-aid";
 import { formatDate } from "@/lib/format";
+
+const PALETTE = ["var(--color-moss)", "var(--color-clay-deep)", "var(--color-sky-deep)", "var(--color-ochre)"];
+const seriesColor = (i: number) => PALETTE[i % PALETTE.length]!;
+/** The catalogue's name for a trend key; the key itself only for a key the catalogue does not list. */
+const labelOf = (key: string) => metricDefinition(key)?.label ?? key;
 
 const asFlag = (f: string | undefined): PointFlag | undefined => (f === "improved" || f === "worsened" || f === "within-error" ? f : undefined);
 
@@ -24,7 +29,7 @@ export function countWords(n: number | null | undefined, noun: string | undefine
 }
 
 export interface TrendFamilyCardProps {
-  family: FamilyInfo;
+  family: MetricChart;
   metrics: TrendMetric[];
   events: CoordinationEvent[];
   markers: ChartMarker[];
@@ -38,7 +43,7 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
   const unit = displayUnit(rawUnit);
   const series: ChartSeries[] = metrics.map((m, i) => ({
     id: m.key,
-    label: metricLabel(m.key, m.label),
+    label: labelOf(m.key),
     color: seriesColor(i),
     dashed: i % 2 === 1,
     points: m.points
@@ -109,7 +114,7 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
           const n = countWords(last.n, m.countNoun);
           return (
             <li key={m.key}>
-              <span className="font-semibold">{metricLabel(m.key, m.label)}, latest:</span> <span className="tabular">{fmt(last.value, m.unit)}</span> on {formatDate(last.recordedAt)}
+              <span className="font-semibold">{labelOf(m.key)}, latest:</span> <span className="tabular">{fmt(last.value, m.unit)}</span> on {formatDate(last.recordedAt)}
               {n ? <span className="text-ink-soft"> ({n})</span> : null}
             </li>
           );
@@ -144,7 +149,7 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
           {metrics.map((m) =>
             m.mdc ? (
               <p key={m.key} className="mt-1 text-ink-soft">
-                MDC95 for {metricLabel(m.key, m.label)}: {fmt(m.mdc.value, m.unit)} —{" "}
+                MDC95 for {labelOf(m.key)}: {fmt(m.mdc.value, m.unit)} —{" "}
                 {m.mdc.source === "published" ? `published (${m.mdc.citation ?? "source not given"})` : "from this patient's own first sessions (a rough estimate with few sessions)"}.
               </p>
             ) : null,
@@ -159,7 +164,7 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
                 <li key={`${metric.key}-${point.sessionId}`} className="flex flex-wrap items-center gap-2">
                   <FlagBadge flag={point.flag!} />
                   <button type="button" className="text-left text-sky-deep underline underline-offset-2" onClick={() => onOpenSession(point.sessionId)}>
-                    {metricLabel(metric.key, metric.label)} {fmt(point.value, metric.unit)} on {formatDate(point.recordedAt)}
+                    {labelOf(metric.key)} {fmt(point.value, metric.unit)} on {formatDate(point.recordedAt)}
                   </button>
                   {earlier > 0 ? <span className="text-xs text-ink-soft">(and {earlier} earlier flagged {earlier === 1 ? "session" : "sessions"})</span> : null}
                 </li>
@@ -168,7 +173,7 @@ export function TrendFamilyCard({ family, metrics, events, markers, xDomain, cau
                 <li key={`slope-${m.key}`} className="flex flex-wrap items-center gap-2">
                   <FlagBadge flag={m.slopeFlag!.flag} prefix="Trend" />
                   <span>
-                    {metricLabel(m.key, m.label)}: {m.slopeFlag!.slopePerWeek >= 0 ? "+" : ""}
+                    {labelOf(m.key)}: {m.slopeFlag!.slopePerWeek >= 0 ? "+" : ""}
                     {fmt(m.slopeFlag!.slopePerWeek, m.unit)} per week
                     {m.slopeFlag!.windowWeeks ? ` over ${m.slopeFlag!.windowWeeks} weeks` : ""}
                   </span>

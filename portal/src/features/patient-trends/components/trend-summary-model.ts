@@ -1,4 +1,4 @@
-import { FAMILIES, familyOf, metricLabel, type FamilyInfo } from "../api/metric-families";
+import { METRIC_CHARTS, metricDefinition, type MetricChart } from "@pendula/ingest-server/contracts";
 import type { TrendBand, TrendMetric } from "../api/trends";
 
 export type TrendPoint = TrendMetric["points"][number];
@@ -46,16 +46,14 @@ export interface SummaryRow {
 }
 
 export interface SummaryGroup {
-  family: FamilyInfo;
+  family: MetricChart;
   rows: SummaryRow[];
 }
 
-const norm = (key: string) => key.toLowerCase().replace(/[^a-z0-9]/g, "");
-const isPhaseKey = (key: string) => norm(key).includes("meanrelativephase");
-const pairOf = (key: string) => {
-  const k = norm(key);
-  return k.includes("leftarmrightleg") ? "leftArmRightLeg" : k.includes("rightarmleftleg") ? "rightArmLeftLeg" : null;
-};
+// Everything about a key comes from the metric catalogue; a key it does not list has no chart, pair or phase.
+const isPhaseKey = (key: string) => metricDefinition(key)?.base === "meanRelativePhaseDeg";
+const pairOf = (key: string) => metricDefinition(key)?.pair ?? null;
+const chartOf = (key: string) => metricDefinition(key)?.chart ?? null;
 
 export const latestPoint = (m: TrendMetric): TrendPoint | null =>
   m.points.reduce<TrendPoint | null>((best, p) => (best === null || p.recordedAt > best.recordedAt ? p : best), null);
@@ -110,7 +108,7 @@ function row(metric: TrendMetric, cardBands: TrendBand[], couplingR: (sessionId:
     latest !== null && !latest.baseline && latest.walkingAid !== undefined && baselineAids.length > 0 && baselineAids.every((a) => a !== undefined) && baselineAids.some((a) => a !== latest.walkingAid);
   return {
     metric,
-    label: metricLabel(metric.key, metric.label),
+    label: metricDefinition(metric.key)?.label ?? metric.key,
     latest,
     phase,
     couplingR: phase && latest ? couplingR(latest.sessionId) : null,
@@ -128,14 +126,14 @@ function row(metric: TrendMetric, cardBands: TrendBand[], couplingR: (sessionId:
  */
 export function summaryGroups(metrics: TrendMetric[]): SummaryGroup[] {
   const phases = metrics.filter((m) => isPhaseKey(m.key));
-  const couplings = metrics.filter((m) => familyOf(m.key) === "armLegCoupling");
+  const couplings = metrics.filter((m) => chartOf(m.key) === "armLegCoupling");
   const rOf = (pair: string | null) => (sessionId: string) => {
     const c = couplings.find((m) => pairOf(m.key) === pair);
     const p = c?.points.find((x) => x.sessionId === sessionId);
     return p && Number.isFinite(p.value) ? p.value : null;
   };
-  return FAMILIES.map((family) => {
-    const own = metrics.filter((m) => familyOf(m.key) === family.id);
+  return METRIC_CHARTS.map((family) => {
+    const own = metrics.filter((m) => chartOf(m.key) === family.id);
     const cardBands = familyBands(own);
     const rows: SummaryRow[] = [];
     for (const m of own) {

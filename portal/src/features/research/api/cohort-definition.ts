@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { labelWithUnit, METRICS } from "@pendula/ingest-server/contracts";
 import { CONDITION_OPTIONS } from "@/lib/condition-labels";
 
 /*
@@ -17,28 +18,8 @@ export const AGE_BAND_OPTIONS: readonly string[] = [
   "90+",
 ];
 
-export const METRIC_OPTIONS = [
-  { value: "walkingSpeedMPerS", label: "Walking speed (m/s)" },
-  { value: "strideLengthM", label: "Stride length (m)" },
-  { value: "cadenceStepsPerMin", label: "Cadence (steps/min)" },
-  { value: "strideTimeMeanS", label: "Stride time, mean (s)" },
-  { value: "strideTimeCvPct", label: "Stride time variability, CV (%)" },
-  { value: "swingTimeCvPctLeft", label: "Swing time variability, CV, left (%)" },
-  { value: "swingTimeCvPctRight", label: "Swing time variability, CV, right (%)" },
-  { value: "stepTimeAsymmetryPct", label: "Step-time asymmetry (%)" },
-  { value: "stancePctLeft", label: "Stance, left (% of stride)" },
-  { value: "stancePctRight", label: "Stance, right (% of stride)" },
-  { value: "doubleSupportPct", label: "Double support (% of stride)" },
-  { value: "phaseCoordinationIndexPct", label: "Phase Coordination Index (%)" },
-  { value: "gaitAsymmetryPct", label: "Gait asymmetry, swing (%)" },
-  { value: "armSwingAmplitudeDegLeft", label: "Arm swing amplitude, left (deg)" },
-  { value: "armSwingAmplitudeDegRight", label: "Arm swing amplitude, right (deg)" },
-  { value: "armSwingAsymmetryPct", label: "Arm swing asymmetry (%)" },
-  { value: "armLegLeftArmRightLegFrequencyRatio", label: "Left arm–right leg frequency ratio" },
-  { value: "armLegRightArmLeftLegFrequencyRatio", label: "Right arm–left leg frequency ratio" },
-  { value: "armLegLeftArmRightLegCouplingStrength", label: "Left arm–right leg coupling strength (R)" },
-  { value: "armLegRightArmLeftLegCouplingStrength", label: "Right arm–left leg coupling strength (R)" },
-] as const;
+/** Every metric of the catalogue, named with its unit; the server exports each at its catalogue precision. */
+export const METRIC_OPTIONS: ReadonlyArray<{ value: string; label: string }> = METRICS.map((m) => ({ value: m.key, label: labelWithUnit(m) }));
 
 export const MAX_WEEKS_SINCE_ENROLMENT = 520;
 
@@ -70,8 +51,4 @@ export const DEFAULT_COHORT: CohortDefinition = {
 
 export function conditionLabel(value: string): string {
   return CONDITION_OPTIONS.find((c) => c.value === value)?.label ?? value;
-}
-
-export function metricLabel(value: string): string {
-  return METRIC_OPTIONS.find((m) => m.value === value)?.label ?? value;
 }

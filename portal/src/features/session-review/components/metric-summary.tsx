@@ -1,4 +1,5 @@
 import type { Analysis, ArmLegCoupling } from "@pendula/signal";
+import { BASE_METRIC_INFO, formatMetricValue, metricDefinition, type MetricKey } from "@pendula/ingest-server/contracts";
 import { formatNumber } from "@/lib/format";
 
 export type MetricCounts = Record<string, { n: number; countNoun: string }>;
@@ -41,27 +42,40 @@ function Grid({ items, label }: { items: Item[]; label: string }) {
   );
 }
 
+const entry = (key: MetricKey) => metricDefinition(key)!;
+/** A value printed with its catalogue entry's decimals and unit. */
+const value = (key: MetricKey, v: number | null | undefined) => formatMetricValue(entry(key), v);
+/** One grid cell for one stored metric, named by the catalogue. */
+const one = (key: MetricKey, v: number | null | undefined, counts?: MetricCounts, more: Partial<Item> = {}): Item => ({
+  label: entry(key).shortLabel,
+  value: value(key, v),
+  counts: [countText(counts, key)],
+  ...more,
+});
+/** One grid cell for a per-side metric: "Stance L / R" with both sides' values. */
+const sides = (left: MetricKey, right: MetricKey, v: { left: number | null; right: number | null } | null | undefined, counts?: MetricCounts): Item => ({
+  label: `${entry(left).name} L / R`,
+  value: `${value(left, v?.left)} / ${value(right, v?.right)}`,
+  counts: [countText(counts, left), countText(counts, right)],
+});
+
 /** Spatio-temporal measures of the steady strides, each with the count it rests on. */
 export function MetricsGrid({ a, counts }: { a: Analysis; counts?: MetricCounts }) {
   const m = a.metrics;
-  const c = (key: string) => countText(counts, key);
   const items: Item[] = [
-    { label: "Walking speed", value: f(m.walkingSpeedMPerS, 2, " m/s"), counts: [c("walkingSpeedMPerS")], reason: m.walkingSpeedReason, note: m.walkingSpeedReason },
-    { label: "Stride length", value: f(m.strideLengthM, 2, " m"), counts: [c("strideLengthM")], reason: m.walkingSpeedReason },
-    { label: "Cadence", value: f(m.cadenceStepsPerMin, 1, " steps/min"), counts: [c("cadenceStepsPerMin")] },
-    { label: "Stride time (mean)", value: f(m.strideTimeMeanS, 3, " s"), counts: [c("strideTimeMeanS")] },
-    { label: "Stride-time CV", value: f(m.strideTimeCvPct, 2, " %"), counts: [c("strideTimeCvPct")] },
-    {
-      label: "Swing-time CV L / R",
-      value: `${f(m.swingTimeCvPct?.left, 2, " %")} / ${f(m.swingTimeCvPct?.right, 2, " %")}`,
-      counts: [c("swingTimeCvPctLeft"), c("swingTimeCvPctRight")],
-    },
-    { label: "Stance L / R", value: `${f(m.stancePct.left, 1, " %")} / ${f(m.stancePct.right, 1, " %")}`, counts: [c("stancePctLeft"), c("stancePctRight")] },
-    { label: "Double support", value: f(m.doubleSupportPct, 1, " %"), counts: [c("doubleSupportPct")] },
-    { label: "Step-time asymmetry", value: f(m.stepTimeAsymmetryPct, 1, " %"), counts: [c("stepTimeAsymmetryPct")] },
-    { label: "Gait asymmetry (swing)", value: f(m.gaitAsymmetryPct, 1, " %"), counts: [c("gaitAsymmetryPct")] },
-    { label: "PCI", value: f(m.phaseCoordinationIndexPct, 1, " %"), counts: [c("phaseCoordinationIndexPct")] },
-    { label: "Steady strides", value: String(m.steadyStrideCount) },
+    one("walkingSpeedMPerS", m.walkingSpeedMPerS, counts, { reason: m.walkingSpeedReason, note: m.walkingSpeedReason }),
+    one("strideLengthM", m.strideLengthM, counts, { reason: m.walkingSpeedReason }),
+    one("cadenceStepsPerMin", m.cadenceStepsPerMin, counts),
+    one("strideTimeMeanS", m.strideTimeMeanS, counts),
+    one("strideTimeCvPct", m.strideTimeCvPct, counts),
+    sides("swingTimeCvPctLeft", "swingTimeCvPctRight", m.swingTimeCvPct, counts),
+    sides("stancePctLeft", "stancePctRight", m.stancePct, counts),
+    one("doubleSupportPct", m.doubleSupportPct, counts),
+    one("stepTimeAsymmetryPct", m.stepTimeAsymmetryPct, counts),
+    one("gaitAsymmetryPct", m.gaitAsymmetryPct, counts),
+    one("phaseCoordinationIndexPct", m.phaseCoordinationIndexPct, counts),
+    // The count of steady strides is itself the count; no "n =" under it.
+    { label: entry("steadyStrideCount").shortLabel, value: value("steadyStrideCount", m.steadyStrideCount) },
   ];
   return <Grid items={items} label="Gait measures" />;
 }
@@ -70,10 +84,11 @@ export function MetricsGrid({ a, counts }: { a: Analysis; counts?: MetricCounts 
 export function ArmSwingSummary({ a, counts }: { a: Analysis; counts?: MetricCounts }) {
   const s = a.metrics.armSwing;
   if (!s) return <p className="text-ink-soft">Arm swing was not measured: {a.metrics.armSwingReason ?? "no reason was given by the analysis"}.</p>;
+  const reason = { reason: a.metrics.armSwingReason };
   const items: Item[] = [
-    { label: "Arm swing, left", value: f(s.left.amplitudeDeg, 1, "°"), counts: [countText(counts, "armSwingAmplitudeDegLeft")], reason: a.metrics.armSwingReason },
-    { label: "Arm swing, right", value: f(s.right.amplitudeDeg, 1, "°"), counts: [countText(counts, "armSwingAmplitudeDegRight")], reason: a.metrics.armSwingReason },
-    { label: "Arm swing asymmetry", value: f(s.asymmetryPct, 1, " %"), counts: [countText(counts, "armSwingAsymmetryPct")], reason: a.metrics.armSwingReason },
+    one("armSwingAmplitudeDegLeft", s.left.amplitudeDeg, counts, reason),
+    one("armSwingAmplitudeDegRight", s.right.amplitudeDeg, counts, reason),
+    one("armSwingAsymmetryPct", s.asymmetryPct, counts, reason),
   ];
   return <Grid items={items} label="Arm swing" />;
 }
@@ -90,13 +105,13 @@ export function CouplingCard({ title, c }: { title: string; c: ArmLegCoupling })
     <div className="rounded-lg border border-line bg-paper p-3">
       <h4 className="font-semibold">{title}</h4>
       <dl className="mt-1 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm">
-        <dt className="text-ink-soft">Frequency ratio</dt>
+        <dt className="text-ink-soft">{BASE_METRIC_INFO.frequencyRatio.name}</dt>
         <dd className="tabular">{ratio}</dd>
-        <dt className="text-ink-soft">Coupling strength R</dt>
+        <dt className="text-ink-soft">{BASE_METRIC_INFO.couplingStrength.name}</dt>
         <dd className="tabular">
-          {f(c.couplingStrength, 2)}
+          {formatMetricValue(BASE_METRIC_INFO.couplingStrength, c.couplingStrength)}
         </dd>
-        <dt className="text-ink-soft">Mean relative phase</dt>
+        <dt className="text-ink-soft">{BASE_METRIC_INFO.meanRelativePhaseDeg.name}</dt>
         <dd className="tabular" data-testid="relative-phase">
           {hasPhase ? (
             `${c.meanRelativePhaseDeg!.toFixed(0)}° (R = ${c.couplingStrength!.toFixed(2)}${typeof c.circularSdDeg === "number" ? `, circular SD ${c.circularSdDeg.toFixed(0)}°` : ""})`
