@@ -7,13 +7,14 @@
 // and the median ratio of their times is printed. Figures are printed, never asserted; the
 // machine may be shared, so the load average is printed too.
 import { spawnSync } from "node:child_process";
-import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { closeSync, existsSync, mkdtempSync, openSync, readdirSync, readFileSync, readSync, rmSync, statSync, writeFileSync } from "node:fs";
 import { loadavg, tmpdir } from "node:os";
 import { dirname, join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
 import { analyze } from "../src/analyze";
 import { readSensorCsv } from "../src/io/read-sensor-csv";
 import { readSensorCsvBytes } from "../src/io/read-sensor-csv-bytes";
+import { readSensorCsvChunks } from "../src/io/read-sensor-csv-chunks";
 import { synthesizeSession, type SynthOptions } from "../src/synth";
 import type { SensorRecording } from "../src/types";
 import { describeTsvThroughput, measureTsvThroughput, type TsvThroughput } from "./tsv-throughput";
@@ -91,6 +92,23 @@ function measure(dir: string): void {
   };
   const bytesParseCpuS = parseBytes();
   const bytesParseWarmCpuS = Math.min(parseBytes(), parseBytes(), parseBytes());
+  // Reading and parsing as the CLI does, in 1 MiB chunks through one reused window (the files are
+  // in the page cache by now, as they are for the CLI after the generator wrote them).
+  const readChunked = (): number => {
+    const c = cpuS();
+    for (const n of names) {
+      const path = join(dir, n);
+      const fd = openSync(path, "r");
+      try {
+        readSensorCsvChunks({ size: statSync(path).size, readAt: (into, offset, length, position) => readSync(fd, into, offset, length, position) }, n);
+      } finally {
+        closeSync(fd);
+      }
+    }
+    return cpuS() - c;
+  };
+  const chunkedReadParseCpuS = readChunked();
+  const chunkedReadParseWarmCpuS = Math.min(readChunked(), readChunked(), readChunked());
   // The same recordings as one BIDS Motion set (last: it changes none of the figures above).
   const tsv = measureTsvThroughput(buffers.map((b, i) => readSensorCsvBytes(b, names[i]!)));
   process.stdout.write(
@@ -112,6 +130,8 @@ function measure(dir: string): void {
       csvBytes,
       bytesParseCpuS,
       bytesParseWarmCpuS,
+      chunkedReadParseCpuS,
+      chunkedReadParseWarmCpuS,
       ...tsv,
       cadence: analysis.metrics.cadenceStepsPerMin,
     }),
@@ -248,7 +268,8 @@ function main(): void {
       ]);
       parseLines.push(
         `${minutes} min, ${mb(m.csvBytes!)} MB of CSV: text reader ${mbPerS(m.csvBytes!, m.parseCpuS!)} MB/s (after decoding the files to strings); ` +
-          `byte reader ${mbPerS(m.csvBytes!, m.bytesParseCpuS!)} MB/s first run, ${mbPerS(m.csvBytes!, m.bytesParseWarmCpuS!)} MB/s warm (best of 3).`,
+          `byte reader ${mbPerS(m.csvBytes!, m.bytesParseCpuS!)} MB/s first run, ${mbPerS(m.csvBytes!, m.bytesParseWarmCpuS!)} MB/s warm (best of 3); ` +
+          `chunked reader as in the CLI, reading included: ${mbPerS(m.csvBytes!, m.chunkedReadParseCpuS!)} MB/s first run, ${mbPerS(m.csvBytes!, m.chunkedReadParseWarmCpuS!)} MB/s warm.`,
       );
       parseLines.push(`${minutes} min, ${describeTsvThroughput(m as unknown as TsvThroughput)}`);
       processLines.push(...wholeProcessComparison(dir, minutes));
