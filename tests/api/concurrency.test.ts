@@ -85,7 +85,8 @@ describe("50 concurrent uploads from 10 patients", () => {
     expect(after).toEqual({
       sessions: before.sessions + uniqueKeys,
       files: before.files + uniqueKeys * PLACEMENTS.length,
-      objects: before.objects + uniqueKeys * PLACEMENTS.length,
+      // Each session's files and, beside them, its parsed recordings (uploads/parsed-recordings.ts).
+      objects: before.objects + uniqueKeys * (PLACEMENTS.length + 1),
     });
     const perPatient = await ctx.db("walk_sessions").whereIn("id", ids).groupBy("patient_id").select("patient_id").count<{ patient_id: string; n: string }[]>({ n: "*" });
     expect(perPatient.map((r) => Number(r.n))).toEqual(Array(PATIENTS).fill(SESSIONS_EACH));

@@ -158,7 +158,8 @@ describe("a server restarted in the middle of an upload", () => {
     const retry = await request(`http://127.0.0.1:${port}`).post("/api/sessions").set("Authorization", `Bearer ${token}`).set("Content-Type", contentType).send(body);
     expect(retry.status).toBe(202);
     const id = retry.body.id as string;
-    expect(await storedCounts(ctx)).toEqual({ sessions: before.sessions + 1, files: before.files + 4, objects: before.objects + 4 });
+    // Four files and their parsed recordings (uploads/parsed-recordings.ts).
+    expect(await storedCounts(ctx)).toEqual({ sessions: before.sessions + 1, files: before.files + 4, objects: before.objects + 5 });
     const rows = await ctx.db("raw_files").where({ session_id: id }).select("original_name", "size_bytes", "placement");
     expect(rows.map((r) => r.original_name).sort()).toEqual(files.map((f) => f.fileName).sort());
     for (const f of files) expect(Number(rows.find((r) => r.original_name === f.fileName)!.size_bytes)).toBe(Buffer.byteLength(f.text));
