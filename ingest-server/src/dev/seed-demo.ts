@@ -20,7 +20,7 @@ import type { AppDeps } from "../deps";
 import type { AuthContext } from "../middleware/authenticate";
 import { processSession } from "../processing/process-session";
 import type { JobQueue } from "../queue/queue";
-import { insertConsentEvent } from "../routes/consent/consent.service";
+import { insertConsentEvent } from "../routes/consent/consent.repository";
 import { uploadSession } from "../routes/sessions/upload.service";
 import { enrolDemoStaff } from "./demo-second-factor";
 import { withUploadFiles } from "../uploads/temp-files";

@@ -18,7 +18,7 @@ import { sealSecret } from "../auth/secret-box";
 import { newTotpSecret, totpCode, totpStep, TOTP_PERIOD_S } from "../auth/totp";
 import { S3_FAKE_CREDENTIALS, startS3Fake } from "../dev/s3-fake";
 import { startSmtpFake, type SmtpFake } from "../dev/smtp-fake";
-import { insertConsentEvent } from "../routes/consent/consent.service";
+import { insertConsentEvent } from "../routes/consent/consent.repository";
 import { createRuntime } from "../runtime";
 
 export interface PatientSeed {

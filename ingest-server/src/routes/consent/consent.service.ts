@@ -6,7 +6,8 @@ import type { ConsentState, RecordConsentRequest } from "../../contracts/consent
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
-import { consentEventCounts, consentPeriods, type ConsentKind, type ConsentRecorderRole } from "../../research/consent-periods";
+import { consentEventCounts, consentPeriods, type ConsentRecorderRole } from "../../research/consent-periods";
+import { consentEventsOf, insertConsentEvent, lockAndCountRecentProposals, type ConsentEventRow } from "./consent.repository";
 
 /**
  * How many research-consent proposals ("given" recorded by a clinician, with an invitation or on
@@ -17,27 +18,7 @@ import { consentEventCounts, consentPeriods, type ConsentKind, type ConsentRecor
 export const CONSENT_PROPOSALS_PER_DAY = 5;
 const MIN_STAFF_REASON = 10;
 
-interface ConsentEventRow {
-  id: string;
-  patient_id: string;
-  kind: ConsentKind;
-  recorded_by: string | null;
-  recorder_role: ConsentRecorderRole;
-  reason: string | null;
-  counts: boolean;
-  at: Date;
-  recorder_name: string | null;
-}
-
-export async function consentEventsOf(db: Knex, patientId: string): Promise<ConsentEventRow[]> {
-  return db("consent_events as e")
-    .leftJoin("users as u", "u.id", "e.recorded_by")
-    .where("e.patient_id", patientId)
-    .orderBy([{ column: "e.at" }, { column: "e.seq" }])
-    .select("e.id", "e.patient_id", "e.kind", "e.recorded_by", "e.recorder_role", "e.reason", "e.counts", "e.at", "u.display_name as recorder_name");
-}
-
-export function toConsentState(patientId: string, rows: readonly ConsentEventRow[]): ConsentState {
+function toConsentState(patientId: string, rows: readonly ConsentEventRow[]): ConsentState {
   const events = rows.map((r) => ({ ...r, at: new Date(r.at) }));
   const periods = consentPeriods(events);
   const last = periods.at(-1);
@@ -62,44 +43,13 @@ export function toConsentState(patientId: string, rows: readonly ConsentEventRow
   };
 }
 
-export interface NewConsentEvent {
-  patientId: string;
-  kind: ConsentKind;
-  recorderRole: ConsentRecorderRole;
-  recordedBy: string | null;
-  reason?: string | null;
-  /** Database clock when absent; only the demo seed and fixtures date an event. */
-  at?: Date;
-}
-
-/** Inserts one event; whether it counts follows from kind and recorder (the database checks the same rule). */
-export async function insertConsentEvent(db: Knex, e: NewConsentEvent): Promise<string> {
-  const [row] = await db("consent_events")
-    .insert({
-      patient_id: e.patientId,
-      kind: e.kind,
-      recorded_by: e.recordedBy,
-      recorder_role: e.recorderRole,
-      reason: e.reason ?? null,
-      counts: consentEventCounts(e.kind, e.recorderRole),
-      ...(e.at ? { at: e.at } : {}),
-    })
-    .returning("id");
-  return row.id as string;
-}
-
 /**
  * Refuses a clinician's proposal beyond CONSENT_PROPOSALS_PER_DAY (429) and audits the refusal
  * outside the transaction, so it survives the rollback. Serialised per clinician by an advisory
  * lock, so parallel requests cannot all slip under the limit.
  */
-export async function assertProposalQuota(auditDb: Knex, trx: Knex, req: Request, clinicianId: string): Promise<void> {
-  await trx.raw("SELECT pg_advisory_xact_lock(hashtext(?))", [`consent-proposals:${clinicianId}`]);
-  const row = await trx("consent_events")
-    .where({ recorded_by: clinicianId, recorder_role: "clinician", kind: "given" })
-    .andWhere("at", ">", trx.raw("now() - interval '24 hours'"))
-    .count<{ n: string }[]>({ n: "*" });
-  const n = Number(row[0]?.n ?? 0);
+async function assertProposalQuota(auditDb: Knex, trx: Knex, req: Request, clinicianId: string): Promise<void> {
+  const n = await lockAndCountRecentProposals(trx, clinicianId);
   if (n >= CONSENT_PROPOSALS_PER_DAY) {
     await audit(auditDb, req, { action: "consent.proposal_rate_limited", resourceType: "consent", details: { proposalsLast24h: n, limit: CONSENT_PROPOSALS_PER_DAY } });
     throw new HttpError(
