@@ -1,5 +1,5 @@
 import type { Analysis, ArmLegCoupling } from "@pendula/signal";
-import { BASE_METRIC_INFO, formatMetricValue, metricDefinition, type MetricKey } from "@pendula/ingest-server/contracts";
+import { BASE_METRIC_INFO, formatMetricValue, METRICS, metricDefinition, type MetricFamily, type MetricKey } from "@pendula/ingest-server/contracts";
 import { formatNumber } from "@/lib/format";
 
 export type MetricCounts = Record<string, { n: number; countNoun: string }>;
@@ -59,6 +59,35 @@ const sides = (left: MetricKey, right: MetricKey, v: { left: number | null; righ
   counts: [countText(counts, left), countText(counts, right)],
 });
 
+/**
+ * Metrics this grid places itself or leaves out on purpose: step time and swing % per side are read
+ * stride by stride in the strides table, and DFA alpha needs more strides than a weekly walk
+ * usually has (it stays in the research export).
+ */
+const PLACED = new Set<MetricKey>([
+  "walkingSpeedMPerS",
+  "strideLengthM",
+  "cadenceStepsPerMin",
+  "strideTimeMeanS",
+  "strideTimeCvPct",
+  "swingTimeCvPctLeft",
+  "swingTimeCvPctRight",
+  "stancePctLeft",
+  "stancePctRight",
+  "doubleSupportPct",
+  "stepTimeAsymmetryPct",
+  "gaitAsymmetryPct",
+  "phaseCoordinationIndexPct",
+  "steadyStrideCount",
+  "stepTimeMeanSLeft",
+  "stepTimeMeanSRight",
+  "swingPctLeft",
+  "swingPctRight",
+  "dfaAlpha",
+]);
+/** Shown in the arm swing summary and the coupling cards. */
+const ARM_FAMILIES = new Set<MetricFamily>(["arm-swing", "arm-leg-coordination"]);
+
 /** Spatio-temporal measures of the steady strides, each with the count it rests on. */
 export function MetricsGrid({ a, counts }: { a: Analysis; counts?: MetricCounts }) {
   const m = a.metrics;
@@ -76,6 +105,8 @@ export function MetricsGrid({ a, counts }: { a: Analysis; counts?: MetricCounts 
     one("phaseCoordinationIndexPct", m.phaseCoordinationIndexPct, counts),
     // The count of steady strides is itself the count; no "n =" under it.
     { label: entry("steadyStrideCount").shortLabel, value: value("steadyStrideCount", m.steadyStrideCount) },
+    // Any other catalogue metric of the legs (a newly added one, say) follows, read by its own accessor.
+    ...METRICS.filter((d) => !PLACED.has(d.key) && !ARM_FAMILIES.has(d.family)).map((d) => one(d.key, d.read(m), counts)),
   ];
   return <Grid items={items} label="Gait measures" />;
 }
