@@ -197,6 +197,7 @@ function readRows(
       const lineEnd = end > pos && bytes[end - 1] === 13 ? end - 1 : end;
       if (isSpacesAndTabs(bytes, pos, lineEnd)) {
         pos = end + 1;
+        state.lineNo = lineNo;
         continue;
       }
       const line = UTF8.decode(bytes.subarray(pos, lineEnd));
@@ -223,10 +224,12 @@ function readRows(
     }
     count++;
     pos = end + 1;
+    // Stored row by row, not after the loop: a store there has no type feedback when the engine
+    // compiles the running loop, so the compiled code would be thrown away at the end of every chunk.
+    state.lineNo = lineNo;
+    state.count = count;
+    state.prevT = prevT;
   }
-  state.lineNo = lineNo;
-  state.count = count;
-  state.prevT = prevT;
   return pos;
 }
 
