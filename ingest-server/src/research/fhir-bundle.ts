@@ -1,4 +1,4 @@
-import { METRICS, metricDefinition } from "../metrics/metric-catalog";
+import { METRICS, metricDefinition } from "../contracts/metric-catalog";
 
 /**
  * FHIR R4 export: one Bundle (type "collection") holding our local CodeSystem and one Observation
@@ -64,7 +64,7 @@ export function metricCodeSystem(keys: readonly string[]) {
     title: "Pendula gait and interlimb-coordination metrics",
     concept: [
       { code: SESSION_PANEL_CODE, display: "Home walking test gait metrics" },
-      ...keys.map((key) => ({ code: key, display: metricDefinition(key)?.label ?? key })),
+      ...keys.map((key) => ({ code: metricDefinition(key)?.fhirCode ?? key, display: metricDefinition(key)?.label ?? key })),
     ],
   };
 }
@@ -80,7 +80,7 @@ export function sessionObservation(row: ResearchSessionRow, keys: readonly strin
         ...(typeof n === "number"
           ? { extension: [{ url: EXT_COUNT, valueQuantity: { value: n, unit: def.countNoun, system: UCUM, code: `{${def.countNoun.replace(/ /g, "_")}}` } }] }
           : {}),
-        code: { coding: [{ system: METRIC_CODE_SYSTEM, code: key, display: def.label }] },
+        code: { coding: [{ system: METRIC_CODE_SYSTEM, code: def.fhirCode, display: def.label }] },
         valueQuantity: { value, unit: UNIT_DISPLAY[def.unit] ?? def.unit, system: UCUM, code: def.unit },
       },
     ];

@@ -9,12 +9,18 @@ import {
 } from "@tanstack/react-table";
 import { useMemo, useRef, useState, type ReactNode } from "react";
 import { Link } from "react-router-dom";
+import { labelWithUnit, metricDefinition } from "@pendula/ingest-server/contracts";
 import { IconAlert, IconCheck, IconInfo, IconSearch, IconSort, IconWave } from "@/components/icons";
 import { Badge, EmptyState, SelectField, TextField } from "@/components/ui";
 import type { BadgeTone } from "@/components/ui/badge";
 import { conditionLabel } from "@/lib/condition-labels";
 import { formatDateTime, formatNumber, formatPercent } from "@/lib/format";
 import { orderedFlags, flagRank, type CaseloadRow, type NamedFlag } from "../api/get-caseload";
+
+// The latest values the caseload shows, named and rounded by the metric catalogue.
+const SPEED = metricDefinition("walkingSpeedMPerS")!;
+const CADENCE = metricDefinition("cadenceStepsPerMin")!;
+const PCI = metricDefinition("phaseCoordinationIndexPct")!;
 
 const col = createColumnHelper<CaseloadRow>();
 
@@ -128,21 +134,22 @@ export function CaseloadTable({ rows }: { rows: CaseloadRow[] }) {
       }),
       col.accessor((r) => r.latest?.walkingSpeedMPerS ?? null, {
         id: "speed",
-        header: "Walking speed (m/s)",
+        header: labelWithUnit(SPEED),
         sortingFn: (a, b) => nullsLast(a.getValue("speed"), b.getValue("speed")),
-        cell: (c) => <span className="tabular">{formatNumber(c.getValue(), 2)}</span>,
+        cell: (c) => <span className="tabular">{formatNumber(c.getValue(), SPEED.decimals)}</span>,
       }),
       col.accessor((r) => r.latest?.cadenceStepsPerMin ?? null, {
         id: "cadence",
-        header: "Cadence (steps/min)",
+        header: labelWithUnit(CADENCE),
         sortingFn: (a, b) => nullsLast(a.getValue("cadence"), b.getValue("cadence")),
-        cell: (c) => <span className="tabular">{formatNumber(c.getValue(), 1)}</span>,
+        cell: (c) => <span className="tabular">{formatNumber(c.getValue(), CADENCE.decimals)}</span>,
       }),
       col.accessor((r) => r.latest?.phaseCoordinationIndexPct ?? null, {
         id: "pci",
-        header: "PCI (%)",
+        // The short name: the column is narrow.
+        header: labelWithUnit({ label: PCI.shortLabel, unitText: PCI.unitText }),
         sortingFn: (a, b) => nullsLast(a.getValue("pci"), b.getValue("pci")),
-        cell: (c) => <span className="tabular">{formatNumber(c.getValue(), 1)}</span>,
+        cell: (c) => <span className="tabular">{formatNumber(c.getValue(), PCI.decimals)}</span>,
       }),
     ];
   }, []);
