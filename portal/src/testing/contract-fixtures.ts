@@ -3,20 +3,29 @@ import {
   assignmentView,
   deviceView,
   meResponse,
+  patientDetail,
   patientIdentity,
+  patientSessions,
   patientSummary,
   sessionDetail,
   sessionSummary,
   tokenResponse,
+  trendsResponse,
   type AssignmentView,
+  type CoordinationEvent,
   type DeviceView,
   type MeResponse,
+  type PatientDetail,
   type PatientIdentity,
   type PatientSummary,
   type Role,
   type SessionDetail,
   type SessionSummary,
   type TokenResponse,
+  type TrendBand,
+  type TrendMetric,
+  type TrendPoint,
+  type TrendsResponse,
 } from "@pendula/ingest-server/contracts";
 
 // Server answers for component tests, built complete and checked against the server's own contract
@@ -93,6 +102,10 @@ export function patientIdentityFixture(over: Partial<PatientIdentity> = {}): Pat
 }
 
 /** `latest` may be given in part; the columns left out are null (no value yet). */
+export function patientDetailFixture(over: Partial<PatientDetail> = {}): PatientDetail {
+  return conforming(patientDetail, { ...patientIdentityFixture(), ...over });
+}
+
 export function patientSummaryFixture(
   over: Omit<Partial<PatientSummary>, "latest"> & { latest?: Partial<PatientSummary["latest"]> } = {},
 ): PatientSummary {
@@ -127,6 +140,59 @@ export function sessionSummaryFixture(over: Partial<SessionSummary> = {}): Sessi
   });
 }
 
+/** One page of GET /api/patients/:id/sessions holding these sessions. */
+export function sessionPageFixture(items: Array<Partial<SessionSummary>>) {
+  return conforming(patientSessions, { items: items.map((i) => sessionSummaryFixture(i)), total: items.length, limit: 500, offset: 0 });
+}
+
 export function sessionDetailFixture(over: Partial<SessionDetail> = {}): SessionDetail {
   return conforming(sessionDetail, { ...sessionSummaryFixture(), files: [], ...over });
+}
+
+type PointIn = Pick<TrendPoint, "sessionId" | "recordedAt" | "value"> & Partial<TrendPoint>;
+type BandIn = Pick<TrendBand, "low" | "high" | "label"> & Omit<Partial<TrendBand>, "population"> & { population?: Partial<TrendBand["population"]> };
+export type MetricIn = Pick<TrendMetric, "key" | "unit"> &
+  Omit<Partial<TrendMetric>, "points" | "bands" | "mdc"> & {
+    points: PointIn[];
+    bands?: BandIn[];
+    mdc?: (Pick<NonNullable<TrendMetric["mdc"]>, "value" | "source"> & Partial<NonNullable<TrendMetric["mdc"]>>) | null;
+  };
+type EventIn = Pick<CoordinationEvent, "kind" | "sessionId" | "recordedAt" | "message"> & Partial<CoordinationEvent>;
+
+/**
+ * A trends answer from the fields a test cares about; the rest take the values the server sends
+ * when there is nothing to say (no count, no baseline or MDC yet, no band, no event).
+ */
+export function trendsFixture(over: { patientId: string; metrics: MetricIn[]; events?: EventIn[]; cautions?: string[] }): TrendsResponse {
+  return conforming(trendsResponse, {
+    patientId: over.patientId,
+    metrics: over.metrics.map(({ points, bands = [], mdc = null, ...m }) => ({
+      baseline: null,
+      slopeFlag: null,
+      direction: null,
+      bandNote: null,
+      importantChange: null,
+      ...m,
+      mdc: mdc && { citation: "", sem: mdc.value / 2.772, basis: "", ...mdc },
+      points: points.map((p) => ({ n: null, walkingAid: null, ...p })),
+      bands: bands.map(({ population, ...b }, i) => ({
+        id: `band-${i}`,
+        citation: "",
+        walkingCondition: "",
+        measurementSystem: "",
+        publishedValue: "",
+        derivation: "",
+        location: "",
+        ...b,
+        population: { description: "", role: "healthy-comparison" as const, ageLimitsBasis: "source" as const, ...population },
+      })),
+    })),
+    events: (over.events ?? []).map((e) => ({ metricKey: "", from: 0, to: 0, ...e })),
+    cautions: over.cautions ?? [],
+  });
+}
+
+/** One metric of a trends answer, completed as trendsFixture does. */
+export function trendMetricFixture(metric: MetricIn): TrendMetric {
+  return trendsFixture({ patientId: testUuid(1, "7d1c2a3b"), metrics: [metric] }).metrics[0]!;
 }

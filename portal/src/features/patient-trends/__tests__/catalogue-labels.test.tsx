@@ -1,6 +1,7 @@
 import { screen } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { METRIC_CHARTS, METRICS } from "@pendula/ingest-server/contracts";
+import { patientDetailFixture, sessionPageFixture, testUuid, trendsFixture } from "@/testing/contract-fixtures";
 import { mockApi } from "@/testing/mock-api";
 import { createTestQueryClient, renderWithProviders } from "@/testing/render";
 import { PatientTrendsPage } from "../components/patient-trends-page";
@@ -8,20 +9,20 @@ import { PatientTrendsPage } from "../components/patient-trends-page";
 // An invented patient with four invented weekly walks, carrying every metric of the catalogue.
 const PID = "5b7c1e93-2a4d-4f60-9e18-c3d2a6b0f475";
 const at = (i: number) => new Date(Date.UTC(2026, 9, 6 + 7 * i, 9)).toISOString();
-const points = [1, 1.1, 0.9, 1.2].map((value, i) => ({ sessionId: `w${i}`, recordedAt: at(i), value, ...(i < 3 ? { baseline: true } : {}) }));
+const points = [1, 1.1, 0.9, 1.2].map((value, i) => ({ sessionId: testUuid(i + 1, "5e550000"), recordedAt: at(i), value, ...(i < 3 ? { baseline: true } : {}) }));
 
 function server() {
   return mockApi({
-    [`GET /api/patients/${PID}`]: { body: { id: PID, displayName: "Tamsin Okonkwo-Lind", condition: "incomplete_sci" } },
-    [`GET /api/patients/${PID}/sessions`]: { body: { items: [], total: 0 } },
+    [`GET /api/patients/${PID}`]: { body: patientDetailFixture({ id: PID, displayName: "Tamsin Okonkwo-Lind", condition: "incomplete_sci" }) },
+    [`GET /api/patients/${PID}/sessions`]: { body: sessionPageFixture([]) },
     [`GET /api/patients/${PID}/trends`]: {
-      body: {
+      body: trendsFixture({
         patientId: PID,
         // A label the screen must not use: names come from the catalogue, whatever the answer carries.
         metrics: METRICS.map((m) => ({ key: m.key, unit: m.unit, label: `answer label ${m.key}`, countNoun: m.countNoun, points, bands: [] })),
         events: [],
         cautions: ["A flag or event is a prompt to look at the recording and the patient, not a diagnosis."],
-      },
+      }),
     },
   });
 }

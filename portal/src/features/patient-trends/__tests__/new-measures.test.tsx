@@ -1,5 +1,7 @@
 import { screen, waitFor, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
+import type { WalkingAid } from "@pendula/ingest-server/contracts";
+import { patientDetailFixture, sessionPageFixture, testUuid, trendsFixture } from "@/testing/contract-fixtures";
 import { mockApi } from "@/testing/mock-api";
 import { createTestQueryClient, renderWithProviders } from "@/testing/render";
 import { PatientTrendsPage } from "../components/patient-trends-page";
@@ -8,17 +10,21 @@ import { walkingAidMarkers, walkingAidRuns } from "../components/walking-aid-str
 
 const PID = "5a0c7f0e-2b9d-4b59-9d7e-6a1f3c2b9e01";
 const at = (i: number) => new Date(Date.UTC(2026, 8, 1 + 7 * i, 9)).toISOString();
-const AIDS = ["cane", "cane", "none", "none"];
+const AIDS: WalkingAid[] = ["cane", "cane", "none", "none"];
+const sid = (i: number) => testUuid(i + 1, "5e550000");
 // Invented speeds (m/s) over four weeks; the strides behind each value as the worker stores them.
-const speed = [0.62, 0.66, 0.74, 0.81].map((v, i) => ({ sessionId: `s${i}`, recordedAt: at(i), value: v, n: 30 + i, walkingAid: AIDS[i] }));
-const sessions = AIDS.map((aid, i) => ({ id: `s${i}`, status: "done", recordedAt: at(i), walkingSpeedMPerS: speed[i]!.value, cadenceStepsPerMin: 90 + i, walkingAid: aid }));
+const speed = [0.62, 0.66, 0.74, 0.81].map((v, i) => ({ sessionId: sid(i), recordedAt: at(i), value: v, n: 30 + i, walkingAid: AIDS[i]! }));
+const sessionPage = sessionPageFixture(
+  AIDS.map((aid, i) => ({ id: sid(i), patientId: PID, status: "done", recordedAt: at(i), walkingSpeedMPerS: speed[i]!.value, cadenceStepsPerMin: 90 + i, walkingAid: aid })),
+);
+const sessions = sessionPage.items;
 
 function server(extra: Parameters<typeof mockApi>[0] = {}) {
   return mockApi({
-    [`GET /api/patients/${PID}`]: { body: { id: PID, displayName: "Odile Marchetti", condition: "stroke", heightCm: null } },
-    [`GET /api/patients/${PID}/sessions`]: { body: { items: sessions, total: 4 } },
+    [`GET /api/patients/${PID}`]: { body: patientDetailFixture({ id: PID, displayName: "Odile Marchetti", condition: "stroke", heightCm: null }) },
+    [`GET /api/patients/${PID}/sessions`]: { body: sessionPage },
     [`GET /api/patients/${PID}/trends`]: {
-      body: {
+      body: trendsFixture({
         patientId: PID,
         metrics: [
           { key: "walkingSpeedMPerS", unit: "m/s", label: "Walking speed", countNoun: "strides", points: speed },
@@ -26,7 +32,7 @@ function server(extra: Parameters<typeof mockApi>[0] = {}) {
           { key: "armSwingAmplitudeDegLeft", unit: "deg", label: "Arm swing amplitude, left", countNoun: "arm cycles", points: speed.map((p) => ({ ...p, value: 20, n: 25 })) },
           { key: "armSwingAmplitudeDegRight", unit: "deg", label: "Arm swing amplitude, right", countNoun: "arm cycles", points: speed.map((p) => ({ ...p, value: 14, n: 25 })) },
         ],
-      },
+      }),
     },
     ...extra,
   });
@@ -53,13 +59,13 @@ describe("new measures on the patient's trends", () => {
   it("draws no relative phase even when the server sends one", async () => {
     server({
       [`GET /api/patients/${PID}/trends`]: {
-        body: {
+        body: trendsFixture({
           patientId: PID,
           metrics: [
             { key: "walkingSpeedMPerS", unit: "m/s", points: speed },
             { key: "armLegLeftArmRightLegMeanRelativePhaseDeg", unit: "deg", label: "Left arm–right leg mean relative phase", points: speed.map((p) => ({ ...p, value: -25 })) },
           ],
-        },
+        }),
       },
     });
     const { container } = renderWithProviders(<PatientTrendsPage patientId={PID} />, { queryClient: createTestQueryClient() });
@@ -94,13 +100,13 @@ describe("new measures on the patient's trends", () => {
     const { default: userEvent } = await import("@testing-library/user-event");
     const reprocessed: string[] = [];
     const api = server({
-      [`PATCH /api/patients/${PID}`]: { body: { id: PID, displayName: "Odile Marchetti", heightCm: 168.5 } },
+      [`PATCH /api/patients/${PID}`]: { body: patientDetailFixture({ id: PID, displayName: "Odile Marchetti", condition: "stroke", heightCm: 168.5 }) },
       ...Object.fromEntries(
         sessions.map((s) => [
           `POST /api/sessions/${s.id}/reprocess`,
           () => {
             reprocessed.push(s.id);
-            return { status: 202, body: { id: "00000000-0000-4000-8000-00000000000" + s.id.slice(1), status: "queued" } };
+            return { status: 202, body: { id: s.id, status: "queued" } };
           },
         ]),
       ),
@@ -113,7 +119,7 @@ describe("new measures on the patient's trends", () => {
     expect(await screen.findByText(/Height saved\. The 4 sessions analysed before keep their results until reprocessed\./)).toBeTruthy();
     await user.click(screen.getByRole("button", { name: "Reprocess the 4 sessions with this height" }));
     expect(await screen.findByText("4 sessions queued; the values update when processing ends.")).toBeTruthy();
-    expect(reprocessed).toEqual(["s0", "s1", "s2", "s3"]);
+    expect(reprocessed).toEqual([sid(0), sid(1), sid(2), sid(3)]);
   });
 
   it("refuses a height outside 100–230 cm or not a number beside the field, before sending it (same contract as the server)", async () => {

@@ -1,5 +1,6 @@
 import { screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
+import { patientDetailFixture, sessionPageFixture, testUuid, trendMetricFixture, trendsFixture } from "@/testing/contract-fixtures";
 import { mockApi } from "@/testing/mock-api";
 import { createTestQueryClient, renderWithProviders } from "@/testing/render";
 import { PatientTrendsPage, sharedDomain } from "../components/patient-trends-page";
@@ -7,15 +8,17 @@ import { metricDefinition } from "@pendula/ingest-server/contracts";
 
 const PID = "5a0c7f0e-2b9d-4b59-9d7e-6a1f3c2b9e01";
 const FRENKEL = "Frenkel-Toledo et al. 2005, J NeuroEng Rehabil 2:23, Table 2 (overground, comfortable speed)";
-const pts = (values: number[], flags: Record<number, string> = {}) =>
-  values.map((v, i) => ({ sessionId: `s${i}`, recordedAt: new Date(Date.UTC(2026, 8, 1 + 7 * i)).toISOString(), value: v, ...(flags[i] ? { flag: flags[i] } : {}) }));
+type Flag = "improved" | "worsened" | "within-error";
+const sid = (i: number) => testUuid(i + 1, "5e550000");
+const pts = (values: number[], flags: Record<number, Flag> = {}) =>
+  values.map((v, i) => ({ sessionId: sid(i), recordedAt: new Date(Date.UTC(2026, 8, 1 + 7 * i)).toISOString(), value: v, n: null, walkingAid: null, ...(flags[i] ? { flag: flags[i] } : {}) }));
 
 function server() {
   return mockApi({
-    [`GET /api/patients/${PID}`]: { body: { id: PID, displayName: "Odile Marchetti", condition: "parkinsons", enrolledOn: "2026-08-25" } },
-    [`GET /api/patients/${PID}/sessions`]: { body: { items: [], total: 0 } },
+    [`GET /api/patients/${PID}`]: { body: patientDetailFixture({ id: PID, displayName: "Odile Marchetti", condition: "parkinsons", enrolledOn: "2026-08-25" }) },
+    [`GET /api/patients/${PID}/sessions`]: { body: sessionPageFixture([]) },
     [`GET /api/patients/${PID}/trends`]: {
-      body: {
+      body: trendsFixture({
         patientId: PID,
         metrics: [
           { key: "cadenceStepsPerMin", unit: "steps/min", points: pts([98, 99, 97, 104, 106], { 3: "within-error", 4: "improved" }), bands: [] },
@@ -41,16 +44,16 @@ function server() {
                 population: { description: "healthy older adults, the age-matched controls of a Parkinson's disease study (n = 30)" },
                 walkingCondition: "overground, comfortable walking speed",
               },
-              { low: 1.5, high: 2.98, label: "Parkinson's disease group, mean ± 1 SD (2.24 ± 0.74 %)", citation: FRENKEL, confirmed: true },
+              { low: 1.5, high: 2.98, label: "Parkinson's disease group, mean ± 1 SD (2.24 ± 0.74 %)", citation: FRENKEL },
             ],
-            mdc: { value: 0.9, source: "patient-baseline", citation: "", confirmed: false },
+            mdc: { value: 0.9, source: "patient-baseline", citation: "" },
           },
           { key: "stancePctLeft", unit: "%", points: pts([62, 63, 61]) },
           { key: "armLegLeftArmRightLegFrequencyRatio", unit: "1", points: pts([2, 2, 1, 1]) },
         ],
-        events: [{ kind: "arm-leg-mode-change", sessionId: "s2", recordedAt: pts([0, 0, 0])[2]!.recordedAt, metricKey: "armLegLeftArmRightLegFrequencyRatio", from: 2, to: 1, message: "Left arm–right leg locking changed from 2:1 to 1:1" }],
+        events: [{ kind: "arm-leg-mode-change", sessionId: sid(2), recordedAt: pts([0, 0, 0])[2]!.recordedAt, metricKey: "armLegLeftArmRightLegFrequencyRatio", from: 2, to: 1, message: "Left arm–right leg locking changed from 2:1 to 1:1" }],
         cautions: ["A flag or event is a prompt to look at the recording and the patient, not a diagnosis."],
-      },
+      }),
     },
   });
 }
@@ -91,9 +94,9 @@ describe("patient trend charts", () => {
 
   it("shows an empty state when nothing has been measured", async () => {
     mockApi({
-      [`GET /api/patients/${PID}`]: { body: { id: PID, displayName: "Wren Castellanos" } },
-      [`GET /api/patients/${PID}/sessions`]: { body: { items: [], total: 0 } },
-      [`GET /api/patients/${PID}/trends`]: { body: { patientId: PID, metrics: [] } },
+      [`GET /api/patients/${PID}`]: { body: patientDetailFixture({ id: PID, displayName: "Wren Castellanos" }) },
+      [`GET /api/patients/${PID}/sessions`]: { body: sessionPageFixture([]) },
+      [`GET /api/patients/${PID}/trends`]: { body: trendsFixture({ patientId: PID, metrics: [] }) },
     });
     renderWithProviders(<PatientTrendsPage patientId={PID} />);
     expect(await screen.findByText("No measured sessions yet")).toBeTruthy();
@@ -118,7 +121,7 @@ describe("metric families and the shared time axis", () => {
   );
 
   it("spans every point and marker", () => {
-    const d = sharedDomain([{ key: "k", unit: "", points: pts([1, 2]) }], [{ t: new Date(Date.UTC(2026, 9, 1)), glyph: "N", label: "n" }])!;
+    const d = sharedDomain([trendMetricFixture({ key: "k", unit: "", points: pts([1, 2]) })], [{ t: new Date(Date.UTC(2026, 9, 1)), glyph: "N", label: "n" }])!;
     expect(d[0].getTime()).toBeLessThan(Date.UTC(2026, 8, 1));
     expect(d[1].getTime()).toBeGreaterThan(Date.UTC(2026, 9, 1));
   });

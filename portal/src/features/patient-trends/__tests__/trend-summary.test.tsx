@@ -1,5 +1,7 @@
 import { screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
+import { patientDetailFixture, sessionPageFixture, testUuid, trendMetricFixture, trendsFixture } from "@/testing/contract-fixtures";
+import type { WalkingAid } from "@pendula/ingest-server/contracts";
 import { mockApi } from "@/testing/mock-api";
 import { createTestQueryClient, renderWithProviders } from "@/testing/render";
 import { PatientTrendsPage } from "../components/patient-trends-page";
@@ -17,10 +19,11 @@ const CONTROL_BAND = { low: 1.94 - 0.36, high: 1.94 + 0.36, label: "Control grou
 const PD_BAND = { low: 2.24 - 0.74, high: 2.24 + 0.74, label: "Parkinson's disease group, mean ± 1 SD (2.24 ± 0.74 %)", citation: FRENKEL };
 
 type Pt = Record<string, unknown>;
+const sid = (i: number) => testUuid(i + 1, "5e550000");
 /** Points as the trends route sends them: the first three sessions form the baseline. */
 const series = (values: number[], last: Pt = {}, each: (i: number) => Pt = () => ({})) =>
   values.map((v, i) => ({
-    sessionId: `s${i}`,
+    sessionId: sid(i),
     recordedAt: at(i),
     value: v,
     ...(i < 3 ? { baseline: true } : {}),
@@ -28,14 +31,14 @@ const series = (values: number[], last: Pt = {}, each: (i: number) => Pt = () =>
     ...(i === values.length - 1 ? last : {}),
   }));
 
-const AIDS = ["cane", "cane", "cane", "none"];
+const AIDS: WalkingAid[] = ["cane", "cane", "cane", "none"];
 const mean3 = (v: number[]) => (v[0]! + v[1]! + v[2]!) / 3;
 const SPEED = [0.62, 0.66, 0.74, 0.81];
 const CV = [2.1, 2.3, 2.2, 3.4];
 
 function trendsBody(overrides: { rightCouplingLast?: boolean } = {}) {
   const rightR = [0.3, 0.25, 0.2, 0.12];
-  return {
+  return trendsFixture({
     patientId: PID,
     metrics: [
       {
@@ -131,14 +134,14 @@ function trendsBody(overrides: { rightCouplingLast?: boolean } = {}) {
     ],
     events: [],
     cautions: ["A flag or event is a prompt to look at the recording and the patient, not a diagnosis."],
-  };
+  });
 }
 
 function server(body = trendsBody()) {
   return mockApi({
-    [`GET /api/patients/${PID}`]: { body: { id: PID, displayName: "Ilse Varga-Moreau", condition: "stroke", heightCm: 171 } },
+    [`GET /api/patients/${PID}`]: { body: patientDetailFixture({ id: PID, displayName: "Ilse Varga-Moreau", condition: "stroke", heightCm: 171 }) },
     [`GET /api/patients/${PID}/sessions`]: {
-      body: { items: AIDS.map((aid, i) => ({ id: `s${i}`, status: "done", recordedAt: at(i), walkingAid: aid })), total: 4 },
+      body: sessionPageFixture(AIDS.map((aid, i) => ({ id: sid(i), patientId: PID, status: "done", recordedAt: at(i), walkingAid: aid }))),
     },
     [`GET /api/patients/${PID}/trends`]: { body },
   });
@@ -288,7 +291,7 @@ describe("summary rules", () => {
   );
 
   it("reads inside, above and below from the band's own limits (Frenkel-Toledo et al. 2005, Table 2)", () => {
-    const bands = [CONTROL_BAND, PD_BAND];
+    const bands = trendMetricFixture({ key: "strideTimeCvPct", unit: "%", points: [], bands: [CONTROL_BAND, PD_BAND] }).bands;
     // 1.94 % is the control mean: inside both. 1.55 % is below 1.58 and above 1.50. 2.5 % is above 2.30, inside 2.98.
     expect(bandVerdicts(1.94, bands).map((v) => v.position)).toEqual(["inside", "inside"]);
     expect(bandVerdicts(1.55, bands).map((v) => v.position)).toEqual(["below", "inside"]);
@@ -298,19 +301,20 @@ describe("summary rules", () => {
   });
 
   it("leaves out a phase when the page draws no coupling strength, and metrics with no card", () => {
-    const m = (key: string): TrendMetric => ({ key, unit: "deg", points: [{ sessionId: "s0", recordedAt: at(0), value: 10 }] });
+    const m = (key: string): TrendMetric => trendMetricFixture({ key, unit: "deg", points: [{ sessionId: sid(0), recordedAt: at(0), value: 10 }] });
     const groups = summaryGroups([m("armLegLeftArmRightLegMeanRelativePhaseDeg"), m("gaitAsymmetryPct"), m("cadenceStepsPerMin")]);
     expect(groups.map((g) => g.family.id)).toEqual(["cadence"]);
   });
 
   it("does not invent a comparison the server did not make", () => {
-    const base: TrendMetric = { key: "cadenceStepsPerMin", unit: "/min", points: [], baseline: null, mdc: null, direction: "higher-is-better" };
-    const p = (extra: Pt) => ({ sessionId: "s9", recordedAt: at(9), value: 100, ...extra });
+    const base: TrendMetric = trendMetricFixture({ key: "cadenceStepsPerMin", unit: "/min", points: [], baseline: null, mdc: null, direction: "higher-is-better" });
+    const p = (extra: Pt) => ({ sessionId: sid(9), recordedAt: at(9), value: 100, n: null, walkingAid: null, ...extra });
+    const baseline = (mean: number) => ({ mean, sd: 1, n: 3 });
     const verdict = (metric: TrendMetric) => summaryGroups([metric])[0]!.rows[0]!.change;
     expect(verdict({ ...base, points: [p({})] })).toEqual({ kind: "not-compared", reason: "no baseline yet" });
-    expect(verdict({ ...base, points: [p({ baseline: true })], baseline: { mean: 100 } })).toEqual({ kind: "not-compared", reason: "baseline session" });
-    expect(verdict({ ...base, points: [p({ excludedReason: "few-strides" })], baseline: { mean: 90 } })).toEqual({ kind: "not-compared", reason: "too few strides" });
-    expect(summaryGroups([{ ...base, points: [p({ excludedReason: "few-strides" })], baseline: { mean: 90 } }])[0]!.rows[0]!.delta).toBeNull();
-    expect(verdict({ ...base, points: [p({})], baseline: { mean: 90 } })).toEqual({ kind: "not-compared", reason: "no MDC" });
+    expect(verdict({ ...base, points: [p({ baseline: true })], baseline: baseline(100) })).toEqual({ kind: "not-compared", reason: "baseline session" });
+    expect(verdict({ ...base, points: [p({ excludedReason: "few-strides" })], baseline: baseline(90) })).toEqual({ kind: "not-compared", reason: "too few strides" });
+    expect(summaryGroups([{ ...base, points: [p({ excludedReason: "few-strides" })], baseline: baseline(90) }])[0]!.rows[0]!.delta).toBeNull();
+    expect(verdict({ ...base, points: [p({})], baseline: baseline(90) })).toEqual({ kind: "not-compared", reason: "no MDC" });
   });
 });
