@@ -13,8 +13,7 @@ import { alignLegClocks } from "./timebase/align-clocks";
 import { alignWristClocks } from "./timebase/align-wrist-clocks";
 import { type ResampledSensor, resampleToGrid } from "./timebase/resample-to-grid";
 import { sessionGrid } from "./timebase/session-grid";
-import { sessionStrideLengths } from "./spatial/session-stride-lengths";
-import { walkingSpeedFromStrides } from "./spatial/walking-speed";
+import { sessionWalkingSpeed } from "./spatial/session-walking-speed";
 import { type Analysis, type ArmLegCoupling, type Bout, type Placement, type QualityItem, type SensorRecording, type Side, SignalInputError } from "./types";
 
 /** Bumped whenever a change can alter any number in the output. */
@@ -109,23 +108,9 @@ export function analyze(recordings: readonly SensorRecording[], options: Analyze
   const steady = strides.filter((s) => s.steady);
 
   // Stride length and walking speed (spatial/): per side the foot sensor when worn, else the shank.
-  const spatial = sessionStrideLengths(
-    {
-      left: { shank: sensors.get("left_shank"), foot: sensors.get("left_foot") },
-      right: { shank: sensors.get("right_shank"), foot: sensors.get("right_foot") },
-    },
-    strides,
-    { left: legs.left?.events.finalContactsS ?? [], right: legs.right?.events.finalContactsS ?? [] },
-    boutMask,
-    { sampleRateHz: fs, heightCm: options.heightCm },
-  );
-  spatial.lengthsM.forEach((len, i) => {
-    strides[i]!.strideLengthM = len;
-  });
-  const speed = walkingSpeedFromStrides(strides, spatial.rejected, spatial.notes);
-  if (speed.walkingSpeedMPerS === null && strides.length > 0) {
-    quality.push({ code: "speed-unavailable", severity: "info", message: `walking speed and stride length not computed: ${speed.reason}` });
-  }
+  const finalContactsS = { left: legs.left?.events.finalContactsS ?? [], right: legs.right?.events.finalContactsS ?? [] };
+  const { speed, quality: speedNote } = sessionWalkingSpeed(sensors, strides, finalContactsS, boutMask, fs, options.heightCm);
+  if (speedNote) quality.push(speedNote);
 
   // PCI against the leg with the longer mean swing time; DFA over one unbroken run of strides.
   const pci = sessionPci(base.swingTimeMeanS, steady, { left: legs.left?.events.initialContactsS ?? null, right: legs.right?.events.initialContactsS ?? null });
