@@ -129,10 +129,10 @@ function splitBidsSerial(serial: string): [string, string] {
  * stored before.
  */
 export async function uploadSession(deps: AppDeps, req: Request, input: UploadInput): Promise<UploadResult> {
+  const timing = new ServerTiming();
   const patientId = resolvePatient(input.auth, input.patientId);
   await assertPatientAccess(deps.db, input.auth, patientId, "clinical");
 
-  const timing = new ServerTiming();
   const sessionId = randomUUID();
   // Keys never contain names a user chose (see ObjectStorage); the attempt's session id keeps two
   // concurrent uploads of the same bytes from ever sharing — and deleting — one object.
@@ -277,9 +277,14 @@ class StoredAttempt {
   }
 }
 
-/** W3C Server Timing (https://www.w3.org/TR/server-timing/): where an upload's time went, for clients and benchmarks. */
+/**
+ * W3C Server Timing (https://www.w3.org/TR/server-timing/): where an upload's time went, for
+ * clients and benchmarks. `total` is this handler's time, from the body on disk to the answer;
+ * the client's own total minus it is the time to receive the body.
+ */
 class ServerTiming {
   private readonly parts: Array<[string, number]> = [];
+  private readonly started = performance.now();
 
   async measure<T>(name: string, work: Promise<T>): Promise<T> {
     const t0 = performance.now();
@@ -291,6 +296,6 @@ class ServerTiming {
   }
 
   header(): string {
-    return this.parts.map(([name, ms]) => `${name};dur=${ms.toFixed(1)}`).join(", ");
+    return [...this.parts, ["total", performance.now() - this.started] as const].map(([name, ms]) => `${name};dur=${ms.toFixed(1)}`).join(", ");
   }
 }
