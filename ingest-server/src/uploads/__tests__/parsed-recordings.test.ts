@@ -150,6 +150,21 @@ describe("loadRecordings with the parsed recordings", () => {
     expect(JSON.stringify(analyze(fromParsed, { sagittalSignals: true }))).toBe(JSON.stringify(analyze(fromText, { sagittalSignals: true })));
   });
 
+  it("gives a BIDS Motion set's recordings with the clock and placements stored at upload, as reading its files does", async () => {
+    const START = "2026-11-23T09:15:00Z"; // no milliseconds: both paths must normalise it alike
+    const bids = bidsSetFromSynth(synthFor({}, { seed: 10, durationS: 30, startUtc: "2026-11-23T09:15:00.000Z", placements: ["left_shank", "right_shank"] }));
+    const bidsFiles = bids.map((f) => ({ originalName: f.fileName, buffer: Buffer.from(f.text) }));
+    const { parsed: p, bytes: b } = written(bidsFiles, { bidsStartUtc: START });
+    const placements = Object.fromEntries(p.recordings.map((r, i) => [r.deviceSerial, i === 0 ? "right_shank" : "left_shank"]));
+    const bidsRows = bids.map((f, i) => row(f.fileName, p.files[i]!.sha256, { format: "bids-motion", start_utc: new Date(p.recordings[0]!.startUtc), recording_placements: placements }));
+    const store = new Map<string, Buffer>([...bids.map((f, i): [string, Buffer] => [`k/${f.fileName}`, bidsFiles[i]!.buffer]), ["k/parsed", b]]);
+    const fromText = await loadRecordings({ storage: storage(store) } as never, bidsRows);
+    const fromParsed = await loadRecordings({ storage: storage(store) } as never, bidsRows, "k/parsed");
+    expect(fromParsed[0]!.timeS.buffer).toBe(fromParsed[1]!.timeS.buffer);
+    expect(fromParsed.map((r) => r.placement)).toEqual(["right_shank", "left_shank"]);
+    expectIdentical(fromParsed, fromText);
+  });
+
   it("reads the uploaded files when the parsed object is missing, belongs to other files, or an uploaded file is gone", async () => {
     const viaText = (r: SensorRecording[]) => r[0]!.timeS.buffer !== r[1]!.timeS.buffer;
     const withoutParsed = new Map(objects);
