@@ -20,8 +20,15 @@ import {
 } from "../../contracts/auth";
 import { idParams } from "../../contracts/common";
 import { ApiRouter, type RouteModule } from "../../http/api-router";
-import { createAuthService, type IssuedSession } from "./auth.service";
-import { createSecondFactorService } from "./second-factor.service";
+import { acceptInvitation, completeSecondFactor, confirmPasswordReset, login, logout, refreshSession, requestPasswordReset, type IssuedSession } from "./auth.service";
+import {
+  confirmEnrolment,
+  regenerateRecoveryCodes,
+  removeOwnSecondFactor,
+  resetSecondFactor,
+  readSecondFactorStatus,
+  startEnrolment,
+} from "./second-factor.service";
 
 export const REFRESH_COOKIE = "pendula_refresh";
 const PREFIX = "/api/auth";
@@ -50,8 +57,6 @@ const bodyEmail = (req: Request) => {
 
 export function authRouter(deps: AppDeps): ApiRouter {
   const { config } = deps;
-  const service = createAuthService(deps);
-  const factors = createSecondFactorService(deps, service);
   const { max, windowS } = config.loginRateLimit;
   // Failed sign-ins count per address + e-mail (one guessed account), and per address overall
   // (one client spraying many accounts).
@@ -89,7 +94,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       request: { body: loginRequest },
       response: loginResponse,
       handler: async ({ body }, req, res) => {
-        const outcome = await service.login(body.email, body.password, req);
+        const outcome = await login(deps, body.email, body.password, req);
         return outcome.kind === "session" ? answer(res, outcome.session) : outcome.body;
       },
     })
@@ -101,7 +106,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       before: [codeFailuresPerIp],
       request: { body: secondFactorLoginRequest },
       response: tokenResponse,
-      handler: async ({ body }, req, res) => answer(res, await service.completeSecondFactor(body, req)),
+      handler: async ({ body }, req, res) => answer(res, await completeSecondFactor(deps, body, req)),
     })
     .endpoint({
       method: "get",
@@ -109,7 +114,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       summary: "Whether the signed-in account has an authenticator, whether its role requires one, recovery codes left",
       access: "authenticated",
       response: secondFactorStatus,
-      handler: ({ auth }) => factors.status(auth),
+      handler: ({ auth }) => readSecondFactorStatus(deps, auth),
     })
     .endpoint({
       method: "post",
@@ -117,7 +122,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       summary: "Start (or restart) enrolment: a new secret as otpauth:// URI and base32 text, active only once confirmed",
       access: "authenticated",
       response: enrolmentStart,
-      handler: ({ auth }, req) => factors.startEnrolment(auth, req),
+      handler: ({ auth }, req) => startEnrolment(deps, auth, req),
     })
     .endpoint({
       method: "post",
@@ -128,7 +133,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       request: { body: codeRequest },
       response: enrolmentConfirmed,
       handler: async ({ auth, body }, req, res) => {
-        const { recoveryCodes, session } = await factors.confirmEnrolment(auth, body.code, cookieToken(req), req);
+        const { recoveryCodes, session } = await confirmEnrolment(deps, auth, body.code, cookieToken(req), req);
         return { recoveryCodes, session: answer(res, session) };
       },
     })
@@ -140,7 +145,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       before: [codeChecksPerUser],
       request: { body: codeRequest },
       response: recoveryCodesResponse,
-      handler: async ({ auth, body }, req) => ({ recoveryCodes: await factors.regenerateRecoveryCodes(auth, body.code, req) }),
+      handler: async ({ auth, body }, req) => ({ recoveryCodes: await regenerateRecoveryCodes(deps, auth, body.code, req) }),
     })
     .endpoint({
       method: "post",
@@ -151,7 +156,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       status: 204,
       request: { body: codeRequest },
       handler: async ({ auth, body }, req, res) => {
-        await factors.removeOwn(auth, body.code, req);
+        await removeOwnSecondFactor(deps, auth, body.code, req);
         res.status(204).end();
       },
     })
@@ -162,7 +167,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       access: { scopes: ["users:write"] },
       request: { params: idParams, body: secondFactorResetRequest },
       response: secondFactorResetResponse,
-      handler: ({ auth, params, body }, req) => factors.reset(auth, params.id, body.reason, req),
+      handler: ({ auth, params, body }, req) => resetSecondFactor(deps, auth, params.id, body.reason, req),
     })
     .endpoint({
       method: "post",
@@ -172,7 +177,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       response: tokenResponse,
       handler: async (_input, req, res) => {
         try {
-          return answer(res, await service.refresh(cookieToken(req), req));
+          return answer(res, await refreshSession(deps, cookieToken(req), req));
         } catch (err) {
           res.clearCookie(REFRESH_COOKIE, cookieBase);
           throw err;
@@ -186,7 +191,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       access: "public",
       status: 204,
       handler: async (_input, req, res) => {
-        await service.logout(cookieToken(req), req, bearerToken(req));
+        await logout(deps, cookieToken(req), req, bearerToken(req));
         res.clearCookie(REFRESH_COOKIE, cookieBase);
         res.status(204).end();
       },
@@ -199,7 +204,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       before: [tokenFailures],
       request: { body: acceptInvitationRequest },
       response: tokenResponse,
-      handler: async ({ body }, req, res) => answer(res, await service.acceptInvitation(body.token, body.password, req)),
+      handler: async ({ body }, req, res) => answer(res, await acceptInvitation(deps, body.token, body.password, req)),
     })
     .endpoint({
       method: "post",
@@ -211,7 +216,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       request: { body: passwordResetRequest },
       response: acceptedResponse,
       handler: async ({ body }, req) => {
-        await service.requestPasswordReset(body.email, req);
+        await requestPasswordReset(deps, body.email, req);
         return { status: "accepted" as const, message: "if the address has an account, a reset link is on its way" };
       },
     })
@@ -224,7 +229,7 @@ export function authRouter(deps: AppDeps): ApiRouter {
       status: 204,
       request: { body: passwordResetConfirm },
       handler: async ({ body }, req, res) => {
-        await service.confirmPasswordReset(body.token, body.password, req);
+        await confirmPasswordReset(deps, body.token, body.password, req);
         res.status(204).end();
       },
     });
