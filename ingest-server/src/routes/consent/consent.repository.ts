@@ -60,3 +60,8 @@ export async function lockAndCountRecentProposals(trx: Knex, clinicianId: string
     .count<{ n: string }[]>({ n: "*" });
   return Number(row[0]?.n ?? 0);
 }
+
+/** Serialises changes to one patient's consent until the transaction ends. */
+export async function lockPatientConsent(trx: Knex, patientId: string): Promise<void> {
+  await trx.raw("SELECT pg_advisory_xact_lock(hashtext(?))", [`consent:${patientId}`]);
+}

@@ -7,7 +7,7 @@ import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
 import { consentEventCounts, consentPeriods, type ConsentRecorderRole } from "../../research/consent-periods";
-import { consentEventsOf, insertConsentEvent, lockAndCountRecentProposals, type ConsentEventRow } from "./consent.repository";
+import { consentEventsOf, insertConsentEvent, lockAndCountRecentProposals, lockPatientConsent, type ConsentEventRow } from "./consent.repository";
 
 /**
  * How many research-consent proposals ("given" recorded by a clinician, with an invitation or on
@@ -88,7 +88,7 @@ export async function recordConsent(deps: AppDeps, req: Request, auth: AuthConte
   }
   return deps.db.transaction(async (trx) => {
     // One change at a time per patient, so the 409 checks below see the latest state.
-    await trx.raw("SELECT pg_advisory_xact_lock(hashtext(?))", [`consent:${patientId}`]);
+    await lockPatientConsent(trx, patientId);
     const before = toConsentState(patientId, await consentEventsOf(trx, patientId));
     if (body.kind === "given" && before.inForce) throw new HttpError(409, "consent_unchanged", "research consent is already in force");
     if (body.kind === "given" && role === "clinician" && before.awaitingConfirmation) {
