@@ -39,7 +39,7 @@ export interface EndpointSpec<
   request?: { body?: B; query?: Q; params?: P };
   /** Status of a successful answer when the handler returns a value (default 200). */
   status?: number;
-  /** Schema of the successful JSON body; it also strips fields the contract does not name. */
+  /** Schema of the successful JSON body (a strict contract: an answer with a field it does not name is a 500). */
   response?: z.ZodType;
   /** Non-JSON answers (e.g. text/csv) for the OpenAPI document. */
   produces?: string;
