@@ -94,6 +94,21 @@ export default tseslint.config(
     files: [`ingest-server/src/processing/${TS}`, `ingest-server/src/uploads/${TS}`, "ingest-server/src/worker.ts"],
     rules: { "no-restricted-imports": ["error", { patterns: processingPatterns }] },
   },
+  {
+    // Knex only in repositories: a route's service orchestrates (access, rules, transactions, audit)
+    // and its router declares endpoints; neither builds a query (DEVELOPERS.md, Conventions).
+    files: ["ingest-server/src/routes/**/*.service.ts", "ingest-server/src/routes/**/*.router.ts"],
+    rules: {
+      "no-restricted-syntax": [
+        "error",
+        ...[
+          "CallExpression[callee.type='Identifier'][callee.name=/^(db|trx|knex)$/]",
+          "CallExpression[callee.type='MemberExpression'][callee.property.name='db']",
+          "CallExpression[callee.type='MemberExpression'][callee.property.name='raw']",
+        ].map((selector) => ({ selector, message: "Knex queries belong in the resource's repository; call a repository function instead." })),
+      ],
+    },
+  },
   { files: [`portal/${TS}`], rules: { "no-restricted-imports": ["error", { patterns: portalPatterns }] } },
   ...features.map(featureBlock),
 );
