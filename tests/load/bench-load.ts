@@ -5,7 +5,7 @@ import { analyze, readSensorCsv, synthesizeSession } from "@pendula/signal";
 import { loadavg } from "node:os";
 import { createApp } from "../../ingest-server/src/app";
 import { createTestContext } from "../../ingest-server/src/testing/harness";
-import { metricRows } from "../../ingest-server/src/metrics/metric-catalog";
+import { metricRows } from "../../ingest-server/src/metrics/analysis-metric-rows";
 import { refreshStaleCaseloadFlags } from "../../ingest-server/src/trends/caseload-flags.repository";
 
 /**

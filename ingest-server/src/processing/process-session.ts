@@ -12,7 +12,7 @@ import {
 import type { WalkingAid } from "../contracts/enums";
 import type { Knex } from "knex";
 import type { AppDeps } from "../deps";
-import { metricRows } from "../metrics/metric-catalog";
+import { metricRows } from "../metrics/analysis-metric-rows";
 import { findSession, listRawFiles, type RawFileRow } from "../sessions/sessions.repository";
 import { ObjectNotFoundError } from "../storage/object-storage";
 import { parsedRecordingsKey, ParsedRecordingsMismatch, readParsedRecordings } from "../uploads/parsed-recordings";

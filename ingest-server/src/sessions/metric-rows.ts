@@ -1,5 +1,5 @@
 import type { Knex } from "knex";
-import { METRIC_KEYS } from "../metrics/metric-catalog";
+import { METRIC_KEYS } from "../contracts/metric-catalog";
 
 /**
  * The one place where stored `session_metrics` rows (one per session and metric key, written by

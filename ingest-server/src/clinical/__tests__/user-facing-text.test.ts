@@ -1,8 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { METRICS } from "../../metrics/metric-catalog";
+import { BASE_METRIC_INFO, METRICS } from "../../contracts/metric-catalog";
 import { annotateTrends } from "../annotate-trends";
 import { CLINICAL_CAUTIONS } from "../cautions";
-import { BASE_METRIC_INFO } from "../../contracts/metric-catalog";
 import { changeAlertMail, digestMail, reminderMail } from "../notifications/messages";
 import { REFERENCE_BANDS } from "../reference-bands";
 import { PUBLISHED_IMPORTANT_CHANGE, PUBLISHED_MDC } from "../reliability";

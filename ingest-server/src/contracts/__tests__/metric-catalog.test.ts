@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { analyze, synthesizeKinematicSession } from "@pendula/signal";
-import { metricRows } from "../../metrics/metric-catalog";
+import { metricRows } from "../../metrics/analysis-metric-rows";
 import {
   BASE_METRICS,
   BASE_METRIC_INFO,

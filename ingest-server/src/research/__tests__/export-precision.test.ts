@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { METRIC_KEYS } from "../../metrics/metric-catalog";
+import { METRIC_KEYS } from "../../contracts/metric-catalog";
 import { COUNT_STEP, EXPORT_PRECISION, exportCount, exportValue, roundToStep } from "../export-precision";
 
 const fixture = JSON.parse(readFileSync(path.join(__dirname, "fixtures", "export-rounding.json"), "utf8")) as {

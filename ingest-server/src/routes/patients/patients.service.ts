@@ -6,7 +6,7 @@ import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
 import type { PatientUpdate } from "../../contracts/patients";
-import { metricDefinition, METRIC_KEYS } from "../../metrics/metric-catalog";
+import { metricDefinition, METRIC_KEYS } from "../../contracts/metric-catalog";
 import { toSummary } from "../sessions/sessions.service";
 import {
   findPatient,

@@ -4,7 +4,7 @@ import type { CohortDefinition } from "../../contracts/research";
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
-import { METRIC_KEYS, metricDefinition } from "../../metrics/metric-catalog";
+import { METRIC_KEYS, metricDefinition } from "../../contracts/metric-catalog";
 import { consentInForceAt, consentPeriods } from "../../research/consent-periods";
 import { toCsv, type CsvCell } from "../../research/csv";
 import { COUNT_STEP, EXPORT_PRECISION, exportCount, exportValue } from "../../research/export-precision";

@@ -5,7 +5,7 @@ import type { SessionDetail, SessionSummary, SessionUpdate, SignalResponse } fro
 import type { AppDeps } from "../../deps";
 import { HttpError } from "../../http-error";
 import type { AuthContext } from "../../middleware/authenticate";
-import { metricDefinition } from "../../metrics/metric-catalog";
+import { metricDefinition } from "../../contracts/metric-catalog";
 import { minMaxDecimate } from "../../processing/min-max-decimate";
 import { metricValues, readSessionMetrics, type StoredMetric } from "../../sessions/metric-rows";
 import { enqueueProcessing } from "../../sessions/process-session-job";

@@ -1,7 +1,7 @@
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { patientTrendData } from "../../clinical/notifications/repository";
-import { METRIC_KEYS } from "../../metrics/metric-catalog";
+import { METRIC_KEYS } from "../../contracts/metric-catalog";
 import { createTestContext, type SeededUser, type TestContext } from "../../testing/harness";
 import { insertDoneSession } from "../../testing/session-fixtures";
 import { trendRows } from "../../trends/trend-rows.repository";

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import type { Metrics } from "@pendula/signal";
-import { METRIC_KEYS, metricDefinition, metricRows } from "../metric-catalog";
+import { METRIC_KEYS, metricDefinition } from "../../contracts/metric-catalog";
+import { metricRows } from "../analysis-metric-rows";
 
 const coupling = { frequencyRatio: 1, meanRelativePhaseDeg: -20, couplingStrength: 0.8, circularSdDeg: 30 };
 const metrics: Metrics = {

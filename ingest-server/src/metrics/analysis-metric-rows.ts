@@ -2,20 +2,10 @@ import type { Metrics } from "@pendula/signal";
 import { METRICS, type MetricDefinition, type MetricKey } from "../contracts/metric-catalog";
 
 /*
- * The server's side of the metric catalogue (contracts/metric-catalog.ts): where an analysis'
- * metrics become `session_metrics` rows. Every row is one catalogue entry read by its accessor, so
- * a key the catalogue does not list is never written. The catalogue's lookups are re-exported for
- * the server's own modules.
+ * Where an analysis' metrics become `session_metrics` rows (contracts/metric-catalog.ts describes
+ * each metric). Every row is one catalogue entry read by its accessor, so a key the catalogue does
+ * not list is never written.
  */
-export {
-  METRICS,
-  METRIC_KEYS,
-  metricDefinition,
-  isMetricKey,
-  type CountNoun,
-  type MetricDefinition,
-  type MetricKey,
-} from "../contracts/metric-catalog";
 
 export interface MetricValue {
   key: MetricKey;
