@@ -286,7 +286,7 @@ async function single(): Promise<void> {
   if (s.patients.length < count) throw new Error(`${count} sessions need ${count} patients; prepared ${s.patients.length}`);
   console.log(`one session at a time: ${count} sessions, ${arg("workers-label")}; load average before ${load()} (1, 5, 15 min)`);
   const totals: number[] = [];
-  const parts: Record<string, number[]> = { upload: [], pickup: [], read: [], analysis: [], write: [], parse: [], store: [], record: [], receive: [] };
+  const parts: Record<string, number[]> = { upload: [], pickup: [], read: [], analysis: [], write: [], parse: [], store: [], parsed: [], record: [], receive: [] };
   const cpu0 = cpuSnapshot();
   for (let i = 0; i < count; i++) {
     const t = await uploadOne(s, bodies, s.patients[i]!, week);
@@ -299,21 +299,22 @@ async function single(): Promise<void> {
     const p70 = at("processing:70") ?? done;
     const row = { upload: t.acceptedMs - t.startMs, pickup: p5 - t.acceptedMs, read: p30 - p5, analysis: p70 - p30, write: done - p70 };
     for (const [k, v] of Object.entries(row)) parts[k]!.push(v);
-    for (const k of ["parse", "store", "record"]) if (t.serverMs[k] !== undefined) parts[k]!.push(t.serverMs[k]);
+    for (const k of ["parse", "store", "parsed", "record"]) if (t.serverMs[k] !== undefined) parts[k]!.push(t.serverMs[k]);
     // The handler starts once the body is on disk: the rest of the client's wait is receiving it.
     if (t.serverMs.total !== undefined) parts.receive!.push(row.upload - t.serverMs.total);
     totals.push(done - t.startMs);
     console.log(
       `  #${i + 1}: upload→done ${s1(done - t.startMs)} s = upload ${s1(row.upload)} + queue pick-up ${s1(row.pickup)} + ` +
         `fetch and read files ${s1(row.read)} + analysis ${s1(row.analysis)} + traces and write ${s1(row.write)} s ` +
-        `(in the upload: receiving the body ${s1(row.upload - (t.serverMs.total ?? Number.NaN))}, then parse ${s1(t.serverMs.parse ?? Number.NaN)} with store ${s1(t.serverMs.store ?? Number.NaN)} beside it, record ${s1(t.serverMs.record ?? Number.NaN)} s)`,
+        `(in the upload: receiving the body ${s1(row.upload - (t.serverMs.total ?? Number.NaN))}, then parse ${s1(t.serverMs.parse ?? Number.NaN)} with store ${s1(t.serverMs.store ?? Number.NaN)} beside it, ` +
+        `storing the parsed recordings ${s1(t.serverMs.parsed ?? Number.NaN)}, record ${s1(t.serverMs.record ?? Number.NaN)} s)`,
     );
   }
   const sorted = [...totals].sort((a, b) => a - b);
   const med = (k: string) => s1(percentile([...parts[k]!].sort((a, b) => a - b), 0.5));
   console.log(`  upload→done p50 ${s1(percentile(sorted, 0.5))} s, p95 ${s1(percentile(sorted, 0.95))} s (n = ${count}; target p50 < 4 s)`);
   console.log(`  median parts: upload ${med("upload")}, pick-up ${med("pickup")}, fetch and read ${med("read")}, analysis ${med("analysis")}, traces and write ${med("write")} s (sampled every 20 ms)`);
-  console.log(`  median upload parts: receiving the body ${med("receive")}, then parse ${med("parse")} with store ${med("store")} beside it, record ${med("record")} s (Server-Timing)`);
+  console.log(`  median upload parts: receiving the body ${med("receive")}, then parse ${med("parse")} with store ${med("store")} beside it, storing the parsed recordings ${med("parsed")}, record ${med("record")} s (Server-Timing)`);
   console.log(`  CPU per session: ${cpuLine(cpu0, cpuSnapshot(), count)} (wall times above include waiting for a core)`);
   printMemory();
   console.log(`  load average after ${load()}`);

@@ -35,7 +35,7 @@ describe("processing from the parsed recordings", () => {
     expect(res.status, JSON.stringify(res.body)).toBe(202);
     const id = res.body.id as string;
     // Where the upload's time went (W3C Server Timing), read by `npm run bench:e2e`.
-    for (const part of ["parse", "store", "record", "total"]) expect(res.headers["server-timing"]).toMatch(new RegExp(`(^|, )${part};dur=\\d+\\.\\d(,|$)`));
+    for (const part of ["parse", "store", "parsed", "record", "total"]) expect(res.headers["server-timing"]).toMatch(new RegExp(`(^|, )${part};dur=\\d+\\.\\d(,|$)`));
     const key = parsedRecordingsKey(patient.patientId!, id);
     expect(await listObjectKeys(ctx)).toContain(key);
 
