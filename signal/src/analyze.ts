@@ -17,7 +17,7 @@ import { sessionWalkingSpeed } from "./spatial/session-walking-speed";
 import { type Analysis, type ArmLegCoupling, type Bout, type Placement, type QualityItem, type SensorRecording, type Side, SignalInputError } from "./types";
 
 /** Bumped whenever a change can alter any number in the output. */
-export const ALGORITHM_VERSION = "1.4.0";
+export const ALGORITHM_VERSION = "1.4.1";
 
 export interface AnalyzeOptions {
   /** Reserved for callers that want to skip the arm–leg step (e.g. a quick pre-check). */

@@ -1,4 +1,5 @@
-import { type BandPassSection, butterworthBandPassSections } from "./butterworth-band-pass-sections";
+import { butterworthBandSections } from "../filter/butterworth-band-sections";
+import type { Biquad } from "../filter/butterworth-sections";
 
 /** Band edges as multiples of the fundamental (issue 3: 0.7–1.3 × the segment's own fundamental). */
 export const BAND_LOW_FACTOR = 0.7;
@@ -8,8 +9,9 @@ export const BAND_PASS_ORDER = 4;
 
 /**
  * Zero-phase Butterworth band-pass around a fundamental: edges 0.7·f₀ and 1.3·f₀, order 4 (SciPy
- * convention), run forward and backward as fili's `IirFilter.filtfilt` does, so the magnitude is
- * squared and the phase is zero — which the Hilbert phase downstream relies on.
+ * convention; the design is `filter/butterworth-band-sections.ts`), run forward and backward as
+ * fili's `IirFilter.filtfilt` does, so the magnitude is squared and the phase is zero — which the
+ * Hilbert phase downstream relies on.
  *
  * Edge policy (differs from SciPy's `sosfiltfilt`, so compare away from the ends): the mean is
  * removed, the signal is extended at both ends by an odd reflection of 3 periods of the lower
@@ -34,7 +36,7 @@ export function zeroPhaseBandPass(
   highHz: number,
   order = BAND_PASS_ORDER,
 ): Float64Array {
-  const sections = butterworthBandPassSections(order, lowHz, highHz, sampleRateHz);
+  const sections = butterworthBandSections(order, lowHz, highHz, sampleRateHz);
   const n = x.length;
   if (n === 0) return new Float64Array(0);
   let mean = 0;
@@ -56,13 +58,13 @@ export function zeroPhaseBandPass(
 
 /**
  * In place, the arithmetic of fili 2.0.3's `IirFilter.filtfilt` on a fresh filter (`runStage` per
- * section, same operation order, so the same numbers): each biquad's registers start at zero and
- * are NOT cleared between the forward and the backward pass. fili's per-sample calls through
- * coefficient objects cost more than the filter itself on a 30-minute signal.
+ * section, same operation order, so the same numbers) for sections with fili's gain k = 1 (the
+ * design puts its gain in the first section's b, and x·1 = x exactly): each biquad's registers start
+ * at zero and are NOT cleared between the forward and the backward pass. fili's per-sample calls
+ * through coefficient objects cost more than the filter itself on a 30-minute signal.
  */
-function cascadeFiltFilt(sections: readonly BandPassSection[], y: Float64Array): void {
+function cascadeFiltFilt(sections: readonly Biquad[], y: Float64Array): void {
   const count = sections.length;
-  const k = new Float64Array(count);
   const a1 = new Float64Array(count);
   const a2 = new Float64Array(count);
   const b0 = new Float64Array(count);
@@ -70,12 +72,11 @@ function cascadeFiltFilt(sections: readonly BandPassSection[], y: Float64Array):
   const b2 = new Float64Array(count);
   for (let s = 0; s < count; s++) {
     const c = sections[s]!;
-    k[s] = c.k;
-    a1[s] = c.a[0]!;
-    a2[s] = c.a[1]!;
-    b0[s] = c.b[0]!;
-    b1[s] = c.b[1]!;
-    b2[s] = c.b[2]!;
+    a1[s] = c.a1;
+    a2[s] = c.a2;
+    b0[s] = c.b0;
+    b1[s] = c.b1;
+    b2[s] = c.b2;
   }
   const z0 = new Float64Array(count);
   const z1 = new Float64Array(count);
@@ -83,7 +84,7 @@ function cascadeFiltFilt(sections: readonly BandPassSection[], y: Float64Array):
   const stepAt = (i: number): void => {
     let out = y[i]!;
     for (let s = 0; s < count; s++) {
-      const temp = out * k[s]! - a1[s]! * z0[s]! - a2[s]! * z1[s]!;
+      const temp = out - a1[s]! * z0[s]! - a2[s]! * z1[s]!;
       out = b0[s]! * temp + b1[s]! * z0[s]! + b2[s]! * z1[s]!;
       z1[s] = z0[s]!;
       z0[s] = temp;

@@ -2,7 +2,6 @@ export { armLegCoupling, armLegCouplingDetail, UNAVAILABLE_COUPLING, MIN_STEADY_
 export { armRhythm, MAX_ONE_X_AMPLITUDE_FOR_TWO_TO_ONE, type ArmRhythm } from "./arm-rhythm";
 export { armSwingAmplitude, armSwingAsymmetryPct, NO_ARM_SWING_DEG, MIN_ARM_SWING_CYCLES, type ArmSwingAmplitude } from "./arm-swing";
 export { bandPassAroundFundamental, zeroPhaseBandPass, BAND_LOW_FACTOR, BAND_HIGH_FACTOR, BAND_PASS_ORDER } from "./band-pass";
-export { butterworthBandPassSections, bandPassMagnitude, type BandPassSection } from "./butterworth-band-pass-sections";
 export { circularStats, type CircularSummary } from "./circular-stats";
 export { dft, inverseDft } from "./dft";
 export { dominantFrequency, type DominantFrequency, type DominantFrequencyOptions } from "./dominant-frequency";

@@ -3,10 +3,14 @@ import type { Biquad } from "./butterworth-sections";
 
 /**
  * Butterworth band-pass second-order sections (order N per edge, 2N in total, the convention of
- * SciPy's `butter(N, [lo, hi], "band")`). fili has no true Butterworth band transform (its
- * `bandpass` is a cookbook resonator), so the standard analog design is done here: prototype poles
+ * SciPy's `butter(N, [lo, hi], "band")`): the one band-pass design in signal/, used for the wrist
+ * swing axis (N = 2, through `sosFiltFilt3`) and the arm–leg phase (N = 4, `zeroPhaseBandPass`).
+ * fili has no true Butterworth band transform (its `bandpass` is a cascade of resonators at one
+ * centre frequency), so the standard analog design is done here: prototype poles
  * e^{iπ(2k+N+1)/(2N)}, low-pass → band-pass transform at the pre-warped edges, bilinear transform,
- * unit gain at the centre frequency. Checked against SciPy in the tests.
+ * unit gain at the centre frequency (all of it in the first section). Each section holds one
+ * conjugate pole pair (or two real poles) and the zeros at z = ±1. The section order differs from
+ * SciPy's `zpk2sos`, which changes results only at rounding level. Checked against SciPy in the tests.
  */
 export function butterworthBandSections(order: number, lowHz: number, highHz: number, sampleRateHz: number): Biquad[] {
   assertInteger(order, "order", 1, 8);
