@@ -114,15 +114,15 @@ function withStoredPlacements(recordings: SensorRecording[], recordingFile: numb
 async function loadParsedRecordings(deps: Pick<ProcessDeps, "storage">, files: RawFileRow[], key: string): Promise<SensorRecording[] | undefined> {
   // The uploaded files are the record: with one of them gone the session must fail as it would
   // without this cache, not be analysed from a copy nobody could reprocess from.
-  const present = await Promise.all(files.map((f) => deps.storage.exists(f.storage_key)));
-  if (present.includes(false)) return undefined;
-  let bytes: Buffer;
-  try {
-    bytes = await deps.storage.get(key);
-  } catch (err) {
-    if (err instanceof ObjectNotFoundError) return undefined;
-    throw err;
-  }
+  // The checks run beside the download, not before it.
+  const [present, bytes] = await Promise.all([
+    Promise.all(files.map((f) => deps.storage.exists(f.storage_key))),
+    deps.storage.get(key).catch((err: unknown) => {
+      if (err instanceof ObjectNotFoundError) return undefined;
+      throw err;
+    }),
+  ]);
+  if (present.includes(false) || bytes === undefined) return undefined;
   try {
     const { recordings, recordingFile } = readParsedRecordings(bytes, files.map((f) => f.sha256));
     if (recordingFile.some((i) => files[i] === undefined)) throw new ParsedRecordingsMismatch("a recording names a file the session does not have");
