@@ -32,6 +32,7 @@ describe("MailboxPage", () => {
       subject: "Reset your password",
       text: "Reset here: http://elsewhere.test/reset-password/confirm?token=r1",
       html: null,
+      headers: { "x-pendula-kind": "password-reset" },
     },
     {
       id: "m2",
@@ -41,6 +42,7 @@ describe("MailboxPage", () => {
       subject: "You are invited to Pendula",
       text: `Welcome.\nSet your password: ${origin}/accept-invitation?token=t2\n`,
       html: "<script>alert(1)</script>",
+      headers: { "x-pendula-kind": "invitation" },
     },
   ];
 
