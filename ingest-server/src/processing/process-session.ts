@@ -35,19 +35,19 @@ export type ProcessOutcome = "done" | "missing";
 export async function processSession(deps: ProcessDeps, sessionId: string): Promise<ProcessOutcome> {
   const session = await findSession(deps.db, sessionId);
   if (!session) return "missing";
-  await deps.db("walk_sessions")
-    .where({ id: sessionId })
-    .update({ status: "processing", progress_pct: 5, attempts: deps.db.raw("attempts + 1"), updated_at: deps.db.fn.now() });
-
-  const files = await listRawFiles(deps.db, sessionId);
+  // Independent statements on separate pool connections: their round trips overlap.
+  const [, files, options] = await Promise.all([
+    deps.db("walk_sessions")
+      .where({ id: sessionId })
+      .update({ status: "processing", progress_pct: 5, attempts: deps.db.raw("attempts + 1"), updated_at: deps.db.fn.now() }),
+    listRawFiles(deps.db, sessionId),
+    analysisOptions(deps.db, session.patient_id, session.walking_aid),
+  ]);
   if (files.length === 0) throw new Error(`session ${sessionId} has no raw files`);
   const recordings = await loadRecordings(deps, files, parsedRecordingsKey(session.patient_id, sessionId));
   await setProgress(deps.db, sessionId, 30);
 
-  const { sagittal, ...analysis } = analyze(recordings, {
-    ...(await analysisOptions(deps.db, session.patient_id, session.walking_aid)),
-    sagittalSignals: true,
-  });
+  const { sagittal, ...analysis } = analyze(recordings, { ...options, sagittalSignals: true });
   await setProgress(deps.db, sessionId, 70);
   // The chart traces are the analysis' own signals; they are stored as arrays, not in the JSON.
   const traces = sagittalTraces({ sagittal });

@@ -120,11 +120,12 @@ function splitBidsSerial(serial: string): [string, string] {
  * 3. same patient + same content → the existing session (200 duplicate; this attempt's objects
  *    are deleted);
  * 4. the parsed recordings are stored too (best effort: without them the worker parses the
- *    originals), then session + raw_files rows in one transaction; if it fails, this attempt's
- *    objects are deleted. A concurrent identical upload loses on the unique (patient_id,
- *    content_sha256) constraint, deletes its own objects and answers with the winner;
- * 5. enqueue processing. If enqueueing fails the session stays `queued` and the worker's sweep
- *    re-enqueues it, so the upload is never lost.
+ *    originals); once the files are stored, session + raw_files rows go in one transaction beside
+ *    that PUT; if it fails, this attempt's objects are deleted (after the PUT settles). A
+ *    concurrent identical upload loses on the unique (patient_id, content_sha256) constraint,
+ *    deletes its own objects and answers with the winner;
+ * 5. enqueue processing once the parsed recordings' PUT has settled. If enqueueing fails the
+ *    session stays `queued` and the worker's sweep re-enqueues it, so the upload is never lost.
  * Keys never hold anything another attempt could share, so deleting them never touches what was
  * stored before.
  */
@@ -202,7 +203,9 @@ export async function uploadSession(deps: AppDeps, req: Request, input: UploadIn
       };
     });
 
-    await Promise.all([storing, parsedStored]);
+    // The rows need the files stored, not the parsed recordings: the insert runs beside their PUT,
+    // and only the enqueue below waits for it, so the worker finds them when it takes the job.
+    await storing;
     try {
       await timing.measure(
         "record",
@@ -225,6 +228,7 @@ export async function uploadSession(deps: AppDeps, req: Request, input: UploadIn
       patientId,
       details: { files: rows.length, bytes: rows.reduce((n, r) => n + Number(r.size_bytes), 0) },
     });
+    await parsedStored;
     try {
       await enqueueProcessing(deps, sessionId);
     } catch (err) {

@@ -10,7 +10,7 @@ import { loadRecordings } from "../../processing/process-session";
 import { ObjectNotFoundError } from "../../storage/object-storage";
 import { parseReply } from "../parse-job";
 import { parseUpload } from "../parse-upload";
-import { ParsedRecordingsMismatch, readParsedRecordings, writeParsedRecordings } from "../parsed-recordings";
+import { ParsedRecordingsMismatch, readParsedRecordings, timeAsTicks, writeParsedRecordings } from "../parsed-recordings";
 
 // The parse thread's recordings must be exactly what reading the uploaded files gives: same
 // arrays byte for byte, same names, serials and clocks, so the analysis cannot tell them apart.
@@ -56,8 +56,42 @@ describe("parsed recordings object", () => {
     const back = readParsedRecordings(bytes, parsed.files.map((f) => f.sha256));
     expect(back.recordingFile).toEqual(parsed.recordingFile);
     expectIdentical(back.recordings, parsed.recordings);
-    // Smaller than the text it replaces: 8 bytes of time and 6 × 4 of channels per sample.
+    // Smaller than the text it replaces: 4 bytes of time steps and 6 × 4 of channels per sample.
     expect(bytes.length).toBeLessThan(files.reduce((s, f) => s + f.buffer.length, 0));
+    // The trial's t_s column is written with two decimals (e.g. "0.01"), so every time is a whole
+    // number of 1/100 s and the column travels as Int32 steps: 28 bytes per sample, not 32.
+    const header = JSON.parse(bytes.subarray(12, 12 + bytes.readUInt32LE(8)).toString("utf8")) as { recordings: Array<{ timeTicks?: { perSecond: number } }> };
+    expect(header.recordings.map((r) => r.timeTicks?.perSecond)).toEqual([100, 100, 100, 100, 100]);
+    const samples = parsed.recordings.reduce((n, r) => n + r.timeS.length, 0);
+    expect(bytes.length).toBeLessThan(29 * samples + 8 * 7 * 5 + 4096);
+  });
+
+  it("keeps Float64 times when any sample would not come back as the same double", () => {
+    // 0.1 + 0.2 is 0.30000000000000004 (IEEE 754 binary64): no decimal tick of up to 10^-9 s rebuilds it.
+    expect(timeAsTicks(new Float64Array([0, 0.1, 0.1 + 0.2]))).toBeUndefined();
+    expect(timeAsTicks(new Float64Array([0, Math.PI]))).toBeUndefined();
+    // -0 would return as +0 (common practice: byte equality, not ===, for a cache of the reader's output).
+    expect(timeAsTicks(new Float64Array([-0, 0.5]))).toBeUndefined();
+    expect(timeAsTicks(new Float64Array([0, Number.NaN]))).toBeUndefined();
+    // A step beyond Int32 at every tick size.
+    expect(timeAsTicks(new Float64Array([0, 2 ** 31]))).toBeUndefined();
+    // Milliseconds written with three decimals, jittered: ticks of 10^-3 s with their steps.
+    const t = new Float64Array([12.005, 12.011, 12.014, 12.02]);
+    expect(timeAsTicks(t)).toMatchObject({ perSecond: 1000, firstTick: 12005, steps: new Int32Array([0, 6, 3, 6]) });
+  });
+
+  it("gives back a mix of tick and Float64 time columns byte for byte", () => {
+    const files = synthFor({}, { seed: 4, durationS: 20, placements: ["left_shank", "right_shank"] }).files.map((f) => ({ originalName: f.fileName, buffer: Buffer.from(f.text) }));
+    const parsed = parseUpload(files, { maxChars: MAX });
+    // The second recording's clock made irregular in a way no decimal tick rebuilds.
+    const odd = { ...parsed.recordings[1]!, timeS: parsed.recordings[1]!.timeS.map((v, i) => v + (i % 3) * Number.EPSILON * 3) };
+    expect(timeAsTicks(parsed.recordings[0]!.timeS)).toBeDefined();
+    expect(timeAsTicks(odd.timeS)).toBeUndefined();
+    const recordings = [parsed.recordings[0]!, odd];
+    const file = path.join(dir, `parsed-${n++}`);
+    const sha = parsed.files.map((f) => f.sha256);
+    writeParsedRecordings(file, recordings, parsed.recordingFile, sha);
+    expectIdentical(readParsedRecordings(readFileSync(file), sha).recordings, recordings);
   });
 
   it("keeps a BIDS Motion set's grouping, serials and clock beside a sensor CSV file", () => {
@@ -144,8 +178,8 @@ describe("loadRecordings with the parsed recordings", () => {
     const fromText = await loadRecordings({ storage: storage(objects) } as never, rows);
     const fromParsed = await loadRecordings({ storage: storage(objects) } as never, rows, "k/parsed");
     // Not the same objects: the parsed path really was taken (views into the one stored buffer).
-    expect(fromParsed[0]!.timeS.buffer).toBe(fromParsed[1]!.timeS.buffer);
-    expect(fromText[0]!.timeS.buffer).not.toBe(fromText[1]!.timeS.buffer);
+    expect(fromParsed[0]!.accX.buffer).toBe(fromParsed[1]!.accX.buffer);
+    expect(fromText[0]!.accX.buffer).not.toBe(fromText[1]!.accX.buffer);
     expectIdentical(fromParsed, fromText);
     expect(JSON.stringify(analyze(fromParsed, { sagittalSignals: true }))).toBe(JSON.stringify(analyze(fromText, { sagittalSignals: true })));
   });
@@ -160,13 +194,13 @@ describe("loadRecordings with the parsed recordings", () => {
     const store = new Map<string, Buffer>([...bids.map((f, i): [string, Buffer] => [`k/${f.fileName}`, bidsFiles[i]!.buffer]), ["k/parsed", b]]);
     const fromText = await loadRecordings({ storage: storage(store) } as never, bidsRows);
     const fromParsed = await loadRecordings({ storage: storage(store) } as never, bidsRows, "k/parsed");
-    expect(fromParsed[0]!.timeS.buffer).toBe(fromParsed[1]!.timeS.buffer);
+    expect(fromParsed[0]!.accX.buffer).toBe(fromParsed[1]!.accX.buffer);
     expect(fromParsed.map((r) => r.placement)).toEqual(["right_shank", "left_shank"]);
     expectIdentical(fromParsed, fromText);
   });
 
   it("reads the uploaded files when the parsed object is missing, belongs to other files, or an uploaded file is gone", async () => {
-    const viaText = (r: SensorRecording[]) => r[0]!.timeS.buffer !== r[1]!.timeS.buffer;
+    const viaText = (r: SensorRecording[]) => r[0]!.accX.buffer !== r[1]!.accX.buffer;
     const withoutParsed = new Map(objects);
     withoutParsed.delete("k/parsed");
     expect(viaText(await loadRecordings({ storage: storage(withoutParsed) } as never, rows, "k/parsed"))).toBe(true);
