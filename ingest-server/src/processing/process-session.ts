@@ -154,21 +154,31 @@ async function writeResults(
         metrics.map((m) => ({ session_id: sessionId, patient_id: patientId, recorded_at: recordedAt, metric_key: m.key, value: m.value, unit: m.unit, n: m.n })),
       );
     }
-    const strides = analysis.strides.map((s, ordinal) => ({
-      session_id: sessionId,
-      ordinal,
-      side: s.side,
-      ic_s: s.icS,
-      next_ic_s: s.nextIcS,
-      fc_s: s.fcS,
-      stride_time_s: s.strideTimeS,
-      stance_pct: s.stancePct,
-      swing_pct: s.swingPct,
-      double_support_pct: s.doubleSupportPct,
-      steady: s.steady,
-      excluded_reason: s.excludedReason ?? null,
-    }));
-    for (let i = 0; i < strides.length; i += 1000) await trx("strides").insert(strides.slice(i, i + 1000));
+    // One statement with one array per column (a 30-minute session has over 3000 strides): the
+    // values travel as the same text as row-by-row parameters would, so what is stored is the same,
+    // but PostgreSQL parses twelve arrays instead of some 40 000 parameters (bench:e2e: 140–480 ms
+    // in four 1000-row inserts).
+    const strides = analysis.strides;
+    if (strides.length > 0) {
+      await trx.raw(
+        `INSERT INTO strides (session_id, ordinal, side, ic_s, next_ic_s, fc_s, stride_time_s, stance_pct, swing_pct, double_support_pct, steady, excluded_reason)
+         SELECT ?::uuid, * FROM unnest(?::int[], ?::text[], ?::float8[], ?::float8[], ?::float8[], ?::float8[], ?::float8[], ?::float8[], ?::float8[], ?::bool[], ?::text[])`,
+        [
+          sessionId,
+          strides.map((_, ordinal) => ordinal),
+          strides.map((s) => s.side),
+          strides.map((s) => s.icS),
+          strides.map((s) => s.nextIcS),
+          strides.map((s) => s.fcS),
+          strides.map((s) => s.strideTimeS),
+          strides.map((s) => s.stancePct),
+          strides.map((s) => s.swingPct),
+          strides.map((s) => s.doubleSupportPct),
+          strides.map((s) => s.steady),
+          strides.map((s) => s.excludedReason ?? null),
+        ] as Knex.Value[],
+      );
+    }
     for (const t of traces) {
       await trx("session_traces").insert({
         session_id: sessionId,
