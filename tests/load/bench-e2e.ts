@@ -307,14 +307,14 @@ async function single(): Promise<void> {
       `  #${i + 1}: upload→done ${s1(done - t.startMs)} s = upload ${s1(row.upload)} + queue pick-up ${s1(row.pickup)} + ` +
         `fetch and read files ${s1(row.read)} + analysis ${s1(row.analysis)} + traces and write ${s1(row.write)} s ` +
         `(in the upload: receiving the body ${s1(row.upload - (t.serverMs.total ?? Number.NaN))}, then parse ${s1(t.serverMs.parse ?? Number.NaN)} with store ${s1(t.serverMs.store ?? Number.NaN)} beside it, ` +
-        `storing the parsed recordings ${s1(t.serverMs.parsed ?? Number.NaN)}, record ${s1(t.serverMs.record ?? Number.NaN)} s)`,
+        `storing the parsed recordings ${s1(t.serverMs.parsed ?? Number.NaN)}, record beside them ${s1(t.serverMs.record ?? Number.NaN)} s)`,
     );
   }
   const sorted = [...totals].sort((a, b) => a - b);
   const med = (k: string) => s1(percentile([...parts[k]!].sort((a, b) => a - b), 0.5));
   console.log(`  upload→done p50 ${s1(percentile(sorted, 0.5))} s, p95 ${s1(percentile(sorted, 0.95))} s (n = ${count}; target p50 < 4 s)`);
   console.log(`  median parts: upload ${med("upload")}, pick-up ${med("pickup")}, fetch and read ${med("read")}, analysis ${med("analysis")}, traces and write ${med("write")} s (sampled every 20 ms)`);
-  console.log(`  median upload parts: receiving the body ${med("receive")}, then parse ${med("parse")} with store ${med("store")} beside it, storing the parsed recordings ${med("parsed")}, record ${med("record")} s (Server-Timing)`);
+  console.log(`  median upload parts: receiving the body ${med("receive")}, then parse ${med("parse")} with store ${med("store")} beside it, storing the parsed recordings ${med("parsed")}, record beside them ${med("record")} s (Server-Timing)`);
   console.log(`  CPU per session: ${cpuLine(cpu0, cpuSnapshot(), count)} (wall times above include waiting for a core)`);
   printMemory();
   console.log(`  load average after ${load()}`);
