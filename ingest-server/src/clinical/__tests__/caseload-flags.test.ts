@@ -3,13 +3,13 @@ import { CASELOAD_FLAG_SEVERITY, describeCaseloadFlag, orderCaseloadFlags } from
 
 describe("caseload flags: named in words, worst first", () => {
   it.each([
-    [{ metricKey: "strideTimeCvPct", flag: "worsened" }, "worsened", "Stride time variability worse than baseline"],
+    [{ metricKey: "strideTimeCvPct", flag: "worsened" }, "worsened", "Stride-time variability worse than baseline"],
     [{ metricKey: "cadenceStepsPerMin", flag: "improved" }, "improved", "Cadence better than baseline"],
     [{ metricKey: "phaseCoordinationIndexPct", flag: "pci-rise" }, "left-right-coordination", "Left–right coordination (PCI) worse than baseline"],
     [{ metricKey: "armLegLeftArmRightLegCouplingStrength", flag: "coupling-drop" }, "coupling-drop", "Arm–leg coupling weaker than baseline (left arm – right leg)"],
     [{ metricKey: "armLegRightArmLeftLegFrequencyRatio", flag: "arm-leg-mode-change" }, "coordination-change", "Arm–leg coordination mode changed (right arm – left leg)"],
     [{ metricKey: "armLegRightArmLeftLegMeanRelativePhaseDeg", flag: "changed" }, "phase-shift", "Arm–leg phase shifted (right arm – left leg)"],
-    [{ metricKey: "strideTimeCvPct", flag: "few-strides" }, "few-strides", "Stride time variability not compared: too few strides"],
+    [{ metricKey: "strideTimeCvPct", flag: "few-strides" }, "few-strides", "Stride-time variability not compared: too few strides"],
     [{ metricKey: "cadenceStepsPerMin", flag: "something-new" }, "other", "Cadence: something-new"],
   ])("%o → %s, “%s”", (input, kind, label) => {
     const d = describeCaseloadFlag(input);

@@ -11,7 +11,7 @@ const rows: CaseloadRow[] = [
   patientSummaryFixture({ id: testUuid(1), displayName: "Odile Marchetti", researchId: "FG-014", condition: "stroke", lastUploadAt: "2026-11-20T09:00:00Z", adherencePct: 100, latest: { cadenceStepsPerMin: 92.4, phaseCoordinationIndexPct: 6.1 }, flags: [] }),
   patientSummaryFixture({ id: testUuid(2), displayName: "Tamsin Okonkwo-Reyes", researchId: "FG-022", condition: "parkinsons", lastUploadAt: "2026-11-18T09:00:00Z", adherencePct: 40, latest: { cadenceStepsPerMin: 104.9, phaseCoordinationIndexPct: 9.8 }, flags: [
     { metricKey: "cadenceStepsPerMin", flag: "improved", kind: "improved", label: "Cadence better than baseline", severity: 10 },
-    { metricKey: "strideTimeCvPct", flag: "worsened", kind: "worsened", label: "Stride time variability worse than baseline", severity: 50 },
+    { metricKey: "strideTimeCvPct", flag: "worsened", kind: "worsened", label: "Stride-time variability worse than baseline", severity: 50 },
     { metricKey: "armLegLeftArmRightLegFrequencyRatio", flag: "arm-leg-mode-change", kind: "coordination-change", label: "Arm–leg coordination mode changed (left arm – right leg)", severity: 40 },
   ] }),
   patientSummaryFixture({ id: testUuid(3), displayName: "Bartholomew Ianakiev", researchId: "FG-031", condition: "incomplete_sci", lastUploadAt: null, adherencePct: null, latest: { cadenceStepsPerMin: null, phaseCoordinationIndexPct: null } }),
@@ -65,7 +65,7 @@ describe("caseload table", () => {
     const lists = screen.getAllByRole("list", { name: "Flags, most urgent first" });
     const words = lists.map((l) => within(l).getAllByRole("listitem").map((li) => li.textContent));
     expect(words).toContainEqual([
-      "Stride time variability worse than baseline",
+      "Stride-time variability worse than baseline",
       "Arm–leg coordination mode changed (left arm – right leg)",
       "Cadence better than baseline",
     ]);

@@ -68,7 +68,7 @@ function trendsBody(overrides: { rightCouplingLast?: boolean } = {}) {
       {
         key: "strideTimeCvPct",
         unit: "%",
-        label: "Stride time variability (CV)",
+        label: "Stride-time variability (CV)",
         countNoun: "strides",
         points: series(CV, { flag: "worsened" }, (i) => ({ n: 36, walkingSpeedMPerS: SPEED[i] })),
         baseline: { mean: mean3(CV), sd: 0.1, n: 3 },
@@ -183,7 +183,7 @@ describe("trend summary at the top of the patient's trends", () => {
     // The latest walk was without the cane used in every baseline walk.
     expect(speed.cells[1]).toMatch(/Walking aid differs from baseline/);
 
-    const cv = rowOf(table, "Stride time variability (CV)");
+    const cv = rowOf(table, "Stride-time variability (CV)");
     expect(cv.cells[0]).toMatch(/^3\.40 % · n = 36 strides · at 0\.81 m\/s$/);
     expect(cv.cells[1]).toMatch(/^\+1\.20 %/);
     expect(cv.cells[2]).toBe("Worsened beyond MDC");
@@ -200,7 +200,7 @@ describe("trend summary at the top of the patient's trends", () => {
     server();
     const table = await summary();
     // 3.4 % lies above 1.94 + 0.36 = 2.30 % and above 2.24 + 0.74 = 2.98 %.
-    expect(rowOf(table, "Stride time variability (CV)").cells[3]).toBe("↑Above band 1 (1.58–2.30 %)↑Above band 2 (1.50–2.98 %)");
+    expect(rowOf(table, "Stride-time variability (CV)").cells[3]).toBe("↑Above band 1 (1.58–2.30 %)↑Above band 2 (1.50–2.98 %)");
     // The band numbers are the card's own.
     const card = screen.getByRole("region", { name: /Stride-time variability/ });
     const items = within(card).getAllByRole("listitem").map((li) => li.textContent ?? "");
@@ -268,7 +268,7 @@ describe("trend summary at the top of the patient's trends", () => {
     const table = await summary();
     for (const [label, words] of [
       ["Walking speed", "Improved beyond MDC"],
-      ["Stride time variability (CV)", "Worsened beyond MDC"],
+      ["Stride-time variability (CV)", "Worsened beyond MDC"],
       ["Cadence (steps/min)", "Within MDC"],
     ] as const) {
       const cell = rowOf(table, label).row.querySelectorAll("td")[2]!;
