@@ -202,7 +202,9 @@ function wholeProcessComparison(dir: string, minutes: number): string[] {
   if (!python.ok) return [`${minutes} min: whole-process comparison skipped (${python.reason}).`];
   if (!existsSync(BUILT_CLI)) return [`${minutes} min: whole-process comparison skipped (no ${BUILT_CLI}; run npm run build:node).`];
   const programs = [
-    { label: "node signal/dist/cli.js --json", command: [process.execPath, BUILT_CLI, ...files, "--json"] },
+    // The same V8 flag as `npm run analyze`: a one-core batch run gains nothing from background
+    // compiler and GC threads, it only pays for handing work to them (outputs are identical).
+    { label: "node --single-threaded signal/dist/cli.js", command: [process.execPath, "--single-threaded", BUILT_CLI, ...files, "--json"] },
     { label: "npm run --silent analyze -- … --json", command: ["npm", "run", "--silent", "analyze", "--", ...files, "--json"] },
     { label: "python3 numpy_pipeline.py", command: ["python3", NUMPY_SCRIPT, ...files] },
   ];
