@@ -10,7 +10,18 @@ export default defineConfig({
   worker: { format: "es" },
   // assetsInlineLimit 0: small font subsets would otherwise become data: URLs, which the server's
   // CSP (font-src 'self') blocks.
-  build: { outDir: "dist", emptyOutDir: true, sourcemap: false, assetsInlineLimit: 0 },
+  build: {
+    outDir: "dist",
+    emptyOutDir: true,
+    sourcemap: false,
+    assetsInlineLimit: 0,
+    // The server's contracts are plain zod schemas and tables with no side effects, but a bundler
+    // cannot know that a top-level `z.object(…)` call is pure: without this, importing one schema
+    // through the contracts' index put every contract module into the first load.
+    rolldownOptions: {
+      treeshake: { moduleSideEffects: (id: string) => !id.includes("/ingest-server/src/contracts/"), manualPureFunctions: ["z"] },
+    },
+  },
   preview: { host: "127.0.0.1", proxy: { "/api": "http://127.0.0.1:8641" } },
   server: { host: "127.0.0.1", proxy: { "/api": "http://127.0.0.1:8641" } },
   test: {
