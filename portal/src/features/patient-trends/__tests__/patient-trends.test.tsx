@@ -66,7 +66,8 @@ describe("patient trend charts", () => {
     renderWithProviders(<PatientTrendsPage patientId={PID} />, { queryClient: createTestQueryClient() });
 
     const cv = await screen.findByRole("region", { name: /Stride-time variability/ });
-    expect(within(cv).getByRole("img", { name: "Stride-time variability over time" })).toBeTruthy();
+    // The chart draws once its container has been measured, which can come after the card itself.
+    expect(await within(cv).findByRole("img", { name: "Stride-time variability over time" })).toBeTruthy();
     expect(within(cv).getAllByText(new RegExp(`Source: ${FRENKEL.replace(/[()]/g, "\\$&")}`))).toHaveLength(2);
     expect(within(cv).getByText("Worsened beyond MDC")).toBeTruthy();
     // A short caution beside the flags in the card, the server's full cautions once above the charts.
