@@ -1,4 +1,6 @@
 import { randomBytes } from "node:crypto";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import knex, { type Knex } from "knex";
 import PgBoss from "pg-boss";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -74,7 +76,9 @@ describe("the application role", () => {
 
   it("cannot read or write server files", async () => {
     await expect(app.raw("SELECT pg_read_file('postgresql.conf')")).rejects.toThrow(/permission denied/);
-    await expect(app.raw("COPY (SELECT 1) TO '/tmp/pendula-role-test'")).rejects.toThrow(/permission denied|must be superuser|pg_write_server_files/);
+    // An absolute path (COPY refuses relative ones before checking privileges), in this machine's temp folder.
+    const target = join(tmpdir(), "pendula-role-test");
+    await expect(app.raw(`COPY (SELECT 1) TO '${target}'`)).rejects.toThrow(/permission denied|must be superuser|pg_write_server_files/);
   });
 
   it("cannot read password hashes (pg_authid)", async () => {
