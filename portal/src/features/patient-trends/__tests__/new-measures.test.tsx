@@ -80,6 +80,8 @@ describe("new measures on the patient's trends", () => {
     expect(within(card).getByText("(m/s)")).toBeTruthy();
     const latest = within(card).getByRole("list", { name: "Walking speed, latest values" });
     expect(latest.textContent).toMatch(/Walking speed, latest:\s*0\.81 m\/s.*\(n = 33 strides\)/);
+    // The chart draws once its container has been measured, which can come after the card itself.
+    await within(card).findByRole("img", { name: /Walking speed over time/ });
     const titles = [...container.querySelectorAll("title")].map((t) => t.textContent ?? "");
     expect(titles.some((t) => /^Walking speed: 0\.8 on .*; n = 33 strides; walking aid: No aid$/.test(t))).toBe(true);
     expect(screen.getByRole("region", { name: /Arm swing amplitude/ }).textContent).toMatch(/20\.0°.*\(n = 25 arm cycles\)/);

@@ -32,7 +32,9 @@ describe("session signal chart", () => {
     const { default: userEvent } = await import("@testing-library/user-event");
     const user = userEvent.setup();
     const { container } = renderWithProviders(<SignalChart traces={[trace()]} durationS={20} />);
-    await user.click(await screen.findByRole("button", { name: "Whole recording" }));
+    // The plot draws once its container has been measured, which can come after the buttons.
+    await screen.findByRole("img", { name: /from 0.0 s to 12.0 s/ });
+    await user.click(screen.getByRole("button", { name: "Whole recording" }));
     expect(container.querySelectorAll('[data-event="IC"]')).toHaveLength(20);
     await user.click(screen.getByRole("button", { name: "Zoom in" }));
     expect(screen.getByRole("img", { name: /from 5.0 s to 15.0 s/ })).toBeTruthy();
