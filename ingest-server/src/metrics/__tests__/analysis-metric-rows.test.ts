@@ -1,31 +1,22 @@
 import { describe, expect, it } from "vitest";
 import type { Metrics } from "@pendula/signal";
+import { workedExampleMetrics } from "@pendula/signal/fixtures/worked-example-walk";
 import { METRIC_KEYS, metricDefinition } from "../../contracts/metric-catalog";
 import { metricRows } from "../analysis-metric-rows";
 
-const coupling = { frequencyRatio: 1, meanRelativePhaseDeg: -20, couplingStrength: 0.8, circularSdDeg: 30 };
+// The worked-example walk measured on the shanks alone and without the patient's height: no PCI,
+// speed, stride length or arm swing, and one arm–leg frequency ratio that came out non-finite.
+const walk = workedExampleMetrics();
 const metrics: Metrics = {
-  steadyStrideCount: 40,
-  cadenceStepsPerMin: 109.0909,
-  strideTimeMeanS: 1.1,
-  strideTimeCvPct: 1.2856,
-  stepTimeMeanS: { left: 0.55, right: 0.55 },
-  stancePct: { left: 60, right: 60 },
-  swingPct: { left: 40, right: 40 },
-  doubleSupportPct: 20,
+  ...walk,
   phaseCoordinationIndexPct: null,
-  gaitAsymmetryPct: 10.0083,
-  dfaAlpha: null,
-  dfaAlphaReason: "fewer than 256 strides",
   walkingSpeedMPerS: null,
   strideLengthM: null,
   walkingSpeedReason: "no height",
-  swingTimeCvPct: { left: null, right: null },
-  stepTimeAsymmetryPct: null,
   armSwing: null,
   armSwingReason: "no wrist sensor",
   counts: {},
-  armLeg: { leftArmRightLeg: coupling, rightArmLeftLeg: { ...coupling, frequencyRatio: Number.NaN } },
+  armLeg: { ...walk.armLeg, rightArmLeftLeg: { ...walk.armLeg.rightArmLeftLeg, frequencyRatio: Number.NaN } },
 };
 
 describe("metricRows(metrics)", () => {
@@ -64,28 +55,19 @@ describe("metricRows(metrics)", () => {
   });
 
   it("stores walking speed (m/s), stride length (m), swing-time CV, step-time asymmetry and arm swing under the shared keys", () => {
-    const full: Metrics = {
-      ...metrics,
-      // Speed = stride length / stride time: 1.21 m / 1.1 s = 1.10 m/s (kinematic identity, the check value's stride time).
-      walkingSpeedMPerS: 1.21 / 1.1,
-      strideLengthM: 1.21,
-      walkingSpeedReason: null,
-      swingTimeCvPct: { left: 3.4, right: 5.1 },
-      stepTimeAsymmetryPct: 7.5,
-      armSwing: { left: { amplitudeDeg: 28 }, right: { amplitudeDeg: 14 }, asymmetryPct: 66.7 },
-      armSwingReason: null,
-      counts: { walkingSpeedMPerS: 36, strideLengthM: 36, stepTimeAsymmetryPct: 72, armSwing: 30 },
-    };
+    // The whole walk, with wrist sensors and height. Speed = stride length / stride time: 1.21 m /
+    // 1.1 s = 1.10 m/s (kinematic identity, the check value's stride time).
+    const full: Metrics = { ...walk, counts: { walkingSpeedMPerS: 36, strideLengthM: 36, stepTimeAsymmetryPct: 72, armSwing: 30 } };
     const rows = Object.fromEntries(metricRows(full).map((r) => [r.key, r]));
     expect(rows.walkingSpeedMPerS).toMatchObject({ key: "walkingSpeedMPerS", unit: "m/s", n: 36 });
     expect(rows.walkingSpeedMPerS?.value).toBeCloseTo(1.1, 12);
     expect(rows.strideLengthM).toEqual({ key: "strideLengthM", value: 1.21, unit: "m", n: 36 });
-    expect(rows.swingTimeCvPctLeft).toMatchObject({ value: 3.4, unit: "%" });
-    expect(rows.swingTimeCvPctRight).toMatchObject({ value: 5.1, unit: "%" });
-    expect(rows.stepTimeAsymmetryPct).toEqual({ key: "stepTimeAsymmetryPct", value: 7.5, unit: "%", n: 72 });
-    expect(rows.armSwingAmplitudeDegLeft).toEqual({ key: "armSwingAmplitudeDegLeft", value: 28, unit: "deg", n: 30 });
-    expect(rows.armSwingAmplitudeDegRight).toMatchObject({ value: 14, unit: "deg", n: 30 });
-    expect(rows.armSwingAsymmetryPct).toMatchObject({ value: 66.7, unit: "%" });
+    expect(rows.swingTimeCvPctLeft).toMatchObject({ value: 3.1, unit: "%" });
+    expect(rows.swingTimeCvPctRight).toMatchObject({ value: 3.9, unit: "%" });
+    expect(rows.stepTimeAsymmetryPct).toEqual({ key: "stepTimeAsymmetryPct", value: 2.5, unit: "%", n: 72 });
+    expect(rows.armSwingAmplitudeDegLeft).toEqual({ key: "armSwingAmplitudeDegLeft", value: 31.46, unit: "deg", n: 30 });
+    expect(rows.armSwingAmplitudeDegRight).toMatchObject({ value: 12, unit: "deg", n: 30 });
+    expect(rows.armSwingAsymmetryPct).toMatchObject({ value: 89.6, unit: "%" });
     expect(metricDefinition("stepTimeAsymmetryPct")?.countNoun).toBe("steps");
   });
 

@@ -1,35 +1,13 @@
 import { render, screen, within } from "@testing-library/react";
 import { describe, expect, it } from "vitest";
-import type { Analysis, Metrics } from "@pendula/signal";
 import { BASE_METRIC_INFO, formatMetricValue, metricDefinition } from "@pendula/ingest-server/contracts";
+import { storedAnalysis } from "@/testing/analysis-fixtures";
 import { ArmSwingSummary, CouplingCard, MetricsGrid } from "../components/metric-summary";
 
-// Invented values: stride 1.10 s, stance 0.66 s (60 %), step 0.55 s, as in docs/methods.md#worked-examples.
-const coupling = { frequencyRatio: 1, meanRelativePhaseDeg: -20, couplingStrength: 0.8, circularSdDeg: 30, reason: null };
-const metrics: Metrics = {
-  steadyStrideCount: 40,
-  cadenceStepsPerMin: 109.0909,
-  strideTimeMeanS: 1.1,
-  strideTimeCvPct: 1.2856,
-  stepTimeMeanS: { left: 0.55, right: 0.55 },
-  stancePct: { left: 60, right: 61 },
-  swingPct: { left: 40, right: 39 },
-  doubleSupportPct: 20,
-  phaseCoordinationIndexPct: 4.2,
-  gaitAsymmetryPct: 10.0083,
-  dfaAlpha: null,
-  dfaAlphaReason: "fewer than 256 strides",
-  walkingSpeedMPerS: 1.1,
-  strideLengthM: 1.21,
-  walkingSpeedReason: null,
-  swingTimeCvPct: { left: 3.1, right: 3.9 },
-  stepTimeAsymmetryPct: 2.5,
-  armSwing: { left: { amplitudeDeg: 31.46 }, right: { amplitudeDeg: 12 }, asymmetryPct: 89.6 },
-  armSwingReason: null,
-  counts: {},
-  armLeg: { leftArmRightLeg: coupling, rightArmLeftLeg: coupling },
-};
-const a = { metrics } as unknown as Analysis;
+// The worked-example walk (docs/methods.md#worked-examples): cadence 109.0909 steps/min, stride-time
+// CV 1.2856 %, stance 60 % left (61 % right, invented), left arm swing 31.46°.
+const a = storedAnalysis();
+const coupling = a.metrics.armLeg.leftArmRightLeg;
 const labels = (el: HTMLElement) => [...el.querySelectorAll("dt")].map((dt) => dt.textContent);
 const def = (key: string) => metricDefinition(key)!;
 

@@ -3,6 +3,7 @@ import { Suspense } from "react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import type { Analysis } from "@pendula/signal";
 import { signalResponse, type WalkingAid } from "@pendula/ingest-server/contracts";
+import { storedAnalysis } from "@/testing/analysis-fixtures";
 import { conforming, sessionDetailFixture } from "@/testing/contract-fixtures";
 import { mockApi } from "@/testing/mock-api";
 import { renderWithProviders } from "@/testing/render";
@@ -11,49 +12,17 @@ import { SessionPage } from "../components/session-page";
 const SID = "2f6b8a1e-4c3d-4e5f-8a9b-0c1d2e3f4a5b";
 const PID = "5a0c7f0e-2b9d-4b59-9d7e-6a1f3c2b9e01";
 
-// An analysis object as the worker stores it. Speed is stride length / stride time (1.21 m / 1.1 s
-// = 1.10 m/s, a kinematic identity on the stride-time check value of
-// docs/methods.md#worked-examples).
+// The worked-example walk as the worker stores it: speed 1.21 m / 1.1 s = 1.10 m/s (a kinematic
+// identity on the stride-time check value of docs/methods.md#worked-examples), swing-time CV 3.1 % /
+// 3.9 %, left arm swing 31.46°, a left arm–leg phase of −20° at R 0.80 and a withheld right one;
+// with two quality items of the kinds the page names.
 function analysis(): Analysis {
-  return {
-    session: { startUtc: "2026-10-06T09:00:00.000Z", durationS: 100, sampleRateHz: 100, placements: ["left_shank", "right_shank", "left_wrist", "right_wrist"] },
-    events: { left: { initialContacts: [], finalContacts: [] }, right: { initialContacts: [], finalContacts: [] } },
-    strides: [],
-    bouts: [],
-    turns: [],
-    invalidSpans: [],
-    metrics: {
-      steadyStrideCount: 36,
-      cadenceStepsPerMin: 109.1,
-      strideTimeMeanS: 1.1,
-      strideTimeCvPct: 2.4,
-      stepTimeMeanS: { left: 0.55, right: 0.55 },
-      stancePct: { left: 60, right: 61 },
-      swingPct: { left: 40, right: 39 },
-      doubleSupportPct: 21,
-      phaseCoordinationIndexPct: 5.2,
-      gaitAsymmetryPct: 2.5,
-      dfaAlpha: null,
-      dfaAlphaReason: "fewer than 256 strides",
-      walkingSpeedMPerS: 1.21 / 1.1,
-      strideLengthM: 1.21,
-      walkingSpeedReason: null,
-      swingTimeCvPct: { left: 3.1, right: 3.9 },
-      stepTimeAsymmetryPct: 4.2,
-      armSwing: { left: { amplitudeDeg: 31.5 }, right: { amplitudeDeg: 12 }, asymmetryPct: 89.6 },
-      armSwingReason: null,
-      counts: { walkingSpeedMPerS: 36 },
-      armLeg: {
-        leftArmRightLeg: { frequencyRatio: 1, meanRelativePhaseDeg: -20, couplingStrength: 0.8, circularSdDeg: 38 },
-        rightArmLeftLeg: { frequencyRatio: 1.45, meanRelativePhaseDeg: null, couplingStrength: 0.12, circularSdDeg: null, reason: "coupling too weak for a meaningful phase" },
-      },
-    },
+  return storedAnalysis({
     quality: [
       { code: "speed-unavailable", severity: "info", message: "no height entered for the stride-length scaling" },
       { code: "placement-swap", severity: "warning", placement: "left_wrist", message: "left and right wrist signals look exchanged" },
     ],
-    algorithm: { version: "1.1.0" },
-  };
+  });
 }
 
 function detailBody(walkingAid: WalkingAid | null = null) {
