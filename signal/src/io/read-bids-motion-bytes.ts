@@ -46,7 +46,7 @@ export function readBidsMotionBytes(input: BidsMotionBytes): SensorRecording[] {
 /**
  * Reads every line from `pos` into `rows` and returns the number of the last line. A function of
  * its own that ends with its loop, so the engine compiles the loop once per process (see
- * readSensorCsvBytes).
+ * readRows in read-sensor-csv-window.ts).
  */
 function readMotionRows(bytes: Uint8Array, pos: number, layout: BidsLayout, rows: BidsRows): number {
   const n = bytes.length;

@@ -314,7 +314,7 @@ export class BidsRows {
  * A tracked point's rows with all six values (a row with n/a in any is dropped, which the time base
  * treats as a gap), scaled to m/s² and deg/s in single precision, time from the LATENCY column or
  * the row number. Returns the number of samples, or −1 − (k + 6·r) when channel k of row r is the
- * first to overflow single precision (the caller names it). A function of its own that ends with its loop (see readSensorCsvBytes).
+ * first to overflow single precision (the caller names it). A function of its own that ends with its loop (see readRows in read-sensor-csv-window.ts).
  */
 function completeSamples(
   cols: Float64Array[],

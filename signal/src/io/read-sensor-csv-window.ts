@@ -1,0 +1,253 @@
+import type { SensorRecording } from "../types";
+import { readRowCells } from "./read-row-cells";
+import { rowCapacityBytes } from "./row-capacity";
+import { COMMA, scanDecimalRowBytes } from "./scan-decimal-row-bytes";
+import { SENSOR_CSV_COLUMNS, type SensorCsvFail, type SensorCsvLayout, readSensorCsvHeader, sensorCsvFail } from "./sensor-csv-header";
+
+/**
+ * UTF-8 as Node's `readFileSync(path, "utf8")` decodes a file: bad sequences become U+FFFD and a
+ * BOM stays (the readers skip it themselves).
+ */
+export const UTF8 = new TextDecoder("utf-8", { ignoreBOM: true });
+
+/**
+ * A sensor CSV's bytes seen through a window: bytes[0, filled) are the file's bytes up to file
+ * offset `end`, and reading goes on at bytes[pos]. A whole file in memory is the window that holds
+ * all of it (`eof` true from the start); a file read in chunks moves its window with `more`.
+ */
+export interface SensorCsvWindow {
+  bytes: Uint8Array;
+  pos: number;
+  filled: number;
+  /** File offset just past bytes[filled − 1]. */
+  end: number;
+  /** True once bytes[filled − 1] is the file's last byte. */
+  eof: boolean;
+}
+
+/**
+ * Called only while `eof` is false: moves bytes[pos, filled) to the window's start (pos becomes 0),
+ * widens the window when they fill it, and reads behind them, setting filled, end and eof.
+ */
+export type MoreBytes = (window: SensorCsvWindow) => void;
+
+/** Length of a UTF-8 byte order mark at the start of bytes[0, filled), 0 without one. */
+export function byteOrderMarkLength(bytes: Uint8Array, filled: number): number {
+  return filled >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
+}
+
+/** Index of the first byte in bytes[from, to) that is not ASCII white space (see isAsciiWhiteSpace), `to` if none. */
+export function firstVisibleByte(bytes: Uint8Array, from: number, to: number): number {
+  let i = from;
+  while (i < to && isAsciiWhiteSpace(bytes[i]!)) i++;
+  return i;
+}
+
+/**
+ * Reads a sensor CSV v1 file from a window on its bytes: the header lines, then the data rows
+ * scanned from the bytes straight into the typed arrays (only the header lines, and a data row the
+ * fast scanner hands back, are decoded), with the results and the errors of `readSensorCsv` on the
+ * decoded text. The callers have already sent to the text reader what the bytes cannot answer
+ * cheaply (a file over the size limit, a first visible character that is not ASCII or an empty file).
+ * The one implementation behind `readSensorCsvBytes` (a window that holds the whole file) and
+ * `readSensorCsvChunks` (a window moved through the file): rows, growth of the arrays, errors.
+ *
+ * `fileSize` is the size the file had when opened, for sizing the arrays before all of it is seen.
+ */
+export function readSensorCsvWindow(window: SensorCsvWindow, more: MoreBytes, fileSize: number, fileName: string): SensorRecording {
+  const fail = sensorCsvFail(fileName);
+  const layout = readSensorCsvHeader(() => nextLine(window, more), fail);
+  let out = allocate(rowsToAllocate(window, fileSize, layout.names.length - 1 + SENSOR_CSV_COLUMNS.length));
+  const state: RowState = { lineNo: layout.lineNo, count: 0, prevT: Number.NEGATIVE_INFINITY };
+  const row = new Float64Array(7);
+  for (;;) {
+    const { bytes, filled, eof } = window;
+    // Rows up to the last \n go to the fast scanner; at the end of the file a last row without one
+    // to the general path; before the end, it waits for the next chunk.
+    const lastNewline = filled > 0 ? bytes.lastIndexOf(10, filled - 1) : -1;
+    const stop = eof ? filled : lastNewline + 1;
+    let pos = readRows(bytes, window.pos, filled, lastNewline, stop, layout, out, state, row, fail);
+    // The arrays are full with rows left: twice the room, the rows so far copied.
+    while (pos < stop) {
+      out = widen(out);
+      pos = readRows(bytes, pos, filled, lastNewline, stop, layout, out, state, row, fail);
+    }
+    window.pos = pos;
+    if (eof) break;
+    more(window);
+  }
+  if (state.count === 0) fail(state.lineNo, undefined, "file has a header but no data rows");
+  const count = state.count;
+  return {
+    fileName,
+    deviceSerial: layout.deviceSerial,
+    placement: layout.placement,
+    nominalSampleRateHz: layout.nominalSampleRateHz,
+    startUtc: layout.startUtc,
+    timeS: out.timeS.subarray(0, count),
+    accX: out.accX.subarray(0, count),
+    accY: out.accY.subarray(0, count),
+    accZ: out.accZ.subarray(0, count),
+    gyroX: out.gyroX.subarray(0, count),
+    gyroY: out.gyroY.subarray(0, count),
+    gyroZ: out.gyroZ.subarray(0, count),
+  };
+}
+
+/** The next header line without its `\n` or `\r\n` (moving the window as needed), null at the end of the file. */
+function nextLine(w: SensorCsvWindow, more: MoreBytes): string | null {
+  let end = w.bytes.subarray(0, w.filled).indexOf(10, w.pos);
+  while (end < 0 && !w.eof) {
+    const scanned = w.filled - w.pos;
+    more(w);
+    end = w.bytes.subarray(0, w.filled).indexOf(10, w.pos + scanned);
+  }
+  const { bytes, pos, filled } = w;
+  if (pos >= filled) return null;
+  if (end < 0) end = filled;
+  const lineEnd = end > pos && bytes[end - 1] === 13 ? end - 1 : end;
+  // A run of blank lines needs no decoding: "" is as blank and as far from the magic line.
+  const line = isAsciiBlank(bytes, pos, lineEnd) ? "" : UTF8.decode(bytes.subarray(pos, lineEnd));
+  w.pos = end + 1;
+  return line;
+}
+
+/**
+ * Rows to allocate for the data rows from the window's `pos` on. With the whole rest of the file in
+ * the window: `rowCapacityBytes`, its lines but never more than it could hold at the shortest
+ * possible row (nCols − 1 commas and a number in each of the 7 columns read). Otherwise the rows the
+ * rest of the file holds at the window's bytes per line (plus a margin), never more than that bound
+ * over the file's size: only a file whose later lines are much shorter than its first ones makes the
+ * arrays grow.
+ */
+function rowsToAllocate(w: SensorCsvWindow, fileSize: number, minRowBytes: number): number {
+  const { pos, filled } = w;
+  const seen = w.bytes.subarray(0, filled);
+  if (w.eof) return rowCapacityBytes(seen, pos, minRowBytes);
+  const remaining = Math.max(0, Math.max(fileSize, w.end) - (w.end - filled + pos));
+  let lines = 0;
+  for (let p = seen.indexOf(10, pos); p >= 0; p = seen.indexOf(10, p + 1)) lines++;
+  const fit = Math.floor(remaining / Math.max(1, minRowBytes)) + 1;
+  const estimate = lines === 0 ? fit : Math.ceil((remaining / (filled - pos)) * lines * 1.05) + 64;
+  return Math.min(fit, estimate);
+}
+
+type Samples = Pick<SensorRecording, "timeS" | "accX" | "accY" | "accZ" | "gyroX" | "gyroY" | "gyroZ">;
+
+/** Where the row loop stands between windows: the last line read, the rows stored, the last time. */
+interface RowState {
+  lineNo: number;
+  count: number;
+  prevT: number;
+}
+
+function allocate(capacity: number): Samples {
+  return {
+    timeS: new Float64Array(capacity),
+    accX: new Float32Array(capacity),
+    accY: new Float32Array(capacity),
+    accZ: new Float32Array(capacity),
+    gyroX: new Float32Array(capacity),
+    gyroY: new Float32Array(capacity),
+    gyroZ: new Float32Array(capacity),
+  };
+}
+
+function widen(a: Samples): Samples {
+  const b = allocate(Math.max(1, a.timeS.length * 2));
+  for (const k of ["timeS", "accX", "accY", "accZ", "gyroX", "gyroY", "gyroZ"] as const) b[k].set(a[k]);
+  return b;
+}
+
+/**
+ * The row loop over bytes[pos, stop): every line ended by a `\n` (lastNewline is the window's last
+ * one), and at the end of the file (stop = filled) the last one without. Returns where the first
+ * line it left begins; it leaves lines only when `out` is full. A function of its own that ends
+ * with its loop: the engine compiles the loop while the first file is read, and nothing after the
+ * loop lacks the type feedback that would throw the compiled code away at the end of every file or
+ * chunk.
+ */
+function readRows(
+  bytes: Uint8Array,
+  pos: number,
+  filled: number,
+  lastNewline: number,
+  stop: number,
+  layout: SensorCsvLayout,
+  out: Samples,
+  state: RowState,
+  row: Float64Array,
+  fail: SensorCsvFail,
+): number {
+  const { names, target, accScale, gyroScale } = layout;
+  const { timeS, accX, accY, accZ, gyroX, gyroY, gyroZ } = out;
+  const nCols = names.length;
+  const capacity = timeS.length;
+  let lineNo = state.lineNo;
+  let count = state.count;
+  let prevT = state.prevT;
+
+  while (pos < stop && count < capacity) {
+    lineNo++;
+    let end = bytes[pos] === 35 || pos > lastNewline ? -1 : scanDecimalRowBytes(bytes, pos, COMMA, nCols, target, row);
+    if (end < 0) {
+      end = pos > lastNewline ? filled : bytes.indexOf(10, pos);
+      const lineEnd = end > pos && bytes[end - 1] === 13 ? end - 1 : end;
+      // Blank rows are skipped without decoding (only spaces and tabs, as the text reader checks).
+      if (isSpacesAndTabs(bytes, pos, lineEnd)) {
+        pos = end + 1;
+        state.lineNo = lineNo;
+        continue;
+      }
+      const line = UTF8.decode(bytes.subarray(pos, lineEnd));
+      readRowCells(line, 0, line.length, lineNo, names, target, row, fail);
+    }
+    const t = row[0]!;
+    if (!(t > prevT)) {
+      fail(lineNo, "t_s", `time ${t} s does not increase (previous row ${prevT} s)`);
+    }
+    prevT = t;
+    timeS[count] = t;
+    accX[count] = row[1]! * accScale;
+    accY[count] = row[2]! * accScale;
+    accZ[count] = row[3]! * accScale;
+    gyroX[count] = row[4]! * gyroScale;
+    gyroY[count] = row[5]! * gyroScale;
+    gyroZ[count] = row[6]! * gyroScale;
+    // Samples are stored in single precision: a value beyond its range would become Infinity.
+    // x − x is 0 for a finite x and NaN otherwise: one test for the six stored values.
+    const sum = accX[count]! + accY[count]! + accZ[count]! + gyroX[count]! + gyroY[count]! + gyroZ[count]!;
+    if (sum - sum !== 0) {
+      const stored = [accX, accY, accZ, gyroX, gyroY, gyroZ];
+      for (let k = 0; k < 6; k++) {
+        if (!Number.isFinite(stored[k]![count]!)) fail(lineNo, SENSOR_CSV_COLUMNS[k + 1], `value ${row[k + 1]} is beyond any sensor's range`);
+      }
+    }
+    count++;
+    pos = end + 1;
+    // Stored row by row, not after the loop: a store there has no type feedback when the engine
+    // compiles the running loop, so the compiled code would be thrown away at the end of every call.
+    state.lineNo = lineNo;
+    state.count = count;
+    state.prevT = prevT;
+  }
+  return pos;
+}
+
+/** The ASCII characters String.prototype.trim removes: tab, LF, VT, FF, CR, space. */
+function isAsciiWhiteSpace(c: number): boolean {
+  return c === 32 || (c >= 9 && c <= 13);
+}
+
+function isAsciiBlank(bytes: Uint8Array, from: number, to: number): boolean {
+  for (let i = from; i < to; i++) if (!isAsciiWhiteSpace(bytes[i]!)) return false;
+  return true;
+}
+
+function isSpacesAndTabs(bytes: Uint8Array, from: number, to: number): boolean {
+  for (let i = from; i < to; i++) {
+    const c = bytes[i]!;
+    if (c !== 32 && c !== 9) return false;
+  }
+  return true;
+}
