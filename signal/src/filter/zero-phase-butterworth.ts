@@ -60,37 +60,31 @@ function copyInto(dst: Float64Array, at: number, src: ArrayLike<number>, from: n
   else for (let i = from; i < to; i++) dst[at + i - from] = src[i]!;
 }
 
-/** Direct form II transposed, each section started at its steady state for a constant input. */
+/**
+ * Direct form II transposed, each section started at its steady state for a constant input. The
+ * backward pass reverses y, runs the same forward loop and reverses back: the same operations on
+ * the same values in the same order as a back-to-front loop, with one loop to compile instead of two.
+ */
 function filterInPlace(sections: readonly Biquad[], y: Float64Array, reverse: boolean): void {
-  const m = y.length;
-  let level = reverse ? y[m - 1]! : y[0]!;
+  if (reverse) y.reverse();
+  let level = y[0]!;
   for (const s of sections) {
     const gain = (s.b0 + s.b1 + s.b2) / (1 + s.a1 + s.a2);
     const z2 = (s.b2 - s.a2 * gain) * level;
     const z1 = (s.b1 - s.a1 * gain) * level + z2;
-    if (!reverse) sectionForward(s.b0, s.b1, s.b2, s.a1, s.a2, z1, z2, y);
-    else sectionBackward(s.b0, s.b1, s.b2, s.a1, s.a2, z1, z2, y);
+    sectionPass(s.b0, s.b1, s.b2, s.a1, s.a2, z1, z2, y);
     level *= gain;
   }
+  if (reverse) y.reverse();
 }
 
-// One loop per direction, each its own small function: every filter in the pipeline runs through
-// these two, so they are compiled once for all callers instead of being recompiled on the fly (and
-// dropped again when the other direction's branch is first reached) inside each long first call.
+// The one single-channel loop, a small function of its own: every single-channel filter in the
+// pipeline runs through it, so it is compiled once for all callers instead of being recompiled on
+// the fly inside each long first call.
 
-function sectionForward(b0: number, b1: number, b2: number, a1: number, a2: number, z1: number, z2: number, y: Float64Array): void {
+function sectionPass(b0: number, b1: number, b2: number, a1: number, a2: number, z1: number, z2: number, y: Float64Array): void {
   const m = y.length;
   for (let i = 0; i < m; i++) {
-    const xi = y[i]!;
-    const yi = b0 * xi + z1;
-    z1 = b1 * xi - a1 * yi + z2;
-    z2 = b2 * xi - a2 * yi;
-    y[i] = yi;
-  }
-}
-
-function sectionBackward(b0: number, b1: number, b2: number, a1: number, a2: number, z1: number, z2: number, y: Float64Array): void {
-  for (let i = y.length - 1; i >= 0; i--) {
     const xi = y[i]!;
     const yi = b0 * xi + z1;
     z1 = b1 * xi - a1 * yi + z2;
@@ -235,7 +229,10 @@ function sosFiltFiltRange3(
   for (let c = 0; c < 3; c++) out[c]!.set(ext[c]!.subarray(padLen, padLen + n), from);
 }
 
-/** `filterInPlace` of three channels, section by section, each with its own cascade and state. */
+/**
+ * `filterInPlace` of three channels, section by section, each with its own cascade and state (the
+ * backward pass reversed around the forward loop in the same way).
+ */
 function filterInPlace3(
   sections: readonly [readonly Biquad[], readonly Biquad[], readonly Biquad[]],
   y0: Float64Array,
@@ -243,58 +240,52 @@ function filterInPlace3(
   y2: Float64Array,
   reverse: boolean,
 ): void {
-  const m = y0.length;
-  const level = reverse ? [y0[m - 1]!, y1[m - 1]!, y2[m - 1]!] : [y0[0]!, y1[0]!, y2[0]!];
-  const z = new Float64Array(6);
+  if (reverse) {
+    y0.reverse();
+    y1.reverse();
+    y2.reverse();
+  }
+  const level = [y0[0]!, y1[0]!, y2[0]!];
+  // Per channel c: coefficients b0 b1 b2 a1 a2 at 5c…5c + 4, initial state z1 z2 at 15 + 2c, 16 + 2c.
+  const state = new Float64Array(21);
   for (let k = 0; k < sections[0].length; k++) {
-    const s = [sections[0][k]!, sections[1][k]!, sections[2][k]!] as const;
     for (let c = 0; c < 3; c++) {
-      const b = s[c]!;
+      const b = sections[c]![k]!;
       const gain = (b.b0 + b.b1 + b.b2) / (1 + b.a1 + b.a2);
       const z2 = (b.b2 - b.a2 * gain) * level[c]!;
-      z[2 * c] = (b.b1 - b.a1 * gain) * level[c]! + z2;
-      z[2 * c + 1] = z2;
+      state[5 * c] = b.b0;
+      state[5 * c + 1] = b.b1;
+      state[5 * c + 2] = b.b2;
+      state[5 * c + 3] = b.a1;
+      state[5 * c + 4] = b.a2;
+      state[15 + 2 * c] = (b.b1 - b.a1 * gain) * level[c]! + z2;
+      state[16 + 2 * c] = z2;
       level[c] = level[c]! * gain;
     }
-    if (!reverse) sectionForward3(s[0], s[1], s[2], z, y0, y1, y2);
-    else sectionBackward3(s[0], s[1], s[2], z, y0, y1, y2);
+    sectionPass3(state, y0, y1, y2);
+  }
+  if (reverse) {
+    y0.reverse();
+    y1.reverse();
+    y2.reverse();
   }
 }
 
-// The two three-channel loops, like the single-channel ones, are small functions of their own so
-// they are compiled once for every caller.
-
-function sectionForward3(p: Biquad, q: Biquad, r: Biquad, z: Float64Array, y0: Float64Array, y1: Float64Array, y2: Float64Array): void {
-  const pb0 = p.b0, pb1 = p.b1, pb2 = p.b2, pa1 = p.a1, pa2 = p.a2;
-  const qb0 = q.b0, qb1 = q.b1, qb2 = q.b2, qa1 = q.a1, qa2 = q.a2;
-  const rb0 = r.b0, rb1 = r.b1, rb2 = r.b2, ra1 = r.a1, ra2 = r.a2;
-  let p1 = z[0]!, p2 = z[1]!, q1 = z[2]!, q2 = z[3]!, r1 = z[4]!, r2 = z[5]!;
+/**
+ * One section of each of the three cascades over the whole of y0, y1, y2, in place. The one
+ * three-channel loop, a small function of its own: every three-channel filter in the pipeline runs
+ * through it, so it is compiled once for all callers. Coefficients come as numbers in `state` (see
+ * filterInPlace3), not as section objects: sections from the two designs (low/high-pass and
+ * band-pass) are objects of different shapes, and reading them in the loop made the compiled loop
+ * start over whenever the other kind came along.
+ */
+function sectionPass3(state: Float64Array, y0: Float64Array, y1: Float64Array, y2: Float64Array): void {
+  const pb0 = state[0]!, pb1 = state[1]!, pb2 = state[2]!, pa1 = state[3]!, pa2 = state[4]!;
+  const qb0 = state[5]!, qb1 = state[6]!, qb2 = state[7]!, qa1 = state[8]!, qa2 = state[9]!;
+  const rb0 = state[10]!, rb1 = state[11]!, rb2 = state[12]!, ra1 = state[13]!, ra2 = state[14]!;
+  let p1 = state[15]!, p2 = state[16]!, q1 = state[17]!, q2 = state[18]!, r1 = state[19]!, r2 = state[20]!;
   const m = y0.length;
   for (let i = 0; i < m; i++) {
-    const u = y0[i]!;
-    const v = y1[i]!;
-    const w = y2[i]!;
-    const yu = pb0 * u + p1;
-    const yv = qb0 * v + q1;
-    const yw = rb0 * w + r1;
-    p1 = pb1 * u - pa1 * yu + p2;
-    q1 = qb1 * v - qa1 * yv + q2;
-    r1 = rb1 * w - ra1 * yw + r2;
-    p2 = pb2 * u - pa2 * yu;
-    q2 = qb2 * v - qa2 * yv;
-    r2 = rb2 * w - ra2 * yw;
-    y0[i] = yu;
-    y1[i] = yv;
-    y2[i] = yw;
-  }
-}
-
-function sectionBackward3(p: Biquad, q: Biquad, r: Biquad, z: Float64Array, y0: Float64Array, y1: Float64Array, y2: Float64Array): void {
-  const pb0 = p.b0, pb1 = p.b1, pb2 = p.b2, pa1 = p.a1, pa2 = p.a2;
-  const qb0 = q.b0, qb1 = q.b1, qb2 = q.b2, qa1 = q.a1, qa2 = q.a2;
-  const rb0 = r.b0, rb1 = r.b1, rb2 = r.b2, ra1 = r.a1, ra2 = r.a2;
-  let p1 = z[0]!, p2 = z[1]!, q1 = z[2]!, q2 = z[3]!, r1 = z[4]!, r2 = z[5]!;
-  for (let i = y0.length - 1; i >= 0; i--) {
     const u = y0[i]!;
     const v = y1[i]!;
     const w = y2[i]!;
