@@ -1,26 +1,16 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestContext, type SeededUser, type TestContext } from "../../testing/harness";
+import { describe, expect, it } from "vitest";
 import { listObjectKeys, seedDevices, synthFor, upload } from "../../testing/session-fixtures";
+import { uploadingPatientSuite } from "../../testing/upload-suite";
 import { parsedRecordingsKey } from "../../uploads/parsed-recordings";
 import { processSession } from "../process-session";
 
 // Upload → worker through the real route and storage: the session processed from the parse
 // thread's recordings and the same session processed again from the uploaded files alone must
 // store the same analysis, metrics, strides and traces.
-let ctx: TestContext;
-let patient: SeededUser;
-let token = "";
-
-beforeAll(async () => {
-  ctx = await createTestContext({ env: { UPLOAD_MAX_FILE_BYTES: String(8 * 1024 * 1024) } });
-  patient = await ctx.seedUser({ role: "patient" });
-  token = await ctx.tokenFor(patient);
-});
-afterAll(async () => {
-  await ctx?.close();
-});
+const suite = uploadingPatientSuite();
 
 async function stored(sessionId: string) {
+  const { ctx } = suite;
   const session = await ctx.db("walk_sessions").where({ id: sessionId }).first("status", "analysis", "duration_s");
   const metrics = await ctx.db("session_metrics").where({ session_id: sessionId }).orderBy("metric_key").select("metric_key", "value", "unit", "n");
   const strides = await ctx.db("strides").where({ session_id: sessionId }).orderBy("ordinal").select("side", "ic_s", "fc_s", "stride_time_s", "stance_pct", "steady");
@@ -30,6 +20,7 @@ async function stored(sessionId: string) {
 
 describe("processing from the parsed recordings", () => {
   it("stores exactly what processing from the uploaded files stores", async () => {
+    const { ctx, patient, token } = suite;
     const serials = await seedDevices(ctx, patient.patientId!, "PRW");
     const res = await upload(ctx, token, synthFor(serials, { seed: 17, durationS: 120, strideTimeS: 1.1 }).files);
     expect(res.status, JSON.stringify(res.body)).toBe(202);

@@ -1,26 +1,16 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestContext, type SeededUser, type TestContext } from "../../testing/harness";
+import { describe, expect, it } from "vitest";
 import { seedDevices, synthFor, upload } from "../../testing/session-fixtures";
+import { uploadingPatientSuite } from "../../testing/upload-suite";
 import { processSession } from "../process-session";
 
 // The strides table must hold, column by column, the strides of the analysis the worker stored
 // beside them (walk_sessions.analysis): one array per column in one statement must not shift,
 // reorder or round any value (float8 round trip: PostgreSQL 15 docs, 8.1.3, shortest exact output).
-let ctx: TestContext;
-let patient: SeededUser;
-let token = "";
-
-beforeAll(async () => {
-  ctx = await createTestContext({ env: { UPLOAD_MAX_FILE_BYTES: String(8 * 1024 * 1024) } });
-  patient = await ctx.seedUser({ role: "patient" });
-  token = await ctx.tokenFor(patient);
-});
-afterAll(async () => {
-  await ctx?.close();
-});
+const suite = uploadingPatientSuite();
 
 describe("stored strides", () => {
   it("match the stored analysis' strides in every column, in order", async () => {
+    const { ctx, patient, token } = suite;
     const serials = await seedDevices(ctx, patient.patientId!, "STR");
     const synth = synthFor(serials, { seed: 23, durationS: 150, strideTimeS: 1.05, turns: [{ startS: 60, durationS: 3, angleDeg: 180 }] });
     const res = await upload(ctx, token, synth.files);
