@@ -1,6 +1,6 @@
-import { randomBytes } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createTestContext, type SeededUser, type TestContext } from "../../../testing/harness";
+import { insertDoneSession } from "../../../testing/session-fixtures";
 import type { Mailer, MailMessage } from "../../../mail/mailer";
 import {
   CLINICAL_QUEUES,
@@ -25,24 +25,6 @@ describe("clinical e-mail jobs against PostgreSQL, pg-boss and the SMTP fake", (
   let quiet: SeededUser;
   const sessionIds: string[] = [];
 
-  async function addSession(patientId: string, recordedAt: string, metrics: Record<string, [number, string]>): Promise<string> {
-    const [row] = await ctx.db("walk_sessions")
-      .insert({
-        patient_id: patientId,
-        recorded_at: recordedAt,
-        status: "done",
-        progress_pct: 100,
-        analysis: JSON.stringify({}),
-        content_sha256: randomBytes(32).toString("hex"),
-      })
-      .returning("id");
-    const id = row.id as string;
-    await ctx.db("session_metrics").insert(
-      Object.entries(metrics).map(([metric_key, [value, unit]]) => ({ session_id: id, patient_id: patientId, recorded_at: recordedAt, metric_key, value, unit })),
-    );
-    return id;
-  }
-
   beforeAll(async () => {
     ctx = await createTestContext();
     deps = ctx.deps;
@@ -60,7 +42,7 @@ describe("clinical e-mail jobs against PostgreSQL, pg-boss and the SMTP fake", (
     const cv = [2.1, 2.3, 2.2, 2.25, 3.4];
     for (let i = 0; i < cv.length; i++) {
       const at = new Date(Date.parse("2026-09-07T10:00:00Z") + i * 7 * 86_400_000).toISOString();
-      sessionIds.push(await addSession(walker.patientId!, at, { strideTimeCvPct: [cv[i]!, "%"], cadenceStepsPerMin: [95, "/min"] }));
+      sessionIds.push(await insertDoneSession(ctx, walker.patientId!, at, { strideTimeCvPct: cv[i]!, cadenceStepsPerMin: 95 }));
     }
   });
 
@@ -88,7 +70,7 @@ describe("clinical e-mail jobs against PostgreSQL, pg-boss and the SMTP fake", (
   });
 
   it("a job that failed after its first e-mail sends only the missing one when retried", async () => {
-    const sid = await addSession(walker.patientId!, "2026-10-12T10:00:00Z", { strideTimeCvPct: [3.6, "%"] });
+    const sid = await insertDoneSession(ctx, walker.patientId!, "2026-10-12T10:00:00Z", { strideTimeCvPct: 3.6 });
     let calls = 0;
     const flaky: Mailer = {
       async send(msg: MailMessage) {
@@ -126,12 +108,12 @@ describe("clinical e-mail jobs against PostgreSQL, pg-boss and the SMTP fake", (
   });
 
   it("judges a session recorded with microsecond precision against the sessions up to and including it", async () => {
-    const sid = await addSession(walker.patientId!, "2026-10-13T10:00:00.123456Z", { strideTimeCvPct: [3.7, "%"] });
+    const sid = await insertDoneSession(ctx, walker.patientId!, "2026-10-13T10:00:00.123456Z", { strideTimeCvPct: 3.7 });
     expect((await sendChangeAlerts(deps, sid)).planned).toBe(2);
   });
 
   it("runs the alert through the queue: enqueue twice, one e-mail per clinician", async () => {
-    const sid = await addSession(walker.patientId!, "2026-10-19T10:00:00Z", { strideTimeCvPct: [3.8, "%"] });
+    const sid = await insertDoneSession(ctx, walker.patientId!, "2026-10-19T10:00:00Z", { strideTimeCvPct: 3.8 });
     ctx.mailbox.clear();
     await enqueueChangeAlerts(deps, sid);
     await enqueueChangeAlerts(deps, sid);
