@@ -128,6 +128,22 @@ pg_cluster_down() {
   fi
 }
 
+# A free TCP port on loopback, as the kernel hands one out.
+free_port() {
+  node -e 'const s=require("net").createServer();s.listen(0,"127.0.0.1",()=>{console.log(s.address().port);s.close()})'
+}
+
+# A throwaway cluster (trusted local connections, no fsync) in a new private folder, stopped and
+# removed when the script exits, with PENDULA_TEST_PG pointing at it: what the test harness needs
+# (ingest-server/src/testing/harness.ts) for the benches that drive the server through it.
+throwaway_test_cluster() {
+  THROWAWAY_DIR="$(mktemp -d)"; chmod 755 "$THROWAWAY_DIR"
+  trap 'pg_cluster_down "$THROWAWAY_DIR/pg"; rm -rf "$THROWAWAY_DIR"' EXIT INT TERM
+  local port; port="$(free_port)"
+  pg_cluster_up "$THROWAWAY_DIR/pg" "$port" throwaway
+  export PENDULA_TEST_PG="postgres://postgres@127.0.0.1:$port"
+}
+
 pg_ensure_database() {
   local name="$1"
   if ! pg_psql -d postgres -tAc "SELECT 1 FROM pg_database WHERE datname='$name'" | grep -q 1; then

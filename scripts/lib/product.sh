@@ -5,10 +5,6 @@
 
 PRODUCT_PIDS=()
 
-free_port() {
-  node -e 'const s=require("net").createServer();s.listen(0,"127.0.0.1",()=>{console.log(s.address().port);s.close()})'
-}
-
 wait_for_line() { # file pattern timeout_s
   local file="$1" pattern="$2" timeout="$3" i=0
   while [ $i -lt $((timeout * 10)) ]; do
