@@ -19,6 +19,15 @@ async function requireDevice(trx: Db, id: string) {
   return device;
 }
 
+/** Locks the device and reads one of its assignments (404 when either is missing). */
+async function requireAssignment(trx: Db, deviceId: string, assignmentId: string) {
+  const { serial } = await requireDevice(trx, deviceId);
+  const row = await repo.get(trx, deviceId, assignmentId);
+  if (!row) throw notFound("assignment");
+  return { serial, row, view: toAssignmentView(row) };
+}
+type HeldAssignment = Awaited<ReturnType<typeof requireAssignment>>;
+
 /** Translates an exclusion-constraint refusal into a 409 that names the assignment in the way. */
 async function overlapConflict(db: Db, q: Parameters<typeof repo.overlapping>[1], serial: string): Promise<HttpError> {
   const rows = (await repo.overlapping(db, q)).map(toAssignmentView);
@@ -93,15 +102,12 @@ export async function createAssignment({ db }: AppDeps, actor: AuthContext, devi
 
 export async function endAssignment({ db }: AppDeps, deviceId: string, assignmentId: string, input: z.output<typeof endAssignmentRequest>, req: Request): Promise<AssignmentView> {
   const to = new Date(input.to);
-  let current: AssignmentView | undefined;
-  let serial = "";
+  let held: HeldAssignment | undefined;
   await run(
     () =>
       db.transaction(async (trx) => {
-        serial = (await requireDevice(trx, deviceId)).serial;
-        const row = await repo.get(trx, deviceId, assignmentId);
-        if (!row) throw notFound("assignment");
-        current = toAssignmentView(row);
+        held = await requireAssignment(trx, deviceId, assignmentId);
+        const { row, view: current } = held;
         if (to.getTime() <= row.valid_from.getTime()) {
           throw new HttpError(422, "invalid_range", `an assignment must end after it starts (${current.from})`);
         }
@@ -116,12 +122,10 @@ export async function endAssignment({ db }: AppDeps, deviceId: string, assignmen
         });
       }),
     // Extending an end date can run into a later assignment.
-    () =>
-      overlapConflict(
-        db,
-        { deviceId, patientId: current!.patientId, placement: current!.placement, from: new Date(current!.from), to, excludeId: assignmentId },
-        serial,
-      ),
+    () => {
+      const { view: current, serial } = held!;
+      return overlapConflict(db, { deviceId, patientId: current.patientId, placement: current.placement, from: new Date(current.from), to, excludeId: assignmentId }, serial);
+    },
   );
   return toAssignmentView((await repo.get(db, deviceId, assignmentId))!);
 }
@@ -129,15 +133,12 @@ export async function endAssignment({ db }: AppDeps, deviceId: string, assignmen
 /** The same device moves to another placement on the same patient: end at `at`, start anew at `at`. */
 export async function swapAssignmentPlacement({ db }: AppDeps, actor: AuthContext, deviceId: string, assignmentId: string, input: z.output<typeof swapPlacementRequest>, req: Request) {
   const at = new Date(input.at);
-  let current: AssignmentView | undefined;
-  let serial = "";
+  let held: HeldAssignment | undefined;
   const newId = await run(
     () =>
       db.transaction(async (trx) => {
-        serial = (await requireDevice(trx, deviceId)).serial;
-        const row = await repo.get(trx, deviceId, assignmentId);
-        if (!row) throw notFound("assignment");
-        current = toAssignmentView(row);
+        held = await requireAssignment(trx, deviceId, assignmentId);
+        const { row } = held;
         if (row.placement === input.placement) throw new HttpError(422, "same_placement", `the device is already on ${input.placement}`);
         if (at.getTime() <= row.valid_from.getTime() || (row.valid_to && at.getTime() >= row.valid_to.getTime())) {
           throw new HttpError(422, "invalid_range", "the swap time must fall inside the current assignment");
@@ -150,19 +151,14 @@ export async function swapAssignmentPlacement({ db }: AppDeps, actor: AuthContex
           { action: "assignment.swap", details: { deviceId, endedAssignmentId: assignmentId, from: row.placement, to: input.placement, at: input.at } },
         );
       }),
-    () =>
-      overlapConflict(
+    () => {
+      const { view: current, serial } = held!;
+      return overlapConflict(
         db,
-        {
-          deviceId,
-          patientId: current!.patientId,
-          placement: input.placement,
-          from: at,
-          to: current!.to ? new Date(current!.to) : null,
-          excludeId: assignmentId,
-        },
+        { deviceId, patientId: current.patientId, placement: input.placement, from: at, to: current.to ? new Date(current.to) : null, excludeId: assignmentId },
         serial,
-      ),
+      );
+    },
   );
   return {
     ended: toAssignmentView((await repo.get(db, deviceId, assignmentId))!),
