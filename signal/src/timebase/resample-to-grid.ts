@@ -41,8 +41,27 @@ export function intervalSpreadLimit(t: Float64Array, k: number): number {
   const n = t.length;
   if (n < 3) return Number.POSITIVE_INFINITY;
   const step = Math.max(1, Math.floor((n - 1) / 4096));
-  const d: number[] = [];
-  for (let i = 1; i < n; i += step) d.push(t[i]! - t[i - 1]!);
+  const d = new Float64Array(Math.floor((n - 2) / step) + 1);
+  let plain = true;
+  for (let i = 1, j = 0; i < n; i += step, j++) {
+    const x = t[i]! - t[i - 1]!;
+    d[j] = x;
+    if (x - x !== 0 || (x === 0 && 1 / x < 0)) plain = false;
+  }
+  // A typed array sorts numerically with no comparator call per pair; for finite values other
+  // than −0 that is the order (a, b) => a − b gives, so the median picked is the same number, and
+  // their |x − median| are finite and never −0 either.
+  if (!plain) return spreadLimitOfList(Array.from(d), k);
+  d.sort();
+  const med = d[d.length >> 1]!;
+  for (let j = 0; j < d.length; j++) d[j] = Math.abs(d[j]! - med);
+  d.sort();
+  const mad = d[d.length >> 1]!;
+  return med + k * 1.4826 * mad;
+}
+
+/** intervalSpreadLimit's rule on a plain list (NaN or −0 in it sort as the comparator says). */
+function spreadLimitOfList(d: number[], k: number): number {
   d.sort((a, b) => a - b);
   const med = d[d.length >> 1]!;
   const dev = d.map((x) => Math.abs(x - med)).sort((a, b) => a - b);
