@@ -72,8 +72,9 @@ function spreadLimitOfList(d: number[], k: number): number {
 /**
  * Linear resampling of one recording onto the session grid in one forward pass (O(n + m)). Grid
  * samples outside the recording, or between two samples further apart than MAX_INTERPOLATED_GAP_S,
- * are marked invalid and set to 0. The accelerometer channels are computed on first access (same
- * values either way), so callers that only need the gyroscope never allocate them.
+ * are marked invalid and set to 0. All six channels are interpolated together: the analysis reads
+ * every sensor's accelerometer (impact signals, strap check, wrist orientation), and one pass
+ * finds each grid sample's interval and weight once instead of once per three channels.
  */
 export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: number): ResampledSensor {
   const offset = grid.offsetsS[index] ?? 0;
@@ -89,16 +90,7 @@ export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: n
   const gapLimit = Math.max(GAP_PERIOD_FACTOR * period, intervalSpreadLimit(t, 5));
   const gaps: TimeGap[] = [];
   const invalidSpans: Bout[] = [];
-  let missingSamples = 0;
-  for (let i = 1; i < n; i++) {
-    const dt = t[i]! - t[i - 1]!;
-    if (dt > gapLimit) {
-      const interpolated = dt <= MAX_INTERPOLATED_GAP_S + 1e-9;
-      gaps.push({ startS: offset + t[i - 1]!, endS: offset + t[i]!, interpolated });
-      if (!interpolated) invalidSpans.push({ startS: offset + t[i - 1]!, endS: offset + t[i]! });
-      missingSamples += Math.max(0, Math.round(dt / period) - 1);
-    }
-  }
+  const missingSamples = scanGaps(t, gapLimit, offset, period, gaps, invalidSpans);
   // The device clock's rate over the whole file, counting the samples the gaps lost: unbiased under
   // jitter (a mean over "non-gap" intervals leans high because long jittered intervals are dropped).
   const spanS = n > 1 ? t[n - 1]! - t[0]! : 0;
@@ -108,27 +100,21 @@ export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: n
   const last = offset + t[n - 1]!;
   const kStart = Math.max(0, Math.ceil((first - 1e-9) * fs));
   const kEnd = Math.min(m - 1, Math.floor((last + 1e-9) * fs));
-  const grid3 = (x: Float32Array, y: Float32Array, z: Float32Array, mark: Uint8Array | null) =>
-    interpolateOnGrid(t, x, y, z, fs, offset, kStart, kEnd, m, mark);
-  const [gyroX, gyroY, gyroZ] = grid3(rec.gyroX, rec.gyroY, rec.gyroZ, valid);
-  // The accelerometer is interpolated on first use: analyze() reads it only for the yaw of the
-  // leg (or lower-back) sensors, so the wrists' 3 × 4 bytes × grid samples are never allocated.
-  let acc: [Float32Array, Float32Array, Float32Array] | null = null;
-  const accAxis = (c: number): Float32Array => (acc ??= grid3(rec.accX, rec.accY, rec.accZ, null))[c]!;
+  const gyroX = new Float32Array(m);
+  const gyroY = new Float32Array(m);
+  const gyroZ = new Float32Array(m);
+  const accX = new Float32Array(m);
+  const accY = new Float32Array(m);
+  const accZ = new Float32Array(m);
+  interpolateOnGrid(t, fs, offset, kStart, kEnd, valid, rec.gyroX, rec.gyroY, rec.gyroZ, rec.accX, rec.accY, rec.accZ, gyroX, gyroY, gyroZ, accX, accY, accZ);
   return {
     fileName: rec.fileName,
     placement: rec.placement,
     nominalSampleRateHz: rec.nominalSampleRateHz,
     effectiveSampleRateHz,
-    get accX() {
-      return accAxis(0);
-    },
-    get accY() {
-      return accAxis(1);
-    },
-    get accZ() {
-      return accAxis(2);
-    },
+    accX,
+    accY,
+    accZ,
     gyroX,
     gyroY,
     gyroZ,
@@ -141,26 +127,50 @@ export function resampleToGrid(rec: SensorRecording, grid: SessionGrid, index: n
 }
 
 /**
- * Three channels linearly interpolated onto grid samples kStart…kEnd (k / fs − offset on the
- * recording's clock); samples inside a gap longer than MAX_INTERPOLATED_GAP_S stay 0. When `mark`
- * is given, the interpolated samples are set to 1 in it. The three channels are unrolled in one pass.
+ * Intervals longer than gapLimit, pushed to `gaps` (and, beyond MAX_INTERPOLATED_GAP_S, to
+ * `invalidSpans`) on the session time base; returns the number of samples they lost. A small
+ * function of its own so resampleToGrid is not compiled in the middle of this loop.
+ */
+function scanGaps(t: Float64Array, gapLimit: number, offset: number, period: number, gaps: TimeGap[], invalidSpans: Bout[]): number {
+  let missingSamples = 0;
+  for (let i = 1; i < t.length; i++) {
+    const dt = t[i]! - t[i - 1]!;
+    if (dt > gapLimit) {
+      const interpolated = dt <= MAX_INTERPOLATED_GAP_S + 1e-9;
+      gaps.push({ startS: offset + t[i - 1]!, endS: offset + t[i]!, interpolated });
+      if (!interpolated) invalidSpans.push({ startS: offset + t[i - 1]!, endS: offset + t[i]! });
+      missingSamples += Math.max(0, Math.round(dt / period) - 1);
+    }
+  }
+  return missingSamples;
+}
+
+/**
+ * The six channels linearly interpolated onto grid samples kStart…kEnd (k / fs − offset on the
+ * recording's clock), in one pass that finds each sample's interval and weight once for all six;
+ * samples inside a gap longer than MAX_INTERPOLATED_GAP_S stay 0, the others are set to 1 in `mark`.
  */
 function interpolateOnGrid(
   t: Float64Array,
-  x: Float32Array,
-  y: Float32Array,
-  z: Float32Array,
   fs: number,
   offset: number,
   kStart: number,
   kEnd: number,
-  m: number,
-  mark: Uint8Array | null,
-): [Float32Array, Float32Array, Float32Array] {
+  mark: Uint8Array,
+  x: Float32Array,
+  y: Float32Array,
+  z: Float32Array,
+  a: Float32Array,
+  b: Float32Array,
+  c: Float32Array,
+  ox: Float32Array,
+  oy: Float32Array,
+  oz: Float32Array,
+  oa: Float32Array,
+  ob: Float32Array,
+  oc: Float32Array,
+): void {
   const n = t.length;
-  const ox = new Float32Array(m);
-  const oy = new Float32Array(m);
-  const oz = new Float32Array(m);
   let j = 0;
   for (let k = kStart; k <= kEnd; k++) {
     const tl = k / fs - offset;
@@ -177,7 +187,12 @@ function interpolateOnGrid(
     oy[k] = v + (y[r]! - v) * w;
     v = z[j]!;
     oz[k] = v + (z[r]! - v) * w;
-    if (mark) mark[k] = 1;
+    v = a[j]!;
+    oa[k] = v + (a[r]! - v) * w;
+    v = b[j]!;
+    ob[k] = v + (b[r]! - v) * w;
+    v = c[j]!;
+    oc[k] = v + (c[r]! - v) * w;
+    mark[k] = 1;
   }
-  return [ox, oy, oz];
 }
