@@ -78,13 +78,8 @@ export function alignLegClocks(
   const magL = gyroMagnitudeBins(left, eL.factor, bins);
   const magR = gyroMagnitudeBins(right, eL.factor, bins);
   const zeros = new Float32Array(bins);
-  const validOf = (mag: Float32Array) => {
-    const v = new Uint8Array(bins);
-    for (let k = 0; k < bins; k++) v[k] = mag[k] === mag[k] ? 1 : 0; // NaN marks an invalid bin
-    return v;
-  };
   const active = detectWalkingMask(
-    [magL, magR].map((mag) => ({ x: mag, y: zeros, z: zeros, valid: validOf(mag) })),
+    [magL, magR].map((mag) => ({ x: mag, y: zeros, z: zeros, valid: notNaN(mag) })),
     rate,
     bins,
   );
@@ -179,17 +174,31 @@ export function legAlternation(left: Float32Array, right: Float32Array, walking:
 /** |ω| (°/s) averaged over `factor` grid samples per bin; NaN where any sample is invalid. */
 function gyroMagnitudeBins(s: ResampledSensor, factor: number, bins: number): Float32Array {
   const out = new Float32Array(bins);
-  for (let k = 0; k < bins; k++) {
+  binnedMagnitude(s.gyroX, s.gyroY, s.gyroZ, s.valid, factor, out);
+  return out;
+}
+
+// The sample loops are small functions of their own over plain arrays (no property reads per
+// sample), compiled once rather than in the middle of a long first call.
+
+function binnedMagnitude(gx: Float32Array, gy: Float32Array, gz: Float32Array, valid: Uint8Array, factor: number, out: Float32Array): void {
+  for (let k = 0; k < out.length; k++) {
     let sum = 0;
     let ok = true;
     for (let i = k * factor; i < (k + 1) * factor; i++) {
-      if (!s.valid[i]) ok = false;
-      const x = s.gyroX[i]!;
-      const y = s.gyroY[i]!;
-      const z = s.gyroZ[i]!;
+      if (!valid[i]) ok = false;
+      const x = gx[i]!;
+      const y = gy[i]!;
+      const z = gz[i]!;
       sum += Math.sqrt(x * x + y * y + z * z);
     }
     out[k] = ok ? sum / factor : Number.NaN;
   }
-  return out;
+}
+
+/** 1 where mag is a number, 0 where NaN (NaN marks an invalid bin). */
+function notNaN(mag: Float32Array): Uint8Array {
+  const v = new Uint8Array(mag.length);
+  for (let k = 0; k < mag.length; k++) v[k] = mag[k] === mag[k] ? 1 : 0;
+  return v;
 }

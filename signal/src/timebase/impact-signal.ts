@@ -107,14 +107,23 @@ function binMeansHoldingLast(
  * count as edges) are valid and get |(hx, hy, hz)|; the rest stay 0.
  */
 function guardedMagnitude(binOk: Uint8Array, guard: number, hx: Float64Array, hy: Float64Array, hz: Float64Array, binValid: Uint8Array, envelope: Float32Array): void {
-  const m = binOk.length;
+  validAfterGuard(binOk, guard, binValid);
+  magnitudeBeforeGuard(binOk, guard, hx, hy, hz, binValid, envelope);
+}
+
+/** Forward distance: binValid = 1 where more than `guard` valid bins run up to and including k. */
+function validAfterGuard(binOk: Uint8Array, guard: number, binValid: Uint8Array): void {
   let run = 0; // valid bins since the last invalid one
-  for (let k = 0; k < m; k++) {
+  for (let k = 0; k < binOk.length; k++) {
     run = binOk[k] ? run + 1 : 0;
     binValid[k] = run > guard ? 1 : 0;
   }
-  run = 0;
-  for (let k = m - 1; k >= 0; k--) {
+}
+
+/** Backward distance: clears binValid within `guard` bins before an invalid one; the rest get |(hx, hy, hz)|. */
+function magnitudeBeforeGuard(binOk: Uint8Array, guard: number, hx: Float64Array, hy: Float64Array, hz: Float64Array, binValid: Uint8Array, envelope: Float32Array): void {
+  let run = 0;
+  for (let k = binOk.length - 1; k >= 0; k--) {
     run = binOk[k] ? run + 1 : 0;
     if (run <= guard) binValid[k] = 0;
     if (binValid[k]) envelope[k] = Math.sqrt(hx[k]! * hx[k]! + hy[k]! * hy[k]! + hz[k]! * hz[k]!);
