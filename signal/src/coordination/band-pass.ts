@@ -39,9 +39,7 @@ export function zeroPhaseBandPass(
   const sections = butterworthBandSections(order, lowHz, highHz, sampleRateHz);
   const n = x.length;
   if (n === 0) return new Float64Array(0);
-  let mean = 0;
-  for (let i = 0; i < n; i++) mean += x[i]!;
-  mean /= n;
+  const mean = sumOf(x) / n;
   if (n === 1) return Float64Array.of(0);
 
   const padLen = Math.min(n - 1, Math.ceil((3 * sampleRateHz) / lowHz));
@@ -49,11 +47,27 @@ export function zeroPhaseBandPass(
   const first = x[0]! - mean;
   const last = x[n - 1]! - mean;
   for (let i = 0; i < padLen; i++) ext[i] = 2 * first - (x[padLen - i]! - mean);
-  for (let i = 0; i < n; i++) ext[padLen + i] = x[i]! - mean;
+  centredInto(ext, padLen, x, mean);
   for (let i = 0; i < padLen; i++) ext[padLen + n + i] = 2 * last - (x[n - 2 - i]! - mean);
 
   cascadeFiltFilt(sections, ext);
   return ext.slice(padLen, padLen + n);
+}
+
+// The sample loops are small functions of their own that end in a plain return: called a few times
+// per session, each is compiled once, instead of the caller being compiled mid-loop and dropped
+// again when the code after that loop first runs.
+
+/** x[0] + x[1] + … in index order. */
+function sumOf(x: ArrayLike<number>): number {
+  let sum = 0;
+  for (let i = 0; i < x.length; i++) sum += x[i]!;
+  return sum;
+}
+
+/** out[at + i] = x[i] − mean. */
+function centredInto(out: Float64Array, at: number, x: ArrayLike<number>, mean: number): void {
+  for (let i = 0; i < x.length; i++) out[at + i] = x[i]! - mean;
 }
 
 /**
@@ -62,35 +76,40 @@ export function zeroPhaseBandPass(
  * design puts its gain in the first section's b, and x·1 = x exactly): each biquad's registers start
  * at zero and are NOT cleared between the forward and the backward pass. fili's per-sample calls
  * through coefficient objects cost more than the filter itself on a 30-minute signal.
+ *
+ * fili runs every section on one sample before the next sample; here each section runs over the
+ * whole signal before the next section. Each value is the same expression of the same operands
+ * either way (a section's output at sample i depends only on its input at i and its own
+ * registers), so the results are equal bit for bit. The backward pass reverses the signal around
+ * the same forward loop, each section starting from the registers its forward pass ended with.
  */
 function cascadeFiltFilt(sections: readonly Biquad[], y: Float64Array): void {
   const count = sections.length;
-  const a1 = new Float64Array(count);
-  const a2 = new Float64Array(count);
-  const b0 = new Float64Array(count);
-  const b1 = new Float64Array(count);
-  const b2 = new Float64Array(count);
+  // Registers (z0, z1) of section s at 2s, 2s + 1.
+  const registers = new Float64Array(2 * count);
   for (let s = 0; s < count; s++) {
     const c = sections[s]!;
-    a1[s] = c.a1;
-    a2[s] = c.a2;
-    b0[s] = c.b0;
-    b1[s] = c.b1;
-    b2[s] = c.b2;
+    directFormTwoPass(y, c.b0, c.b1, c.b2, c.a1, c.a2, registers, 2 * s);
   }
-  const z0 = new Float64Array(count);
-  const z1 = new Float64Array(count);
+  y.reverse();
+  for (let s = 0; s < count; s++) {
+    const c = sections[s]!;
+    directFormTwoPass(y, c.b0, c.b1, c.b2, c.a1, c.a2, registers, 2 * s);
+  }
+  y.reverse();
+}
+
+/** One biquad (direct form II, fili's `runStage`) over y in place, registers read from and left in z[at], z[at + 1]. */
+function directFormTwoPass(y: Float64Array, b0: number, b1: number, b2: number, a1: number, a2: number, z: Float64Array, at: number): void {
+  let z0 = z[at]!;
+  let z1 = z[at + 1]!;
   const m = y.length;
-  const stepAt = (i: number): void => {
-    let out = y[i]!;
-    for (let s = 0; s < count; s++) {
-      const temp = out - a1[s]! * z0[s]! - a2[s]! * z1[s]!;
-      out = b0[s]! * temp + b1[s]! * z0[s]! + b2[s]! * z1[s]!;
-      z1[s] = z0[s]!;
-      z0[s] = temp;
-    }
-    y[i] = out;
-  };
-  for (let i = 0; i < m; i++) stepAt(i);
-  for (let i = m - 1; i >= 0; i--) stepAt(i);
+  for (let i = 0; i < m; i++) {
+    const temp = y[i]! - a1 * z0 - a2 * z1;
+    y[i] = b0 * temp + b1 * z0 + b2 * z1;
+    z1 = z0;
+    z0 = temp;
+  }
+  z[at] = z0;
+  z[at + 1] = z1;
 }
