@@ -77,8 +77,8 @@ export function projectOnAxis(
 }
 
 /**
- * [count, sums of products about the means xx yy zz xy xz yz] over the masked samples. Its own
- * small function so the sample loops are compiled once for every caller rather than inside
+ * [count, sums of products about the means xx yy zz xy xz yz] over the masked samples. Each sample
+ * loop is a small function of its own, compiled once for every caller rather than inside
  * sagittalAxis with the eigen-solver inlined.
  */
 function maskedMoments3(
@@ -87,22 +87,49 @@ function maskedMoments3(
   gyroZ: ArrayLike<number>,
   mask: Uint8Array,
 ): [number, number, number, number, number, number, number] {
+  const [count, sx, sy, sz] = maskedSums3(gyroX, gyroY, gyroZ, mask);
+  if (count < MIN_AXIS_SAMPLES) return [count, 0, 0, 0, 0, 0, 0];
+  return [count, ...maskedProducts3(gyroX, gyroY, gyroZ, mask, sx / count, sy / count, sz / count)];
+}
+
+// The two loops read and add every sample and let the mask choose between the sample and 0 (the
+// same sums: a sum that starts at +0 is never −0, and adding +0 leaves any other value unchanged).
+// A recording usually starts with a stretch outside the mask; a loop that skipped those samples was
+// compiled while it had not yet read or added a single one, and compiled again when it first did.
+// The results come back as a new array, not stored into one: the stores after the loop have not
+// run either when the loop is first compiled.
+
+/** [count, Σx, Σy, Σz] of three channels over the masked samples (summed in sample order). */
+export function maskedSums3(gyroX: ArrayLike<number>, gyroY: ArrayLike<number>, gyroZ: ArrayLike<number>, mask: Uint8Array): [number, number, number, number] {
   const n = gyroX.length;
   let count = 0;
-  let mx = 0;
-  let my = 0;
-  let mz = 0;
+  let sx = 0;
+  let sy = 0;
+  let sz = 0;
   for (let i = 0; i < n; i++) {
-    if (!mask[i]) continue;
-    count++;
-    mx += gyroX[i]!;
-    my += gyroY[i]!;
-    mz += gyroZ[i]!;
+    const on = mask[i]! > 0;
+    const x = gyroX[i]!;
+    const y = gyroY[i]!;
+    const z = gyroZ[i]!;
+    count += on ? 1 : 0;
+    sx += on ? x : 0;
+    sy += on ? y : 0;
+    sz += on ? z : 0;
   }
-  if (count < MIN_AXIS_SAMPLES) return [count, 0, 0, 0, 0, 0, 0];
-  mx /= count;
-  my /= count;
-  mz /= count;
+  return [count, sx, sy, sz];
+}
+
+/** [Σ of xx yy zz xy xz yz] about (mx, my, mz) over the masked samples (in sample order). */
+function maskedProducts3(
+  gyroX: ArrayLike<number>,
+  gyroY: ArrayLike<number>,
+  gyroZ: ArrayLike<number>,
+  mask: Uint8Array,
+  mx: number,
+  my: number,
+  mz: number,
+): [number, number, number, number, number, number] {
+  const n = gyroX.length;
   let sxx = 0;
   let syy = 0;
   let szz = 0;
@@ -110,16 +137,16 @@ function maskedMoments3(
   let sxz = 0;
   let syz = 0;
   for (let i = 0; i < n; i++) {
-    if (!mask[i]) continue;
+    const on = mask[i]! > 0;
     const x = gyroX[i]! - mx;
     const y = gyroY[i]! - my;
     const z = gyroZ[i]! - mz;
-    sxx += x * x;
-    syy += y * y;
-    szz += z * z;
-    sxy += x * y;
-    sxz += x * z;
-    syz += y * z;
+    sxx += on ? x * x : 0;
+    syy += on ? y * y : 0;
+    szz += on ? z * z : 0;
+    sxy += on ? x * y : 0;
+    sxz += on ? x * z : 0;
+    syz += on ? y * z : 0;
   }
-  return [count, sxx, syy, szz, sxy, sxz, syz];
+  return [sxx, syy, szz, sxy, sxz, syz];
 }

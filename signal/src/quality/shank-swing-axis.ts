@@ -1,3 +1,5 @@
+import { maskedSums3 } from "../orientation/sagittal-axis";
+
 /**
  * A shank sensor's main rotation should be the swing about the mediolateral axis, which is at right
  * angles to the shank's long axis. When the strap is loose or rotated the gyroscope's largest
@@ -29,15 +31,9 @@ export function shankSwingAxisCheck(
   axis: readonly [number, number, number],
   mask: Uint8Array,
 ): ShankSwingAxisCheck {
-  let x = 0;
-  let y = 0;
-  let z = 0;
-  for (let i = 0; i < mask.length; i++) {
-    if (!mask[i]) continue;
-    x += accX[i]!;
-    y += accY[i]!;
-    z += accZ[i]!;
-  }
+  // The masked sums through the loop the sagittal axis uses (same sums, in sample order), compiled
+  // once for both.
+  const [, x, y, z] = maskedSums3(accX, accY, accZ, mask);
   const norm = Math.hypot(x, y, z);
   const axisNorm = Math.hypot(axis[0], axis[1], axis[2]);
   if (!(norm > 0) || !(axisNorm > 0)) return { plausible: true, angleToLongAxisDeg: null };
