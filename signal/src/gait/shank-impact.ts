@@ -39,29 +39,40 @@ export const IMPACT_MIN_RATIO_TO_MEDIAN = 3;
  */
 export function shankImpactMagnitude(acc: ShankAcceleration, mask: Uint8Array, sampleRateHz: number): Float64Array | null {
   if (IMPACT_HIGH_PASS_HZ >= 0.4 * sampleRateHz) return null;
-  const n = mask.length;
-  const out = new Float64Array(n);
   const sections = butterworthSections("lowpass", 4, IMPACT_HIGH_PASS_HZ, sampleRateHz);
   const axes = [acc.accX, acc.accY, acc.accZ] as const;
   const low = zeroPhaseSegments3(axes, [sections, sections, sections], mask);
-  for (let c = 0; c < 3; c++) addSquaredResidual(out, axes[c]!, low[c]!, mask);
-  sqrtInPlace(out);
-  return out;
+  return residualMagnitude(axes[0], axes[1], axes[2], low[0], low[1], low[2], mask);
 }
 
-// Sample loops in small functions of their own: compiled once, not inside shankImpactMagnitude with
-// the segment filter inlined while its first long loop runs.
-
-/** out[i] += (x[i] − low[i])² where masked (x − low is the high-passed axis). */
-function addSquaredResidual(out: Float64Array, x: ArrayLike<number>, low: Float64Array, mask: Uint8Array): void {
-  for (let i = 0; i < out.length; i++) {
-    const h = mask[i] ? x[i]! - low[i]! : 0;
-    out[i]! += h * h;
+/**
+ * √((x − lx)² + (y − ly)² + (z − lz)²) where masked, 0 elsewhere (x − lx is the high-passed axis):
+ * the squares added in axis order, one loop of its own (compiled once, not inside
+ * shankImpactMagnitude with the segment filter inlined while its first long loop runs). Every
+ * sample is read and its magnitude taken, masked or not (the mask picks the magnitude or 0): a walk
+ * starts outside the mask, and a loop that skipped those samples was compiled before it had read
+ * or computed anything, then compiled again when it first did.
+ */
+function residualMagnitude(
+  x: ArrayLike<number>,
+  y: ArrayLike<number>,
+  z: ArrayLike<number>,
+  lx: Float64Array,
+  ly: Float64Array,
+  lz: Float64Array,
+  mask: Uint8Array,
+): Float64Array {
+  const n = mask.length;
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const on = mask[i]! > 0;
+    const hx = x[i]! - lx[i]!;
+    const hy = y[i]! - ly[i]!;
+    const hz = z[i]! - lz[i]!;
+    const magnitude = Math.sqrt(hx * hx + hy * hy + hz * hz);
+    out[i] = on ? magnitude : 0;
   }
-}
-
-function sqrtInPlace(x: Float64Array): void {
-  for (let i = 0; i < x.length; i++) x[i] = Math.sqrt(x[i]!);
+  return out;
 }
 
 /**
