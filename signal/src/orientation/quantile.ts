@@ -12,10 +12,14 @@ export function quantileOfMasked(values: ArrayLike<number>, mask: Uint8Array | n
 
 /** Several quantiles of the same masked values (one subsample, one sort); null when none. */
 export function quantilesOfMasked(values: ArrayLike<number>, mask: Uint8Array | null, qs: readonly number[]): number[] | null {
-  const count = countMasked(values.length, mask);
+  const count = mask ? countMasked(mask, values.length) : values.length;
   if (count === 0) return null;
   const step = Math.max(1, Math.ceil(count / MAX_QUANTILE_SAMPLES));
-  const kept = everyStepMasked(values, mask, step, Math.ceil(count / step));
+  const capacity = Math.ceil(count / step);
+  // One spare slot: everyStepMasked writes every sample to the next free slot and only then decides
+  // whether the slot is taken.
+  const buf = new Float64Array(capacity + 1);
+  const kept = buf.subarray(0, everyStepMasked(values, mask, step, buf));
   const m = kept.length;
   const hasNaN = containsNaN(kept);
   // Only two order statistics per quantile are read, so selecting them (O(m)) gives the same values
@@ -31,26 +35,35 @@ export function quantilesOfMasked(values: ArrayLike<number>, mask: Uint8Array | 
   });
 }
 
-// The sample loops are small functions of their own, compiled once for every caller.
+// The sample loops are small functions of their own, compiled once for every caller. They read every
+// sample and let the mask decide what counts: a walk starts with a stretch outside the mask, and a
+// loop that skipped those samples was compiled before it had read or stored a single one, then
+// compiled again when it first did. For the same reason their results come back as plain numbers
+// (what follows a loop has not run either when the loop is first compiled).
 
-function countMasked(n: number, mask: Uint8Array | null): number {
-  if (!mask) return n;
+/** Number of set entries among the first n of the mask. */
+function countMasked(mask: Uint8Array, n: number): number {
   let count = 0;
-  for (let i = 0; i < n; i++) if (mask[i]) count++;
+  for (let i = 0; i < n; i++) count += mask[i]! > 0 ? 1 : 0;
   return count;
 }
 
-/** Every step-th masked value (at most `capacity`), in order. */
-function everyStepMasked(values: ArrayLike<number>, mask: Uint8Array | null, step: number, capacity: number): Float64Array {
-  const buf = new Float64Array(capacity);
+/**
+ * Every step-th masked value (all values when mask is null), in order, into buf (at least one slot
+ * longer than the number taken); returns how many were taken.
+ */
+function everyStepMasked(values: ArrayLike<number>, mask: Uint8Array | null, step: number, buf: Float64Array): number {
+  const n = values.length;
+  const capacity = buf.length - 1;
   let seen = 0;
   let m = 0;
-  for (let i = 0; i < values.length; i++) {
-    if (mask && !mask[i]) continue;
-    if (seen % step === 0 && m < buf.length) buf[m++] = values[i]!;
-    seen++;
+  for (let i = 0; i < n; i++) {
+    const on = mask === null || mask[i]! > 0;
+    buf[m] = values[i]!;
+    m += on && seen % step === 0 && m < capacity ? 1 : 0;
+    seen += on ? 1 : 0;
   }
-  return buf.subarray(0, m);
+  return m;
 }
 
 function containsNaN(x: Float64Array): boolean {
@@ -66,28 +79,22 @@ function containsNaN(x: Float64Array): boolean {
 function selectOrderStatistic(x: Float64Array, k: number): number {
   let lo = 0;
   let hi = x.length - 1;
+  const bounds = new Int32Array(2);
   while (hi > lo) {
     const mid = (lo + hi) >> 1;
     // Median of three as the pivot: sorted or reversed input stays O(m).
     let a = x[lo]!;
     let b = x[mid]!;
     const c = x[hi]!;
-    if (a > b) [a, b] = [b, a];
-    if (b > c) b = c < a ? a : c;
-    const pivot = b;
-    let i = lo;
-    let j = hi;
-    while (i <= j) {
-      while (x[i]! < pivot) i++;
-      while (x[j]! > pivot) j--;
-      if (i <= j) {
-        const t = x[i]!;
-        x[i] = x[j]!;
-        x[j] = t;
-        i++;
-        j--;
-      }
+    if (a > b) {
+      const t = a;
+      a = b;
+      b = t;
     }
+    if (b > c) b = c < a ? a : c;
+    partition(x, lo, hi, b, bounds);
+    const i = bounds[0]!;
+    const j = bounds[1]!;
     if (k <= j) hi = j;
     else if (k >= i) lo = i;
     else break;
@@ -95,9 +102,35 @@ function selectOrderStatistic(x: Float64Array, k: number): number {
   return x[k]!;
 }
 
+/**
+ * Hoare's partition of x[lo…hi] around `pivot`: afterwards x[lo…j] ≤ pivot ≤ x[i…hi], with
+ * bounds = [i, j]. The loop of its own (the selection around it runs a few dozen times, the loop
+ * over every sample); the bounds are stored on every pass of the loop rather than once after it.
+ */
+function partition(x: Float64Array, lo: number, hi: number, pivot: number, bounds: Int32Array): void {
+  let i = lo;
+  let j = hi;
+  while (i <= j) {
+    while (x[i]! < pivot) i++;
+    while (x[j]! > pivot) j--;
+    if (i <= j) {
+      const t = x[i]!;
+      x[i] = x[j]!;
+      x[j] = t;
+      i++;
+      j--;
+    }
+    bounds[0] = i;
+    bounds[1] = j;
+  }
+}
+
 /** Smallest of x[from…]: after selectOrderStatistic(x, from − 1) that is the next order statistic. */
 function minFrom(x: Float64Array, from: number): number {
   let v = x[from]!;
-  for (let i = from + 1; i < x.length; i++) if (x[i]! < v) v = x[i]!;
+  for (let i = from + 1; i < x.length; i++) {
+    const w = x[i]!;
+    if (w < v) v = w;
+  }
   return v;
 }
