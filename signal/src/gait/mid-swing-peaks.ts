@@ -41,10 +41,17 @@ export function signalRelativeThresholds(msSignal: ArrayLike<number>, mask: Uint
 export function findPeaks(x: ArrayLike<number>, mask: Uint8Array, threshold: number, minDistance: number): number[] {
   const n = x.length;
   const candidates: number[] = [];
+  // Every sample's tests are evaluated, masked or not, and only then combined: a walk starts with a
+  // stretch outside the mask, and a loop that skipped those samples was compiled before it had
+  // read or compared a single value, then compiled again when it first did. The mask product is
+  // positive exactly when all three samples are masked.
   for (let i = 1; i < n - 1; i++) {
-    if (!mask[i] || !mask[i - 1] || !mask[i + 1]) continue;
     const v = x[i]!;
-    if (v > threshold && v > x[i - 1]! && v >= x[i + 1]!) candidates.push(i);
+    const inside = mask[i - 1]! * mask[i]! * mask[i + 1]! > 0;
+    const above = v > threshold;
+    const rising = v > x[i - 1]!;
+    const notFalling = v >= x[i + 1]!;
+    if (inside && above && rising && notFalling) candidates.push(i);
   }
   candidates.sort((a, b) => x[b]! - x[a]!);
   const taken = new Uint8Array(n);
