@@ -46,32 +46,65 @@ export function yawRateAboutGravity(
   const factor = Math.max(1, Math.floor(sampleRateHz / YAW_TARGET_RATE_HZ));
   const rate = sampleRateHz / factor;
   const m = Math.floor(s.valid.length / factor);
-  const ch = [s.accX, s.accY, s.accZ, s.gyroX, s.gyroY, s.gyroZ].map(() => new Float64Array(m));
-  const src = [s.accX, s.accY, s.accZ, s.gyroX, s.gyroY, s.gyroZ];
+  const valid = blockValid(s.valid, factor, m);
+  const ch = [s.accX, s.accY, s.accZ, s.gyroX, s.gyroY, s.gyroZ].map((x) => blockMeans(x, valid, factor));
+  const gravity = butterworthSections("lowpass", 2, GRAVITY_LOW_PASS_HZ, rate);
+  const [gx, gy, gz] = zeroPhaseSegments3([ch[0]!, ch[1]!, ch[2]!], [gravity, gravity, gravity], valid);
+  const yaw = rateAlong(ch[3]!, ch[4]!, ch[5]!, gx, gy, gz, valid);
+  return { yawDegS: lowPassZeroPhaseSegments(yaw, valid, rate, YAW_LOW_PASS_HZ, 2), valid, sampleRateHz: rate, factor };
+}
+
+// The sample loops are small functions of their own: each is compiled once for all its channels and
+// sensors, rather than yawRateAboutGravity being compiled (filters inlined) in the middle of its
+// first long loop and again when the code after it first runs.
+
+/** 1 for each block of `factor` samples that are all valid (blocks k = 0 … m − 1). */
+function blockValid(sampleValid: Uint8Array, factor: number, m: number): Uint8Array {
   const valid = new Uint8Array(m);
   for (let k = 0; k < m; k++) {
     let ok = 1;
     const o = k * factor;
-    for (let i = 0; i < factor; i++) ok &= s.valid[o + i]!;
+    for (let i = 0; i < factor; i++) ok &= sampleValid[o + i]!;
     valid[k] = ok;
-    if (!ok) continue;
-    for (let c = 0; c < 6; c++) {
-      let sum = 0;
-      const x = src[c]!;
-      for (let i = 0; i < factor; i++) sum += x[o + i]!;
-      ch[c]![k] = sum / factor;
-    }
   }
-  const gravity = butterworthSections("lowpass", 2, GRAVITY_LOW_PASS_HZ, rate);
-  const [gx, gy, gz] = zeroPhaseSegments3([ch[0]!, ch[1]!, ch[2]!], [gravity, gravity, gravity], valid);
+  return valid;
+}
+
+/** Mean of each valid block of `factor` samples (summed in sample order, then divided); 0 for invalid blocks. */
+function blockMeans(x: ArrayLike<number>, valid: Uint8Array, factor: number): Float64Array {
+  const m = valid.length;
+  const out = new Float64Array(m);
+  for (let k = 0; k < m; k++) {
+    let sum = 0;
+    const o = k * factor;
+    for (let i = 0; i < factor; i++) sum += x[o + i]!;
+    out[k] = valid[k] ? sum / factor : 0;
+  }
+  return out;
+}
+
+/**
+ * Angular rate about the direction of (gx, gy, gz): (ω · g) / |g| per valid sample, 0 where invalid
+ * or |g| < 1e-6. Every sample is computed and the validity then picks the value or 0, so the loop
+ * is not first compiled before it has computed a single one (a recording may start invalid).
+ */
+function rateAlong(
+  wx: Float64Array,
+  wy: Float64Array,
+  wz: Float64Array,
+  gx: Float64Array,
+  gy: Float64Array,
+  gz: Float64Array,
+  valid: Uint8Array,
+): Float64Array {
+  const m = valid.length;
   const yaw = new Float64Array(m);
   for (let i = 0; i < m; i++) {
-    if (!valid[i]) continue;
     const norm = hypot3(gx[i]!, gy[i]!, gz[i]!);
-    if (norm < 1e-6) continue;
-    yaw[i] = (ch[3]![i]! * gx[i]! + ch[4]![i]! * gy[i]! + ch[5]![i]! * gz[i]!) / norm;
+    const rate = (wx[i]! * gx[i]! + wy[i]! * gy[i]! + wz[i]! * gz[i]!) / norm;
+    yaw[i] = !valid[i] || norm < 1e-6 ? 0 : rate;
   }
-  return { yawDegS: lowPassZeroPhaseSegments(yaw, valid, rate, YAW_LOW_PASS_HZ, 2), valid, sampleRateHz: rate, factor };
+  return yaw;
 }
 
 /** Turns from a yaw-rate trace (°/s): onset/extension thresholds, same-direction merging, angle and duration limits. */
