@@ -94,9 +94,7 @@ export function armLegCouplingDetail(
 
   const armBand = bandPassAroundFundamental(armAngle, rateHz, armFundamentalHz);
   const legBand = bandPassAroundFundamental(legAngle, rateHz, strideFrequencyHz);
-  let sumSq = 0;
-  for (let i = 0; i < armBand.length; i++) if (mask[i] === 1) sumSq += armBand[i]! * armBand[i]!;
-  if (Math.sqrt(sumSq / steadyCount) < MIN_ARM_ANGLE_RMS_DEG) {
+  if (Math.sqrt(maskedSumOfSquares(armBand, mask) / steadyCount) < MIN_ARM_ANGLE_RMS_DEG) {
     return { ...none("arm rhythm below the measurable amplitude", strideCount, rhythm), frequencyRatio: rhythm.frequencyRatio };
   }
 
@@ -144,8 +142,20 @@ function decimate(
   const arm = new Float64Array(blocks);
   const leg = new Float64Array(blocks);
   const mask = new Uint8Array(blocks);
+  const steadyCount = blockMeans(armIn, legIn, steadyIn, factor, arm, leg, mask);
+  return { arm, leg, mask, steadyCount };
+}
+
+// The sample loops are small functions of their own that end in a plain return: each is compiled
+// once for both arms, instead of its caller being compiled mid-loop and dropped after it.
+
+/**
+ * Per block of `factor` samples: the arm's and the leg's mean (sums over the finite pairs, divided by
+ * the block length) and mask 1 when every pair is finite and steady. Returns the number of such blocks.
+ */
+function blockMeans(armIn: Float64Array, legIn: Float64Array, steadyIn: Uint8Array, factor: number, arm: Float64Array, leg: Float64Array, mask: Uint8Array): number {
   let steadyCount = 0;
-  for (let b = 0; b < blocks; b++) {
+  for (let b = 0; b < mask.length; b++) {
     let sa = 0;
     let sl = 0;
     let ok = 1;
@@ -163,5 +173,12 @@ function decimate(
     mask[b] = ok;
     steadyCount += ok;
   }
-  return { arm, leg, mask, steadyCount };
+  return steadyCount;
+}
+
+/** Σ x[i]² over mask[i] = 1, in index order. */
+function maskedSumOfSquares(x: Float64Array, mask: Uint8Array): number {
+  let sumSq = 0;
+  for (let i = 0; i < x.length; i++) if (mask[i] === 1) sumSq += x[i]! * x[i]!;
+  return sumSq;
 }

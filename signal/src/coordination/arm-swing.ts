@@ -39,24 +39,33 @@ export function armSwingAmplitude(
     const from = Math.max(0, Math.ceil(c.startS * sampleRateHz));
     const to = Math.min(angle.length, Math.floor(c.endS * sampleRateHz));
     if (to - from < 3) continue;
-    let lo = Number.POSITIVE_INFINITY;
-    let hi = Number.NEGATIVE_INFINITY;
-    let ok = true;
-    for (let i = from; i < to; i++) {
-      if (!valid[i] || !Number.isFinite(armOmegaDegS[i]!)) {
-        ok = false;
-        break;
-      }
-      lo = Math.min(lo, angle[i]!);
-      hi = Math.max(hi, angle[i]!);
-    }
-    if (ok) ranges.push(hi - lo);
+    const range = rangeOfMotion(angle, armOmegaDegS, valid, from, to);
+    if (range !== NOT_USABLE) ranges.push(range);
   }
   if (ranges.length < MIN_ARM_SWING_CYCLES) return null;
   ranges.sort((a, b) => a - b);
   const mid = ranges.length >> 1;
   const median = ranges.length % 2 === 1 ? ranges[mid]! : 0.5 * (ranges[mid - 1]! + ranges[mid]!);
   return { amplitudeDeg: median, cycleCount: ranges.length };
+}
+
+/** rangeOfMotion's answer for a cycle that holds an invalid or non-finite sample (a range is ≥ 0 or NaN). */
+const NOT_USABLE = -1;
+
+/**
+ * max − min of angle[from, to), or NOT_USABLE when a sample there is invalid or its ω is not finite.
+ * A small function of its own, so it is compiled once for every cycle of both arms instead of
+ * armSwingAmplitude being compiled in the middle of its cycle loop.
+ */
+function rangeOfMotion(angle: Float64Array, omega: Float64Array, valid: Uint8Array, from: number, to: number): number {
+  let lo = Number.POSITIVE_INFINITY;
+  let hi = Number.NEGATIVE_INFINITY;
+  for (let i = from; i < to; i++) {
+    if (!valid[i] || !Number.isFinite(omega[i]!)) return NOT_USABLE;
+    lo = Math.min(lo, angle[i]!);
+    hi = Math.max(hi, angle[i]!);
+  }
+  return hi - lo;
 }
 
 /**

@@ -66,26 +66,9 @@ function bluesteinPlan(n: number): BluesteinPlan {
   while (m < 2 * n - 1) m *= 2;
   const fft = fftOfSize(m);
   const chirp = new Float64Array(2 * n);
-  // k² mod 2N keeps the angle small, so the chirp stays exact to rounding for large N.
-  let k2 = 0;
-  const twoN = 2 * n;
-  for (let k = 0; k < n; k++) {
-    const angle = (-Math.PI * k2) / n;
-    chirp[2 * k] = Math.cos(angle);
-    chirp[2 * k + 1] = Math.sin(angle);
-    k2 = (k2 + 2 * k + 1) % twoN;
-  }
+  fillChirp(chirp, n);
   const filter = new Float64Array(2 * m);
-  filter[0] = chirp[0]!;
-  filter[1] = -chirp[1]!;
-  for (let k = 1; k < n; k++) {
-    const re = chirp[2 * k]!;
-    const im = -chirp[2 * k + 1]!;
-    filter[2 * k] = re;
-    filter[2 * k + 1] = im;
-    filter[2 * (m - k)] = re;
-    filter[2 * (m - k) + 1] = im;
-  }
+  fillChirpFilter(filter, chirp, n, m);
   const filterSpectrum = new Float64Array(2 * m);
   fft.transform(filterSpectrum, filter);
   const plan = { n, m, fft, chirp, filterSpectrum, work: filter, workSpectrum: new Float64Array(2 * m) };
@@ -117,50 +100,23 @@ export function dft(
   if (isPowerOfTwo(n)) {
     const fft = fftOfSize(n);
     const input = new Float64Array(2 * n);
-    for (let i = 0; i < n; i++) {
-      input[2 * i] = real[i]!;
-      input[2 * i + 1] = imag ? imag[i]! : 0;
-    }
+    interleave(input, real, imag);
     const out = new Float64Array(2 * n);
     fft.transform(out, input);
-    for (let i = 0; i < n; i++) {
-      re[i] = out[2 * i]!;
-      im[i] = out[2 * i + 1]!;
-    }
+    deinterleave(re, im, out);
     return { re, im };
   }
   const plan = bluesteinPlan(n);
-  const { m, fft, chirp, filterSpectrum } = plan;
+  const { fft, chirp, filterSpectrum } = plan;
   const a = plan.work;
   a.fill(0);
-  for (let k = 0; k < n; k++) {
-    const xr = real[k]!;
-    const xi = imag ? imag[k]! : 0;
-    const cr = chirp[2 * k]!;
-    const ci = chirp[2 * k + 1]!;
-    a[2 * k] = xr * cr - xi * ci;
-    a[2 * k + 1] = xr * ci + xi * cr;
-  }
+  chirpTimes(a, real, imag, chirp);
   const spectrum = plan.workSpectrum;
   fft.transform(spectrum, a);
-  for (let k = 0; k < m; k++) {
-    const ar = spectrum[2 * k]!;
-    const ai = spectrum[2 * k + 1]!;
-    const br = filterSpectrum[2 * k]!;
-    const bi = filterSpectrum[2 * k + 1]!;
-    spectrum[2 * k] = ar * br - ai * bi;
-    spectrum[2 * k + 1] = ar * bi + ai * br;
-  }
+  multiplyInPlace(spectrum, filterSpectrum);
   // fft.js's inverseTransform divides by the size M, which is what the convolution needs.
   fft.inverseTransform(a, spectrum);
-  for (let k = 0; k < n; k++) {
-    const yr = a[2 * k]!;
-    const yi = a[2 * k + 1]!;
-    const cr = chirp[2 * k]!;
-    const ci = chirp[2 * k + 1]!;
-    re[k] = yr * cr - yi * ci;
-    im[k] = yr * ci + yi * cr;
-  }
+  chirpTimesInterleaved(re, im, a, chirp);
   return { re, im };
 }
 
@@ -168,11 +124,102 @@ export function dft(
 export function inverseDft(real: ArrayLike<number>, imag: ArrayLike<number>): { re: Float64Array; im: Float64Array } {
   const n = real.length;
   const negImag = new Float64Array(n);
-  for (let i = 0; i < n; i++) negImag[i] = -imag[i]!;
+  negateInto(negImag, imag);
   const out = dft(real, negImag);
-  for (let i = 0; i < n; i++) {
-    out.re[i] = out.re[i]! / n;
-    out.im[i] = -out.im[i]! / n;
-  }
+  scaleConjugateInPlace(out.re, out.im, n);
   return out;
+}
+
+// The sample loops are small functions of their own that end in a plain return. A session calls
+// dft a handful of times on long signals; with the loops inline, the whole of dft was compiled in
+// the middle of its first loop and dropped when the next loop began, several times per call.
+
+/** Chirp c_k = exp(−iπk²/N) interleaved; k² mod 2N keeps the angle small, so it stays exact to rounding for large N. */
+function fillChirp(chirp: Float64Array, n: number): void {
+  let k2 = 0;
+  const twoN = 2 * n;
+  for (let k = 0; k < n; k++) {
+    const angle = (-Math.PI * k2) / n;
+    chirp[2 * k] = Math.cos(angle);
+    chirp[2 * k + 1] = Math.sin(angle);
+    k2 = (k2 + 2 * k + 1) % twoN;
+  }
+}
+
+/** The conjugate chirp as a circular convolution kernel of length M: conj(c_k) at k and at M − k. */
+function fillChirpFilter(filter: Float64Array, chirp: Float64Array, n: number, m: number): void {
+  filter[0] = chirp[0]!;
+  filter[1] = -chirp[1]!;
+  for (let k = 1; k < n; k++) {
+    const re = chirp[2 * k]!;
+    const im = -chirp[2 * k + 1]!;
+    filter[2 * k] = re;
+    filter[2 * k + 1] = im;
+    filter[2 * (m - k)] = re;
+    filter[2 * (m - k) + 1] = im;
+  }
+}
+
+/** out = real + i·imag interleaved (imag null: 0). */
+function interleave(out: Float64Array, real: ArrayLike<number>, imag: ArrayLike<number> | null): void {
+  for (let i = 0; i < real.length; i++) {
+    out[2 * i] = real[i]!;
+    out[2 * i + 1] = imag ? imag[i]! : 0;
+  }
+}
+
+/** re, im = the first re.length complex values of the interleaved z. */
+function deinterleave(re: Float64Array, im: Float64Array, z: Float64Array): void {
+  for (let i = 0; i < re.length; i++) {
+    re[i] = z[2 * i]!;
+    im[i] = z[2 * i + 1]!;
+  }
+}
+
+/** a[k] = (real[k] + i·imag[k]) · c_k interleaved, for k < N (imag null: 0). */
+function chirpTimes(a: Float64Array, real: ArrayLike<number>, imag: ArrayLike<number> | null, chirp: Float64Array): void {
+  for (let k = 0; k < real.length; k++) {
+    const xr = real[k]!;
+    const xi = imag ? imag[k]! : 0;
+    const cr = chirp[2 * k]!;
+    const ci = chirp[2 * k + 1]!;
+    a[2 * k] = xr * cr - xi * ci;
+    a[2 * k + 1] = xr * ci + xi * cr;
+  }
+}
+
+/** spectrum ·= filter, complex, interleaved, elementwise. */
+function multiplyInPlace(spectrum: Float64Array, filter: Float64Array): void {
+  for (let k = 0; k < spectrum.length >> 1; k++) {
+    const ar = spectrum[2 * k]!;
+    const ai = spectrum[2 * k + 1]!;
+    const br = filter[2 * k]!;
+    const bi = filter[2 * k + 1]!;
+    spectrum[2 * k] = ar * br - ai * bi;
+    spectrum[2 * k + 1] = ar * bi + ai * br;
+  }
+}
+
+/** re[k] + i·im[k] = y_k · c_k for k < N, y interleaved. */
+function chirpTimesInterleaved(re: Float64Array, im: Float64Array, y: Float64Array, chirp: Float64Array): void {
+  for (let k = 0; k < re.length; k++) {
+    const yr = y[2 * k]!;
+    const yi = y[2 * k + 1]!;
+    const cr = chirp[2 * k]!;
+    const ci = chirp[2 * k + 1]!;
+    re[k] = yr * cr - yi * ci;
+    im[k] = yr * ci + yi * cr;
+  }
+}
+
+function negateInto(out: Float64Array, x: ArrayLike<number>): void {
+  for (let i = 0; i < out.length; i++) out[i] = -x[i]!;
+}
+
+/** (re, im) ← (re / n, −im / n). */
+function scaleConjugateInPlace(re: Float64Array, im: Float64Array, n: number): void {
+  for (let i = 0; i < re.length; i++) {
+    re[i] = re[i]! / n;
+    im[i] = -im[i]! / n;
+  }
 }

@@ -46,17 +46,28 @@ export function hilbertPhasePair(x: ArrayLike<number>, y: ArrayLike<number>): [F
   const py = new Float64Array(n);
   if (n === 0) return [px, py];
   const z = dft(x, y);
+  timesMinusISign(z.re, z.im);
+  const h = inverseDft(z.re, z.im);
+  phaseInto(px, h.re, x);
+  phaseInto(py, h.im, y);
+  return [px, py];
+}
+
+// The loops are small functions of their own (see dft.ts): compiled once, not mid-call.
+
+/** Spectrum ·= −i·sgn(k), with DC and (for even N) Nyquist zeroed. */
+function timesMinusISign(re: Float64Array, im: Float64Array): void {
+  const n = re.length;
   const half = Math.floor(n / 2);
   for (let k = 0; k < n; k++) {
     const s = k === 0 || (n % 2 === 0 && k === half) ? 0 : k <= half ? 1 : -1;
-    const re = z.re[k]!;
-    z.re[k] = s * z.im[k]!;
-    z.im[k] = -s * re;
+    const r = re[k]!;
+    re[k] = s * im[k]!;
+    im[k] = -s * r;
   }
-  const h = inverseDft(z.re, z.im);
-  for (let i = 0; i < n; i++) {
-    px[i] = Math.atan2(h.re[i]!, x[i]!);
-    py[i] = Math.atan2(h.im[i]!, y[i]!);
-  }
-  return [px, py];
+}
+
+/** out[i] = atan2(h[i], x[i]). */
+function phaseInto(out: Float64Array, h: Float64Array, x: ArrayLike<number>): void {
+  for (let i = 0; i < out.length; i++) out[i] = Math.atan2(h[i]!, x[i]!);
 }

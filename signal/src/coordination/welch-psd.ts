@@ -39,12 +39,7 @@ export function welchPsd(x: ArrayLike<number>, sampleRateHz: number, options: We
   const minFraction = options.minMaskFraction ?? 1;
 
   const window = new Float64Array(L);
-  let windowPower = 0;
-  for (let i = 0; i < L; i++) {
-    const w = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / L);
-    window[i] = w;
-    windowPower += w * w;
-  }
+  const windowPower = hannInto(window);
   const bins = L / 2 + 1;
   const psd = new Float64Array(bins);
   const frequenciesHz = new Float64Array(bins);
@@ -54,7 +49,7 @@ export function welchPsd(x: ArrayLike<number>, sampleRateHz: number, options: We
   let maskPrefix: Float64Array | null = null;
   if (mask) {
     maskPrefix = new Float64Array(x.length + 1);
-    for (let i = 0; i < x.length; i++) maskPrefix[i + 1] = maskPrefix[i]! + (mask[i] === 1 ? 1 : 0);
+    maskPrefixInto(maskPrefix, mask);
   }
 
   const fft = new FFT(L);
@@ -63,16 +58,9 @@ export function welchPsd(x: ArrayLike<number>, sampleRateHz: number, options: We
   let count = 0;
   for (let start = 0; start + L <= x.length; start += step) {
     if (maskPrefix && (maskPrefix[start + L]! - maskPrefix[start]!) / L < minFraction) continue;
-    let mean = 0;
-    for (let i = 0; i < L; i++) mean += x[start + i]!;
-    mean /= L;
-    for (let i = 0; i < L; i++) segment[i] = (x[start + i]! - mean) * window[i]!;
+    windowedSegment(segment, x, start, window);
     fft.realTransform(out, segment);
-    for (let k = 0; k < bins; k++) {
-      const re = out[2 * k]!;
-      const im = out[2 * k + 1]!;
-      psd[k] = psd[k]! + re * re + im * im;
-    }
+    addPower(psd, out);
     count++;
   }
   if (count > 0) {
@@ -83,4 +71,42 @@ export function welchPsd(x: ArrayLike<number>, sampleRateHz: number, options: We
     }
   }
   return { frequenciesHz, psd, segmentCount: count };
+}
+
+// The per-sample loops are small functions of their own that end in a plain return, so each is
+// compiled once rather than welchPsd being compiled in the middle of one and dropped after it.
+
+/** Periodic Hann window into w; returns Σ w². */
+function hannInto(w: Float64Array): number {
+  const L = w.length;
+  let windowPower = 0;
+  for (let i = 0; i < L; i++) {
+    const v = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / L);
+    w[i] = v;
+    windowPower += v * v;
+  }
+  return windowPower;
+}
+
+/** prefix[i + 1] = number of mask[0…i] equal to 1. */
+function maskPrefixInto(prefix: Float64Array, mask: ArrayLike<number>): void {
+  for (let i = 0; i < mask.length; i++) prefix[i + 1] = prefix[i]! + (mask[i] === 1 ? 1 : 0);
+}
+
+/** segment = (x[start…] − their mean) · window, the mean summed in index order. */
+function windowedSegment(segment: Float64Array, x: ArrayLike<number>, start: number, window: Float64Array): void {
+  const L = segment.length;
+  let mean = 0;
+  for (let i = 0; i < L; i++) mean += x[start + i]!;
+  mean /= L;
+  for (let i = 0; i < L; i++) segment[i] = (x[start + i]! - mean) * window[i]!;
+}
+
+/** psd[k] += |out_k|² for the one-sided bins (out interleaved). */
+function addPower(psd: Float64Array, out: Float64Array): void {
+  for (let k = 0; k < psd.length; k++) {
+    const re = out[2 * k]!;
+    const im = out[2 * k + 1]!;
+    psd[k] = psd[k]! + re * re + im * im;
+  }
 }
