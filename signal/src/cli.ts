@@ -95,4 +95,10 @@ function main(argv: string[]): number {
   }
 }
 
+// A reader that stops early (`… --json | head`) closes the pipe: that is the reader's choice, not a
+// failure of the analysis, so end quietly instead of with an unhandled EPIPE stack trace.
+process.stdout.on("error", (err: NodeJS.ErrnoException) => {
+  if (err.code !== "EPIPE") throw err;
+  process.exit(process.exitCode ?? 0);
+});
 process.exitCode = main(process.argv.slice(2));

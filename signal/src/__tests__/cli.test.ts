@@ -64,4 +64,13 @@ describe("analyze CLI and --height-cm", () => {
     expect(b.metrics.walkingSpeedReason === null || typeof b.metrics.walkingSpeedReason === "string").toBe(true);
     expect(b.metrics.walkingSpeedReason ?? "").not.toMatch(/height not recorded/);
   });
+
+  it("ends quietly with exit 0 when the reader closes the pipe before the answer is written", { timeout: 60_000 }, () => {
+    // `true` exits without reading, so the CLI's write meets a closed pipe (EPIPE); pipefail makes
+    // the pipeline's status the CLI's own.
+    const quoted = [tsx, cli, ...paths, "--json"].map((a) => `'${a}'`).join(" ");
+    const r = spawnSync("bash", ["-c", `set -o pipefail; ${quoted} | true`], { encoding: "utf8", timeout: 60_000 });
+    expect(r.stderr).toBe("");
+    expect(r.status).toBe(0);
+  });
 });
