@@ -27,31 +27,58 @@ export function detectWalkingMask(
   const ring = 2 * half + 2;
   const sumRing = new Float64Array(ring);
   const cntRing = new Int32Array(ring);
-  for (const g of legGyro) {
-    const { x, y, z, valid } = g;
-    let k = 0;
-    let sum = 0;
-    let cnt = 0;
-    sumRing[0] = 0;
-    cntRing[0] = 0;
-    for (let i = 0; i < length; i++) {
-      const hi = Math.min(length, i + half + 1);
-      while (k < hi) {
-        if (valid[k] === 1) {
-          sum += hypot3(x[k]!, y[k]!, z[k]!);
-          cnt++;
-        }
-        k++;
-        sumRing[k % ring] = sum;
-        cntRing[k % ring] = cnt;
-      }
-      if (!valid[i]) continue;
-      const lo = Math.max(0, i - half);
-      const c = cnt - cntRing[lo % ring]!;
-      if (c > 0 && (sum - sumRing[lo % ring]!) / c > WALKING_MEAN_GYRO_DEG_S) mask[i] = 1;
-    }
-  }
+  for (const g of legGyro) markWalking(g.x, g.y, g.z, g.valid, length, half, sumRing, cntRing, mask);
   return mask;
+}
+
+/**
+ * One sensor's share of detectWalkingMask (sets mask[i] = 1 where it walks, leaves the rest), a
+ * small function of its own compiled once for every sensor. The ring positions are advanced with
+ * the indices instead of taken modulo the ring at every sample (four integer divisions a sample),
+ * and every sample's magnitude and test are computed before the validity picks what counts (the
+ * same sums: a sum that starts at +0 and adds magnitudes or +0 is unchanged by the +0s), so the loop
+ * is not first compiled before it has summed or tested anything when a recording starts invalid.
+ */
+function markWalking(
+  x: ArrayLike<number>,
+  y: ArrayLike<number>,
+  z: ArrayLike<number>,
+  valid: Uint8Array,
+  length: number,
+  half: number,
+  sumRing: Float64Array,
+  cntRing: Int32Array,
+  mask: Uint8Array,
+): void {
+  const ring = sumRing.length;
+  let k = 0;
+  let kSlot = 0;
+  let loSlot = 0;
+  let sum = 0;
+  let cnt = 0;
+  sumRing[0] = 0;
+  cntRing[0] = 0;
+  for (let i = 0; i < length; i++) {
+    const hi = Math.min(length, i + half + 1);
+    while (k < hi) {
+      const on = valid[k] === 1;
+      const magnitude = hypot3(x[k]!, y[k]!, z[k]!);
+      sum += on ? magnitude : 0;
+      cnt += on ? 1 : 0;
+      k++;
+      kSlot = kSlot + 1 === ring ? 0 : kSlot + 1;
+      sumRing[kSlot] = sum;
+      cntRing[kSlot] = cnt;
+    }
+    // lo = max(0, i − half): slot 0 up to i = half, then one further each sample.
+    if (i > half) loSlot = loSlot + 1 === ring ? 0 : loSlot + 1;
+    const c = cnt - cntRing[loSlot]!;
+    const mean = (sum - sumRing[loSlot]!) / c;
+    const counted = valid[i]! > 0;
+    const some = c > 0;
+    const busy = mean > WALKING_MEAN_GYRO_DEG_S;
+    mask[i] = mask[i]! | (counted && some && busy ? 1 : 0);
+  }
 }
 
 /** Runs of 1 in a mask as bouts, merging short pauses and dropping short bouts. */
