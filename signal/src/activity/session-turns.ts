@@ -14,12 +14,28 @@ export function sessionTurns(back: ResampledSensor | undefined, legSensors: read
   const m = traces[0]!.yawDegS.length;
   const yaw = new Float64Array(m);
   const count = new Uint8Array(m);
-  for (const tr of traces) {
-    for (let i = 0; i < m; i++) if (tr.valid[i]) {
-      yaw[i]! += tr.yawDegS[i]!;
-      count[i]!++;
-    }
-  }
-  for (let i = 0; i < m; i++) if (count[i]! > 1) yaw[i]! /= count[i]!;
+  for (const tr of traces) addWhereValid(yaw, count, tr.yawDegS, tr.valid);
+  divideByCount(yaw, count);
   return detectTurns(yaw, traces[0]!.sampleRateHz).map((t) => ({ startS: t.startS, endS: t.endS }));
+}
+
+// The sample loops are small functions of their own, so sessionTurns is not compiled in the middle
+// of its first loop (and again when the code after the loops first runs).
+
+/**
+ * sum[i] += x[i] and count[i] += 1 where valid, in place. Every sample is read and the validity
+ * picks x[i] or +0 to add (the same sums: a sum that starts at +0 is never −0), so the loop is not
+ * first compiled before it has added anything when a recording starts invalid.
+ */
+function addWhereValid(sum: Float64Array, count: Uint8Array, x: Float64Array, valid: Uint8Array): void {
+  for (let i = 0; i < sum.length; i++) {
+    const on = valid[i]! > 0;
+    sum[i] = sum[i]! + (on ? x[i]! : 0);
+    count[i] = count[i]! + (on ? 1 : 0);
+  }
+}
+
+/** sum[i] /= count[i] where more than one value was added (one value is its own mean). */
+function divideByCount(sum: Float64Array, count: Uint8Array): void {
+  for (let i = 0; i < sum.length; i++) if (count[i]! > 1) sum[i]! /= count[i]!;
 }

@@ -114,10 +114,8 @@ export function detectTurns(yawRateDegS: ArrayLike<number>, sampleRateHz: number
   const raw: Turn[] = [];
   let i = 0;
   while (i < n) {
-    if (Math.abs(yawRateDegS[i]!) <= TURN_ONSET_DEG_S) {
-      i++;
-      continue;
-    }
+    i = nextOnset(yawRateDegS, i);
+    if (i >= n) break;
     const sign = Math.sign(yawRateDegS[i]!);
     let a = i;
     while (a > 0 && yawRateDegS[a - 1]! * sign > TURN_EXTEND_DEG_S) a--;
@@ -140,4 +138,16 @@ export function detectTurns(yawRateDegS: ArrayLike<number>, sampleRateHz: number
     const d = t.endS - t.startS;
     return Math.abs(t.angleDeg) >= TURN_MIN_ANGLE_DEG && d >= TURN_MIN_DURATION_S && d <= TURN_MAX_DURATION_S;
   });
+}
+
+/**
+ * First index ≥ from whose |yaw rate| is not at or below TURN_ONSET_DEG_S (n when none). The scan
+ * over the quiet samples between turns is a small loop of its own, so detectTurns is not compiled
+ * in the middle of it before the code for a turn has run.
+ */
+function nextOnset(yawRateDegS: ArrayLike<number>, from: number): number {
+  const n = yawRateDegS.length;
+  let i = from;
+  while (i < n && Math.abs(yawRateDegS[i]!) <= TURN_ONSET_DEG_S) i++;
+  return i;
 }
