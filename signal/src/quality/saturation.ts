@@ -10,19 +10,35 @@ export const SATURATION_FLOOR_ACC_M_S2 = 19;
  * consecutive samples, a clipped one does.
  */
 export function countSaturatedSamples(x: ArrayLike<number>, floor: number): number {
+  const peak = peakMagnitude(x);
+  if (peak < floor) return 0;
+  return samplesInRunsAtLevel(x, peak * (1 - 1e-6));
+}
+
+// The two passes are small functions of their own (24 channels a session go through them), and the
+// run count does the same arithmetic on every sample whether or not it is at the level (the level
+// is met only at a few peaks): a loop compiled before its rarely taken branch had run was compiled
+// again when it did, in every call.
+
+/** Largest |x[i]|. */
+function peakMagnitude(x: ArrayLike<number>): number {
   const n = x.length;
   let peak = 0;
   for (let i = 0; i < n; i++) peak = Math.max(peak, Math.abs(x[i]!));
-  if (peak < floor) return 0;
-  const level = peak * (1 - 1e-6);
+  return peak;
+}
+
+/** Samples in runs of at least SATURATION_MIN_RUN consecutive |x[i]| ≥ level. */
+function samplesInRunsAtLevel(x: ArrayLike<number>, level: number): number {
+  const n = x.length;
   let count = 0;
   let run = 0;
+  // i = n closes a run that reaches the end.
   for (let i = 0; i <= n; i++) {
-    if (i < n && Math.abs(x[i]!) >= level) run++;
-    else {
-      if (run >= SATURATION_MIN_RUN) count += run;
-      run = 0;
-    }
+    const at = i < n && Math.abs(x[i]!) >= level;
+    const closes = !at && run >= SATURATION_MIN_RUN;
+    count += closes ? run : 0;
+    run = (run + 1) * (at ? 1 : 0);
   }
   return count;
 }
