@@ -3,7 +3,7 @@ import { ANGLE_HIGH_PASS_STRIDE_FRACTION, segmentAngleDeg } from "../coordinatio
 import { butterworthBandSections } from "../filter/butterworth-band-sections";
 import { butterworthSections } from "../filter/butterworth-sections";
 import { lowPassZeroPhase, sosFiltFilt3 } from "../filter/zero-phase-butterworth";
-import { projectOnAxis, sagittalAxis } from "./sagittal-axis";
+import { maskedSums3, projectOnAxis, sagittalAxis } from "./sagittal-axis";
 
 /** The wrist's swing axis is sought in gyro band-passed to this band around the stride frequency (× f_stride, common practice). */
 export const WRIST_AXIS_BAND: readonly [number, number] = [0.5, 2.6];
@@ -114,9 +114,8 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
   const to = Math.min(total, last + margin);
   const n = to - from;
   const mask = input.mask.subarray(from, to);
-  const clean = (x: ArrayLike<number>): Float64Array => finiteOrZero(x, from, n);
-  const gyro = [clean(input.gyroX), clean(input.gyroY), clean(input.gyroZ)] as const;
-  const acc = [clean(input.accX), clean(input.accY), clean(input.accZ)] as const;
+  const gyro = finiteOrZero3(input.gyroX, input.gyroY, input.gyroZ, from, n);
+  const acc = finiteOrZero3(input.accX, input.accY, input.accZ, from, n);
   const shiftS = from / fs;
   const window: WristSignInput = {
     ...input,
@@ -125,8 +124,8 @@ export function wristOrientation(input: WristSignInput): WristOrientation | null
   };
 
   // Up: mean specific force over straight walking.
-  const up: Vec3 = [maskedSum(acc[0], mask), maskedSum(acc[1], mask), maskedSum(acc[2], mask)];
-  const count = countSet(mask);
+  const [count, upX, upY, upZ] = maskedSums3(acc[0], acc[1], acc[2], mask);
+  const up: Vec3 = [upX, upY, upZ];
   if (count === 0) return null;
   const upNorm = Math.hypot(...up) / count;
   if (upNorm < 0.5 * G_M_S2) return null;
@@ -191,11 +190,9 @@ function impactLag(acc: readonly Float64Array[], input: WristSignInput): number 
   const fs = input.sampleRateHz;
   const n = input.mask.length;
   if (IMPACT_HIGH_PASS_HZ >= 0.45 * fs) return null;
-  const envelope = new Float64Array(n);
   const impactSections = butterworthSections("lowpass", 4, IMPACT_HIGH_PASS_HZ, fs);
   const low = sosFiltFilt3([impactSections, impactSections, impactSections], [acc[0]!, acc[1]!, acc[2]!]);
-  for (let c = 0; c < 3; c++) addSquaredDifference(envelope, acc[c]!, low[c]!);
-  const smooth = lowPassZeroPhase(envelope.map(Math.sqrt), fs, Math.min(20, 0.4 * fs), 2);
+  const smooth = lowPassZeroPhase(differenceMagnitude(acc[0]!, acc[1]!, acc[2]!, low[0], low[1], low[2]), fs, Math.min(20, 0.4 * fs), 2);
   const halfStep = Math.round((0.25 * fs) / input.strideFrequencyHz);
   const ics = input.initialContactsS.map((t) => Math.round(t * fs)).filter((c) => c - halfStep >= 0 && c + halfStep < n && input.mask[c]);
   if (ics.length < MIN_FORWARD_CUE_STEPS) return null;
@@ -223,14 +220,19 @@ function bodyForwardCue(
   const theta = segmentAngleDeg(omega, fs, ANGLE_HIGH_PASS_STRIDE_FRACTION * input.strideFrequencyHz);
   // α from ω low-passed at CUE_LOW_PASS_HZ: differentiating amplifies sensor noise, and noise in a
   // regressor shrinks its fitted coefficient, which would leave a fraction of the arm's large own
-  // acceleration (L·α reaches ~10 m/s²) in the residual. Every column and the target get the same filter.
-  const lp = (x: Float64Array): Float64Array => (CUE_LOW_PASS_HZ < 0.45 * fs ? lowPassZeroPhase(x, fs, CUE_LOW_PASS_HZ, 4) : x);
-  const smooth = lp(omega);
-  const alpha = centralDifferenceRad(smooth, fs);
+  // acceleration (L·α reaches ~10 m/s²) in the residual. Every column and the target get the same
+  // filter (three series at a time through the three-channel filter, each result the same as its
+  // own single-channel run).
+  const cue = CUE_LOW_PASS_HZ < 0.45 * fs ? butterworthSections("lowpass", 4, CUE_LOW_PASS_HZ, fs) : null;
+  const lp3 = (x: Float64Array, y: Float64Array, z: Float64Array): readonly [Float64Array, Float64Array, Float64Array] =>
+    cue ? sosFiltFilt3([cue, cue, cue], [x, y, z]) : [x, y, z];
   // The arm's tilt projects the whole vertical specific force F (gravity plus the body's vertical
   // acceleration and impacts) onto the forward axis: F·sin θ, not g·sin θ.
   // The reading along `up` is F·cos θ + L·ω², so F·sin θ = (reading − L·ω²)·tan θ.
-  const sinTheta = theta.map((t, i) => Math.tan(t * DEG) * (acc[0]![i]! * up[0] + acc[1]![i]! * up[1] + acc[2]![i]! * up[2]));
+  const tanTheta = new Float64Array(n);
+  const sinTheta = new Float64Array(n);
+  tiltTerms(theta, acc[0]!, acc[1]!, acc[2]!, up, tanTheta, sinTheta);
+  const [smooth, target, sinThetaLp] = lp3(omega, af, sinTheta);
 
   // Step template: +1 over the half step before each IC, −1 over the half step after.
   const halfStep = Math.max(1, Math.round((0.25 * fs) / input.strideFrequencyHz));
@@ -239,9 +241,12 @@ function bodyForwardCue(
   // together with the arm's own terms keeps the arm's step-frequency harmonics from absorbing it.
   // The up reading also holds the centripetal L·ω² of the swing, which sin θ carries onto the
   // forward axis, so it gets its own column.
-  const centripetal = smooth.map((w, i) => (w * DEG) ** 2 * Math.tan(theta[i]! * DEG));
-  const cols = [lp(sinTheta), lp(alpha), lp(centripetal), step];
-  const target = lp(af);
+  const alpha = new Float64Array(n);
+  const centripetal = new Float64Array(n);
+  armTerms(smooth, tanTheta, fs, alpha, centripetal);
+  // The third series only fills the filter's third channel; its result is not used.
+  const [alphaLp, centripetalLp] = lp3(alpha, centripetal, alpha);
+  const cols = [sinThetaLp, alphaLp, centripetalLp, step];
   const m = cols.length + 1;
   const { ata, atb } = normalEquations(cols, target, input.mask);
   const coef = solveSymmetric(ata, atb, m);
@@ -273,20 +278,20 @@ function leadingMaskedSpan(mask: Uint8Array, count: number): [number, number] {
   return [first, mask.length];
 }
 
-/** x[from, from + n) with non-finite values as 0. */
-function finiteOrZero(x: ArrayLike<number>, from: number, n: number): Float64Array {
-  const out = new Float64Array(n);
+/** x, y, z [from, from + n) with non-finite values as 0, in one pass. */
+function finiteOrZero3(x: ArrayLike<number>, y: ArrayLike<number>, z: ArrayLike<number>, from: number, n: number): [Float64Array, Float64Array, Float64Array] {
+  const ox = new Float64Array(n);
+  const oy = new Float64Array(n);
+  const oz = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    const v = x[from + i]!;
-    out[i] = Number.isFinite(v) ? v : 0;
+    const u = x[from + i]!;
+    const v = y[from + i]!;
+    const w = z[from + i]!;
+    ox[i] = Number.isFinite(u) ? u : 0;
+    oy[i] = Number.isFinite(v) ? v : 0;
+    oz[i] = Number.isFinite(w) ? w : 0;
   }
-  return out;
-}
-
-function countSet(mask: Uint8Array): number {
-  let count = 0;
-  for (let i = 0; i < mask.length; i++) if (mask[i]) count++;
-  return count;
+  return [ox, oy, oz];
 }
 
 /** Mean of x over the given indices shifted by each lag in [−halfStep, halfStep). */
@@ -300,12 +305,6 @@ function meanAtLags(x: Float64Array, at: readonly number[], halfStep: number): n
   return scores;
 }
 
-function maskedSum(x: Float64Array, mask: Uint8Array): number {
-  let sum = 0;
-  for (let i = 0; i < x.length; i++) if (mask[i]) sum = sum + x[i]!;
-  return sum;
-}
-
 /** Removes from each sample of (x, y, z) its component along the unit vector u, in place. */
 function removeComponentAlong(x: Float64Array, y: Float64Array, z: Float64Array, u: Vec3): void {
   for (let i = 0; i < x.length; i++) {
@@ -316,17 +315,37 @@ function removeComponentAlong(x: Float64Array, y: Float64Array, z: Float64Array,
   }
 }
 
-/** sum[i] += (a[i] − b[i])², in place. */
-function addSquaredDifference(sum: Float64Array, a: Float64Array, b: Float64Array): void {
-  for (let i = 0; i < sum.length; i++) sum[i] = sum[i]! + (a[i]! - b[i]!) ** 2;
+/** √((x − lx)² + (y − ly)² + (z − lz)²) per sample: the squares added in axis order, in one pass. */
+function differenceMagnitude(x: Float64Array, y: Float64Array, z: Float64Array, lx: Float64Array, ly: Float64Array, lz: Float64Array): Float64Array {
+  const out = new Float64Array(x.length);
+  for (let i = 0; i < out.length; i++) out[i] = Math.sqrt((x[i]! - lx[i]!) ** 2 + (y[i]! - ly[i]!) ** 2 + (z[i]! - lz[i]!) ** 2);
+  return out;
 }
 
-/** Angular acceleration (rad/s²) of an angular velocity in °/s by central differences; 0 at both ends. */
-function centralDifferenceRad(omegaDegS: Float64Array, sampleRateHz: number): Float64Array {
+/**
+ * tanTheta[i] = tan θ and sinTheta[i] = tan θ · (a · up): the tilt regressor F·sin θ from the reading
+ * along `up` (see bodyForwardCue), with tan θ kept for the centripetal column.
+ */
+function tiltTerms(thetaDeg: Float64Array, ax: Float64Array, ay: Float64Array, az: Float64Array, up: Vec3, tanTheta: Float64Array, sinTheta: Float64Array): void {
+  const [ux, uy, uz] = up;
+  for (let i = 0; i < thetaDeg.length; i++) {
+    const tan = Math.tan(thetaDeg[i]! * DEG);
+    tanTheta[i] = tan;
+    sinTheta[i] = tan * (ax[i]! * ux + ay[i]! * uy + az[i]! * uz);
+  }
+}
+
+/**
+ * alpha = angular acceleration (rad/s²) of ω (°/s) by central differences, 0 at both ends; and
+ * centripetal = (ω in rad/s)² · tan θ.
+ */
+function armTerms(omegaDegS: Float64Array, tanTheta: Float64Array, sampleRateHz: number, alpha: Float64Array, centripetal: Float64Array): void {
   const n = omegaDegS.length;
-  const alpha = new Float64Array(n);
-  for (let i = 1; i < n - 1; i++) alpha[i] = ((omegaDegS[i + 1]! - omegaDegS[i - 1]!) * sampleRateHz * 0.5) * DEG;
-  return alpha;
+  for (let i = 0; i < n; i++) {
+    const w = omegaDegS[i]!;
+    centripetal[i] = (w * DEG) ** 2 * tanTheta[i]!;
+    if (i > 0 && i < n - 1) alpha[i] = ((omegaDegS[i + 1]! - omegaDegS[i - 1]!) * sampleRateHz * 0.5) * DEG;
+  }
 }
 
 /** +1 over the half step before each IC, −1 over the half step after (later ICs overwrite). */
