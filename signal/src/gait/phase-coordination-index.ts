@@ -23,14 +23,42 @@ export function phaseCoordinationIndex(
   otherInitialContactsS: readonly number[],
 ): PhaseCoordination | null {
   const phiDeg: number[] = [];
+  // The other leg's ICs in ascending order (a copy: the caller's order is not assumed), so the ones
+  // inside each stride are found by two binary searches instead of a pass over all of them per
+  // stride. The same set of times is found, so the same φ.
+  const others = Float64Array.from(otherInitialContactsS).sort();
   for (const s of referenceStrides) {
-    const inside = otherInitialContactsS.filter((t) => t > s.icS && t < s.nextIcS);
-    if (inside.length !== 1) continue;
-    phiDeg.push((360 * (inside[0]! - s.icS)) / (s.nextIcS - s.icS));
+    const from = firstIndexAbove(others, s.icS);
+    if (firstIndexAtOrAbove(others, s.nextIcS, from) - from !== 1) continue;
+    phiDeg.push((360 * (others[from]! - s.icS)) / (s.nextIcS - s.icS));
   }
   if (phiDeg.length < 2) return null;
   const phiAbsDeg = mean(phiDeg.map((p) => Math.abs(p - 180)))!;
   const pPhiAbsPct = (100 * phiAbsDeg) / 180;
   const phiCvPct = coefficientOfVariationPct(phiDeg, 1)!;
   return { phiDeg, phiAbsDeg, pPhiAbsPct, phiCvPct, pciPct: phiCvPct + pPhiAbsPct };
+}
+
+/** First index of the ascending `sorted` whose value is > t (sorted.length when none). */
+function firstIndexAbove(sorted: Float64Array, t: number): number {
+  let lo = 0;
+  let hi = sorted.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (sorted[mid]! > t) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
+}
+
+/** First index ≥ from of the ascending `sorted` whose value is ≥ t (sorted.length when none). */
+function firstIndexAtOrAbove(sorted: Float64Array, t: number, from: number): number {
+  let lo = from;
+  let hi = sorted.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (sorted[mid]! >= t) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
 }
