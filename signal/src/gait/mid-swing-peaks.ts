@@ -100,16 +100,16 @@ export function mergeSwingsWithoutStance(
   mask: Uint8Array,
   sampleRateHz: number,
 ): number[] {
+  // The three passes below mostly ask for the same pairs (the stances are the gaps the first pass
+  // kept, and the second merge walks them again), so each pair's rotation is integrated once.
+  // Kept by the pair's end sample, with its start (a pair is asked for again with the same start).
+  const known = new Map<number, { from: number; r: { backwardDeg: number; forwardDeg: number } | null }>();
   const rotation = (a: number, b: number): { backwardDeg: number; forwardDeg: number } | null => {
-    let backward = 0;
-    let forward = 0;
-    for (let i = a; i < b; i++) {
-      if (!mask[i]) return null;
-      const v = omegaDegS[i]!;
-      if (v < 0) backward -= v;
-      else forward += v;
-    }
-    return { backwardDeg: backward / sampleRateHz, forwardDeg: forward / sampleRateHz };
+    const hit = known.get(b);
+    if (hit !== undefined && hit.from === a) return hit.r;
+    const r = rotationBetween(omegaDegS, mask, a, b, sampleRateHz);
+    known.set(b, { from: a, r });
+    return r;
   };
   const merge = (candidates: number[], sameSwing: (r: { backwardDeg: number; forwardDeg: number }) => boolean): number[] => {
     if (candidates.length < 2) return candidates;
@@ -136,4 +136,17 @@ export function mergeSwingsWithoutStance(
   const h = stances.length >> 1;
   const typicalDeg = stances.length % 2 ? stances[h]! : (stances[h - 1]! + stances[h]!) / 2;
   return merge(local, (r) => r.backwardDeg < f * typicalDeg);
+}
+
+/** Backward (∫ max(−ω, 0)) and forward (∫ max(ω, 0)) rotation over samples [a, b), degrees; null when a sample there is outside the mask. */
+function rotationBetween(omegaDegS: ArrayLike<number>, mask: Uint8Array, a: number, b: number, sampleRateHz: number): { backwardDeg: number; forwardDeg: number } | null {
+  let backward = 0;
+  let forward = 0;
+  for (let i = a; i < b; i++) {
+    if (!mask[i]) return null;
+    const v = omegaDegS[i]!;
+    if (v < 0) backward -= v;
+    else forward += v;
+  }
+  return { backwardDeg: backward / sampleRateHz, forwardDeg: forward / sampleRateHz };
 }
