@@ -89,15 +89,12 @@ export function maskToBouts(
   minDurationS = BOUT_MIN_DURATION_S,
 ): Bout[] {
   const runs: Bout[] = [];
-  let i = 0;
   const n = mask.length;
+  let i = 0;
   while (i < n) {
-    if (!mask[i]) {
-      i++;
-      continue;
-    }
-    let j = i;
-    while (j < n && mask[j]) j++;
+    i = scanWhile(mask, i, false);
+    if (i >= n) break;
+    const j = scanWhile(mask, i, true);
     const startS = i / sampleRateHz;
     const endS = (j - 1) / sampleRateHz;
     const prev = runs[runs.length - 1];
@@ -106,6 +103,19 @@ export function maskToBouts(
     i = j;
   }
   return runs.filter((b) => b.endS - b.startS >= minDurationS);
+}
+
+/**
+ * First index ≥ from whose mask value is unset (`set` true) or set (`set` false); mask.length when
+ * none. The scans over the samples are this small function, so maskToBouts (a few dozen runs) is not
+ * compiled in the middle of one before the code for a run has run.
+ */
+function scanWhile(mask: Uint8Array, from: number, set: boolean): number {
+  const n = mask.length;
+  let i = from;
+  if (set) while (i < n && mask[i]) i++;
+  else while (i < n && !mask[i]) i++;
+  return i;
 }
 
 /** Sample mask (1 inside any bout) for a list of bouts. */

@@ -55,13 +55,15 @@ function countMasked(mask: Uint8Array, n: number): number {
 function everyStepMasked(values: ArrayLike<number>, mask: Uint8Array | null, step: number, buf: Float64Array): number {
   const n = values.length;
   const capacity = buf.length - 1;
-  let seen = 0;
+  // phase = (number of masked samples seen so far) mod step, counted up rather than divided out.
+  let phase = 0;
   let m = 0;
   for (let i = 0; i < n; i++) {
     const on = mask === null || mask[i]! > 0;
     buf[m] = values[i]!;
-    m += on && seen % step === 0 && m < capacity ? 1 : 0;
-    seen += on ? 1 : 0;
+    m += on && phase === 0 && m < capacity ? 1 : 0;
+    const next = phase + 1 === step ? 0 : phase + 1;
+    phase = on ? next : phase;
   }
   return m;
 }
