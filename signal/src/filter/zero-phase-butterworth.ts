@@ -151,17 +151,25 @@ function runEnd(valid: Uint8Array, i: number): number {
  * samples copied through. The three recursions are independent, so running them side by side in
  * one loop lets the processor overlap them; each result equals the single-channel one bit for bit.
  * All three cascades must have the same number of sections.
+ *
+ * `into`, when given, receives the results (three arrays of the channels' length, none of them an
+ * input; every sample is written) and is returned: a caller done with an earlier result can lend
+ * its arrays rather than have three more 30-minute arrays allocated and paged in.
  */
 export function zeroPhaseSegments3(
   x: readonly [ArrayLike<number>, ArrayLike<number>, ArrayLike<number>],
   sections: readonly [readonly Biquad[], readonly Biquad[], readonly Biquad[]],
   valid: Uint8Array,
+  into?: [Float64Array, Float64Array, Float64Array],
 ): [Float64Array, Float64Array, Float64Array] {
   const count = sections[0].length;
   if (sections[1].length !== count || sections[2].length !== count) throw new RangeError("zeroPhaseSegments3: the three cascades differ in length");
   const n = x[0].length;
   if (x[1].length !== n || x[2].length !== n) throw new RangeError("zeroPhaseSegments3: the three channels differ in length");
-  const out: [Float64Array, Float64Array, Float64Array] = [new Float64Array(n), new Float64Array(n), new Float64Array(n)];
+  if (into && (into.some((o) => o.length !== n || x.includes(o)) || new Set(into).size !== 3)) {
+    throw new RangeError("zeroPhaseSegments3: the output arrays must be three distinct arrays of the channels' length, none of them an input");
+  }
+  const out: [Float64Array, Float64Array, Float64Array] = into ?? [new Float64Array(n), new Float64Array(n), new Float64Array(n)];
   let longest = 0;
   for (let i = 0; i < n; ) {
     const j = runEnd(valid, i);

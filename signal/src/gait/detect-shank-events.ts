@@ -102,7 +102,8 @@ export function detectShankEvents(
     const f = finalContact(ev, lobe, mask, m, Math.round(SHANK_SEARCH_FRACTION_OF_STRIDE * before), thr.finalContactDegS, reach);
     if (f !== null) fc.push(f);
   }
-  const impact = acceleration ? shankImpactMagnitude(acceleration, mask, fs) : null;
+  // The three low-passed copies are not read again: the impact filter reuses their arrays.
+  const impact = acceleration ? shankImpactMagnitude(acceleration, mask, fs, [msSignal, ev, lobe]) : null;
   if (impact) ic = refineContactsToImpact(ic, icMidSwing, icStride, impact, mask, fs);
   return {
     initialContactsS: ic.map((i) => i / fs),

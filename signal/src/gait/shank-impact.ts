@@ -36,24 +36,33 @@ export const IMPACT_MIN_RATIO_TO_MEDIAN = 3;
  * |acceleration high-passed at IMPACT_HIGH_PASS_HZ| per sample (m/s²): all three axes, so it does
  * not depend on mounting; gravity and the limb's own swing (< ~10 Hz) are removed. Zero-phase, so an
  * impact is not shifted in time. Null when the sampling rate leaves no band above the cut-off.
+ * `work`, when given, is three arrays of the mask's length the caller no longer needs: the low-pass
+ * is computed in them (see zeroPhaseSegments3), they are overwritten, and the first of them is
+ * returned holding the magnitude.
  */
-export function shankImpactMagnitude(acc: ShankAcceleration, mask: Uint8Array, sampleRateHz: number): Float64Array | null {
+export function shankImpactMagnitude(
+  acc: ShankAcceleration,
+  mask: Uint8Array,
+  sampleRateHz: number,
+  work?: [Float64Array, Float64Array, Float64Array],
+): Float64Array | null {
   if (IMPACT_HIGH_PASS_HZ >= 0.4 * sampleRateHz) return null;
   const sections = butterworthSections("lowpass", 4, IMPACT_HIGH_PASS_HZ, sampleRateHz);
   const axes = [acc.accX, acc.accY, acc.accZ] as const;
-  const low = zeroPhaseSegments3(axes, [sections, sections, sections], mask);
-  return residualMagnitude(axes[0], axes[1], axes[2], low[0], low[1], low[2], mask);
+  const low = zeroPhaseSegments3(axes, [sections, sections, sections], mask, work);
+  residualMagnitudeInto(axes[0], axes[1], axes[2], low[0], low[1], low[2], mask, low[0]);
+  return low[0];
 }
 
 /**
- * √((x − lx)² + (y − ly)² + (z − lz)²) where masked, 0 elsewhere (x − lx is the high-passed axis):
- * the squares added in axis order, one loop of its own (compiled once, not inside
- * shankImpactMagnitude with the segment filter inlined while its first long loop runs). Every
- * sample is read and its magnitude taken, masked or not (the mask picks the magnitude or 0): a walk
- * starts outside the mask, and a loop that skipped those samples was compiled before it had read
- * or computed anything, then compiled again when it first did.
+ * out[i] = √((x − lx)² + (y − ly)² + (z − lz)²) where masked, 0 elsewhere (x − lx is the high-passed
+ * axis), the squares added in axis order; out may be lx (each sample is read before it is written).
+ * One loop of its own (compiled once, not inside shankImpactMagnitude with the segment filter inlined
+ * while its first long loop runs). Every sample is read and its magnitude taken, masked or not (the
+ * mask picks the magnitude or 0): a walk starts outside the mask, and a loop that skipped those
+ * samples was compiled before it had read or computed anything, then compiled again when it did.
  */
-function residualMagnitude(
+function residualMagnitudeInto(
   x: ArrayLike<number>,
   y: ArrayLike<number>,
   z: ArrayLike<number>,
@@ -61,9 +70,9 @@ function residualMagnitude(
   ly: Float64Array,
   lz: Float64Array,
   mask: Uint8Array,
-): Float64Array {
+  out: Float64Array,
+): void {
   const n = mask.length;
-  const out = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const on = mask[i]! > 0;
     const hx = x[i]! - lx[i]!;
@@ -72,7 +81,6 @@ function residualMagnitude(
     const magnitude = Math.sqrt(hx * hx + hy * hy + hz * hz);
     out[i] = on ? magnitude : 0;
   }
-  return out;
 }
 
 /**

@@ -69,6 +69,21 @@ describe("zeroPhaseSegments3(x, sections, valid)", () => {
     expect(worst).toBeLessThan(1e-9);
   });
 
+  it("writes into arrays lent by the caller (stale contents overwritten) the same values as single-channel runs", () => {
+    const s = butterworthSections("lowpass", 4, 8, 200);
+    const lent: [Float64Array, Float64Array, Float64Array] = [new Float64Array(n).fill(Number.NaN), new Float64Array(n).fill(7), new Float64Array(n).fill(-3)];
+    const three = zeroPhaseSegments3(x, [s, s, s], valid, lent);
+    for (let c = 0; c < 3; c++) {
+      expect(three[c]).toBe(lent[c]);
+      expect(Array.from(three[c]!)).toEqual(Array.from(lowPassZeroPhaseSegments(x[c]!, valid, 200, 8, 4)));
+    }
+    const other = () => new Float64Array(n);
+    expect(() => zeroPhaseSegments3(x, [s, s, s], valid, [other(), other(), new Float64Array(n - 1)])).toThrow(RangeError);
+    expect(() => zeroPhaseSegments3(x, [s, s, s], valid, [other(), x[0], other()])).toThrow(RangeError);
+    const same = other();
+    expect(() => zeroPhaseSegments3(x, [s, s, s], valid, [same, other(), same])).toThrow(RangeError);
+  });
+
   it("refuses cascades of different lengths and channels of different lengths", () => {
     const s4 = butterworthSections("lowpass", 4, 15, 200);
     const s2 = butterworthSections("lowpass", 2, 15, 200);
