@@ -79,7 +79,7 @@ export function createApp(deps: AppDeps, options: CreateAppOptions = {}): Expres
     path: "/health",
     summary: "Liveness and database reachability",
     access: "public",
-    response: z.object({ status: z.literal("ok") }),
+    response: z.strictObject({ status: z.literal("ok") }),
     handler: async () => {
       await deps.db.raw("SELECT 1");
       return { status: "ok" as const };

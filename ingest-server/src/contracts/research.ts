@@ -9,7 +9,8 @@ export const cohortDefinition = z.object({
   conditions: z.array(z.enum(CONDITIONS)).max(CONDITIONS.length).default([]),
   ageBands: z.array(z.string().regex(AGE_BAND, { error: "age bands look like 60-64 or 90+" })).max(19).default([]),
   weeksSinceEnrolment: z
-    .object({ from: z.number().int().min(0).max(5200).default(0), to: z.number().int().min(0).max(5200).default(5200) })
+    // Strict also inside the request: the answer echoes this object, and an answer refuses unknown keys.
+    .strictObject({ from: z.number().int().min(0).max(5200).default(0), to: z.number().int().min(0).max(5200).default(5200) })
     .refine((w) => w.from <= w.to, { error: "weeksSinceEnrolment.from must not exceed to" })
     .default({ from: 0, to: 5200 }),
   metrics: z.array(z.string().max(100)).max(40).default([]),
