@@ -1,6 +1,5 @@
 /** Knex reads for the clinical e-mail jobs. Read-only: sending goes through the Mailer. */
 import type { Knex } from "knex";
-import { computeAdherence, type Adherence } from "../adherence";
 import type { AnnotateTrendsInput } from "../annotate-trends";
 import { metricSeries } from "../../sessions/metric-rows";
 import type { ClinicianRecipient, ReminderCandidate } from "./select-recipients";
@@ -111,17 +110,4 @@ export async function sessionsInWeek(db: Knex, patientId: string, week: WeekRang
     .orderBy("recorded_at")
     .select("id");
   return rows.map((r) => r.id as string);
-}
-
-/** Adherence of one patient from its stored sessions (failed uploads do not count). */
-export async function patientAdherence(db: Knex, patientId: string, now: Date = new Date()): Promise<Adherence | null> {
-  const p = await db("patients").where({ id: patientId }).first("enrolled_on", "expected_uploads_per_week");
-  if (!p) return null;
-  const rows = await db("walk_sessions").where({ patient_id: patientId }).whereIn("status", COUNTED).select("recorded_at");
-  return computeAdherence({
-    enrolledOn: p.enrolled_on as string,
-    expectedPerWeek: Number(p.expected_uploads_per_week),
-    sessionDates: rows.map((r) => new Date(r.recorded_at).toISOString()),
-    now,
-  });
 }

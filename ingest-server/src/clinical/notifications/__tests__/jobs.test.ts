@@ -13,7 +13,6 @@ import {
   workClinicalJobs,
   type ClinicalDeps,
 } from "../jobs";
-import { patientAdherence } from "../repository";
 
 // Invented scenario: Harrow Lane rehabilitation outpatients (fictional), two physiotherapists.
 describe("clinical e-mail jobs against PostgreSQL, pg-boss and the SMTP fake", () => {
@@ -122,15 +121,6 @@ describe("clinical e-mail jobs against PostgreSQL, pg-boss and the SMTP fake", (
     // Give a possible duplicate job time to run before counting.
     await new Promise((r) => setTimeout(r, 3000));
     expect(ctx.mailbox.messages().filter((m) => m.text.includes(walker.patientId!))).toHaveLength(2);
-  });
-
-  it("computes a patient's adherence from stored sessions (enrolled 2026-09-01, W36)", async () => {
-    const a = await patientAdherence(ctx.db, quiet.patientId!, new Date("2026-10-15T09:00:00Z"));
-    expect(a?.missedWeeks).toEqual(["2026-W37", "2026-W38", "2026-W39", "2026-W40", "2026-W41"]);
-    const w = await patientAdherence(ctx.db, walker.patientId!, new Date("2026-10-15T09:00:00Z"));
-    expect(w?.missedWeeks).toEqual([]);
-    // W37–W41 met, W42 (running) already met; the enrolment week W36 had no session and ends the streak.
-    expect(w?.currentStreakWeeks).toBe(6);
   });
 
   it("writes the cron schedules idempotently", async () => {
