@@ -101,7 +101,7 @@ build_portal() {
 # side; each takes one session at a time.
 start_worker() {
   local wlog="${1:-$PENDULA_DATA/worker.log}"
-  (cd "$ROOT" && exec node --enable-source-maps ingest-server/dist/worker.js) >>"$wlog" 2>&1 &
+  (cd "$ROOT" && exec node --enable-source-maps --expose-gc ingest-server/dist/worker.js) >>"$wlog" 2>&1 &
   WORKER_PID=$!
   PRODUCT_PIDS+=("$WORKER_PID")
 }
