@@ -29,7 +29,24 @@ export function plainQuality(item: Pick<QualityItem, "code" | "placement">): str
       return "One long-walk measure needs a much longer recording and is left out. That is normal.";
     case "event-order":
       return "Some steps could not be timed reliably and were left out.";
-    default:
-      return "Something in this recording may need a second look by your care team.";
+    case "strides-excluded":
+      return "Some steps, such as turns, starts and stops, were left out of the measurements. That is normal.";
+    case "clock-offset":
+      return `The clock of the sensor${where} was slightly out of step with the others. Pendula lined them up; nothing for you to do.`;
+    case "clock-unverified":
+      return `Pendula could not check that the sensors' clocks${where} agree, so it used the times in the files. Nothing for you to do.`;
+    case "speed-unavailable":
+      return "Walking speed could not be worked out from this recording. Your other results are not affected.";
+    case "arm-sign-unverified":
+      return `Pendula could not tell which way the sensor${where} was worn, so your care team will check the arm measures. Next time, wear it as your instructions show.`;
+    case "placement-swap":
+      return `The sensors${where} may have been swapped between left and right. Your care team will check; next time, put each sensor on the side it is meant for.`;
+    case "no-arm-swing":
+      return `Little or no arm swing was found${where}, so the arm measures are left out. That is expected if you used a walking aid or carried something.`;
+    default: {
+      // Every code has its own words: a new code fails the type check here until it gets them.
+      const unworded: never = item.code;
+      return unworded;
+    }
   }
 }
