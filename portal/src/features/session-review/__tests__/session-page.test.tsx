@@ -84,9 +84,25 @@ describe("session page", () => {
     const assumed = analysis();
     assumed.metrics.walkingSpeedReason = "sensor height above the ankle assumed (10 cm)";
     server({ [`GET /api/sessions/${SID}`]: { body: { ...detailBody(), analysis: assumed } } });
-    renderPage();
+    const second = renderPage();
     const again = await screen.findByLabelText("Gait measures");
     expect(within(again).getByText("Walking speed").parentElement!.textContent).toBe("Walking speed1.10 m/sn = 36 stridesNote: sensor height above the ankle assumed (10 cm)");
+    second.unmount();
+    vi.unstubAllGlobals();
+
+    // A note per shank is long: it folds behind one summary line and opens on demand.
+    const perShank = analysis();
+    const oneShank = (side: string) =>
+      `${side} shank: ankle-to-sensor distance not measurable from this session (fitted pivot not below the sensor); the documented placement, 10 cm above the ankle, was assumed, so its stride lengths are less certain`;
+    perShank.metrics.walkingSpeedReason = `${oneShank("left")}; ${oneShank("right")}`;
+    server({ [`GET /api/sessions/${SID}`]: { body: { ...detailBody(), analysis: perShank } } });
+    renderPage();
+    const folded = await screen.findByLabelText("Gait measures");
+    const cell = within(folded).getByText("Walking speed").parentElement!;
+    const details = cell.querySelector("details")!;
+    expect(details.open).toBe(false);
+    expect(within(cell).getByText("Note from the analysis: this value rests on an assumption")).toBeTruthy();
+    expect(details.textContent).toContain(perShank.metrics.walkingSpeedReason);
   });
 
   it("shows arm swing per arm and its asymmetry", async () => {

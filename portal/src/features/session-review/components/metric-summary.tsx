@@ -34,11 +34,32 @@ function Grid({ items, label }: { items: Item[]; label: string }) {
             <dd className="tabular font-bold">{it.value}</dd>
             {counts.length ? <dd className="text-xs text-ink-soft">{[...new Set(counts)].join(" / ")}</dd> : null}
             {it.value.includes("—") && it.reason ? <dd className="text-xs text-ink-soft">{it.reason}</dd> : null}
-            {!it.value.includes("—") && it.note ? <dd className="text-xs text-ochre">Note: {it.note}</dd> : null}
+            {!it.value.includes("—") && it.note ? (
+              <dd className="text-xs text-ochre">
+                <AnalysisNote note={it.note} />
+              </dd>
+            ) : null}
           </div>
         );
       })}
     </dl>
+  );
+}
+
+/**
+ * Beyond this many characters a note folds behind its summary line: the analysis explains an
+ * assumption per sensor (both shanks give ≈ 400 characters), which otherwise towered over the
+ * grid and pushed the other measures out of view. Common practice, not a published figure.
+ */
+const NOTE_INLINE_CHARS = 120;
+
+function AnalysisNote({ note }: { note: string }) {
+  if (note.length <= NOTE_INLINE_CHARS) return <>Note: {note}</>;
+  return (
+    <details>
+      <summary className="cursor-pointer">Note from the analysis: this value rests on an assumption</summary>
+      <p className="mt-1">{note}</p>
+    </details>
   );
 }
 
