@@ -114,7 +114,7 @@ export function MetricsGrid({ a, counts }: { a: Analysis; counts?: MetricCounts 
   const m = a.metrics;
   const items: Item[] = [
     one("walkingSpeedMPerS", m.walkingSpeedMPerS, counts, { reason: m.walkingSpeedReason, note: m.walkingSpeedReason }),
-    one("strideLengthM", m.strideLengthM, counts, { reason: m.walkingSpeedReason }),
+    one("strideLengthM", m.strideLengthM, counts, { reason: m.walkingSpeedReason, note: m.walkingSpeedReason }),
     one("cadenceStepsPerMin", m.cadenceStepsPerMin, counts),
     one("strideTimeMeanS", m.strideTimeMeanS, counts),
     one("strideTimeCvPct", m.strideTimeCvPct, counts),
