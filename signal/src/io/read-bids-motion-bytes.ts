@@ -1,7 +1,7 @@
 import type { SensorRecording } from "../types";
 import { BidsRows, type BidsLayout, type BidsMotionTexts, bidsFail, readBidsMotion, readBidsSidecars } from "./read-bids-motion";
 import { MAX_SENSOR_FILE_CHARS } from "./read-sensor-csv";
-import { rowCapacityBytes } from "./row-capacity";
+import { sampledRowCapacityBytes } from "./row-capacity";
 import { scanDecimalRowBytes, TAB } from "./scan-decimal-row-bytes";
 
 /** The files of one BIDS Motion tracking system with the data file as bytes; the sidecars are small texts. */
@@ -37,29 +37,46 @@ export function readBidsMotionBytes(input: BidsMotionBytes): SensorRecording[] {
   const layout = readBidsSidecars(input);
   if (firstVisible === n) bidsFail(input.motionFileName, 1, undefined, "file is empty");
   const nCols = layout.channels.length;
-  // A row holds nCols − 1 tabs and a value (a number or n/a) in every cell.
-  const rows = new BidsRows(layout, input.motionFileName, rowCapacityBytes(bytes, 0, 2 * nCols - 1));
-  const lineNo = readMotionRows(bytes, pos, layout, rows);
-  return rows.finish(lineNo);
+  // A row holds nCols − 1 tabs and a value (a number or n/a) in every cell. The arrays are sized
+  // from the lines of the file's first MiB, as the sensor CSV byte reader does, and grow when full.
+  const capacity = sampledRowCapacityBytes(bytes, pos, n, n - pos, true, 2 * nCols - 1);
+  const rows = new BidsRows(layout, input.motionFileName, capacity);
+  const state: MotionRowState = { pos, lineNo: 0 };
+  readMotionRows(bytes, layout, rows, state);
+  // The arrays are full with lines left: twice the room, the rows so far copied.
+  while (state.pos < n) {
+    rows.widen();
+    readMotionRows(bytes, layout, rows, state);
+  }
+  return rows.finish(state.lineNo);
+}
+
+/** Where the row loop stands between calls: the next line's first byte and the last line's number. */
+interface MotionRowState {
+  pos: number;
+  lineNo: number;
 }
 
 /**
- * Reads every line from `pos` into `rows` and returns the number of the last line. A function of
- * its own that ends with its loop, so the engine compiles the loop once per process (see
- * readRows in read-sensor-csv-window.ts).
+ * Reads lines from `state.pos` into `rows` until the end of the file or until its arrays are full,
+ * and leaves in `state` where it stopped. A function of its own that ends with its loop, so the
+ * engine compiles the loop once per process (see readRows in read-sensor-csv-window.ts).
  */
-function readMotionRows(bytes: Uint8Array, pos: number, layout: BidsLayout, rows: BidsRows): number {
+function readMotionRows(bytes: Uint8Array, layout: BidsLayout, rows: BidsRows, state: MotionRowState): void {
   const n = bytes.length;
   const nCols = layout.channels.length;
   const columns = rows.columns;
+  const capacity = rows.capacity;
   // Every cell is a channel: the scanner writes cell c to row[c], then the row goes to the columns.
   const target = new Int32Array(nCols);
   for (let c = 0; c < nCols; c++) target[c] = c;
   const row = new Float64Array(nCols);
   // Rows up to the last \n go to the fast scanner; a last row without one to the general path.
   const lastNewline = bytes.lastIndexOf(10);
-  let lineNo = 0;
-  while (pos < n) {
+  let pos = state.pos;
+  let lineNo = state.lineNo;
+  // A blank line stores no row, but the check before every line keeps room for the line that does.
+  while (pos < n && rows.count < capacity) {
     lineNo++;
     let end = pos > lastNewline ? -1 : scanDecimalRowBytes(bytes, pos, TAB, nCols, target, row);
     if (end >= 0) {
@@ -75,8 +92,10 @@ function readMotionRows(bytes: Uint8Array, pos: number, layout: BidsLayout, rows
       }
     }
     pos = end + 1;
+    // Stored line by line, not after the loop (see readRows in read-sensor-csv-window.ts).
+    state.pos = pos;
+    state.lineNo = lineNo;
   }
-  return lineNo;
 }
 
 /** The ASCII characters String.prototype.trim removes: tab, LF, VT, FF, CR, space. */

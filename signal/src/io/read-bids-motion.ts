@@ -212,7 +212,8 @@ export function readBidsSidecars(input: Omit<BidsMotionTexts, "motionTsv">): Bid
  * checks and messages both readers share; `finish` turns them into recordings.
  */
 export class BidsRows {
-  private readonly data: Float64Array[];
+  private data: Float64Array[];
+  private room: number;
   private rows = 0;
   private prevLatency = Number.NEGATIVE_INFINITY;
 
@@ -221,6 +222,7 @@ export class BidsRows {
     private readonly fileName: string,
     capacity: number,
   ) {
+    this.room = capacity;
     this.data = Array.from({ length: layout.channels.length }, () => new Float64Array(capacity));
   }
 
@@ -231,6 +233,21 @@ export class BidsRows {
 
   get count(): number {
     return this.rows;
+  }
+
+  /** Rows the column arrays hold; a reader that sized them from a sample calls `widen` when full. */
+  get capacity(): number {
+    return this.room;
+  }
+
+  /** Twice the room (at least one row), the rows so far copied: `columns` are new arrays after it. */
+  widen(): void {
+    this.room = Math.max(1, this.room * 2);
+    this.data = this.data.map((a) => {
+      const b = new Float64Array(this.room);
+      b.set(a.subarray(0, this.rows));
+      return b;
+    });
   }
 
   /** One line, text[pos, lineEnd) without its line break: skipped when blank, else read or refused. */

@@ -1,6 +1,6 @@
 import type { SensorRecording } from "../types";
 import { readRowCells } from "./read-row-cells";
-import { rowCapacityBytes } from "./row-capacity";
+import { sampledRowCapacityBytes } from "./row-capacity";
 import { COMMA, scanDecimalRowBytes } from "./scan-decimal-row-bytes";
 import { SENSOR_CSV_COLUMNS, type SensorCsvFail, type SensorCsvLayout, readSensorCsvHeader, sensorCsvFail } from "./sensor-csv-header";
 
@@ -112,29 +112,14 @@ function nextLine(w: SensorCsvWindow, more: MoreBytes): string | null {
   return line;
 }
 
-/** Bytes of data rows counted to size the arrays: a chunk's worth (see readSensorCsvChunks). */
-const SIZING_SAMPLE_BYTES = 1 << 20;
-
 /**
- * Rows to allocate for the data rows from the window's `pos` on: the lines of the first
- * SIZING_SAMPLE_BYTES, but never more than the rest of the file could hold at the shortest possible
- * row (nCols − 1 commas and a number in each of the 7 columns read). When the sample is all the rest
- * of the file that is `rowCapacityBytes`, exact; otherwise the rows the rest holds at the sample's
- * bytes per line, plus a margin, and only a file whose later lines are much shorter than its first
- * ones makes the arrays grow. Counting every line of a whole file (one `indexOf` call per line) took
- * nearly 30 % of the byte reader's CPU on the 30-minute bench session.
+ * Rows to allocate for the data rows from the window's `pos` on (see sampledRowCapacityBytes): the
+ * rest of the file is its size when opened, or more if it has grown since, less what is behind `pos`.
  */
 function rowsToAllocate(w: SensorCsvWindow, fileSize: number, minRowBytes: number): number {
   const { pos, filled } = w;
-  const sampleEnd = Math.min(filled, pos + SIZING_SAMPLE_BYTES);
-  const sample = w.bytes.subarray(0, sampleEnd);
-  if (w.eof && sampleEnd === filled) return rowCapacityBytes(sample, pos, minRowBytes);
   const remaining = Math.max(0, Math.max(fileSize, w.end) - (w.end - filled + pos));
-  let lines = 0;
-  for (let p = sample.indexOf(10, pos); p >= 0; p = sample.indexOf(10, p + 1)) lines++;
-  const fit = Math.floor(remaining / Math.max(1, minRowBytes)) + 1;
-  const estimate = lines === 0 ? fit : Math.ceil((remaining / (sampleEnd - pos)) * lines * 1.05) + 64;
-  return Math.min(fit, estimate);
+  return sampledRowCapacityBytes(w.bytes, pos, filled, remaining, w.eof, minRowBytes);
 }
 
 type Samples = Pick<SensorRecording, "timeS" | "accX" | "accY" | "accZ" | "gyroX" | "gyroY" | "gyroZ">;

@@ -1,10 +1,10 @@
 import fc from "fast-check";
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { baseBids, mutate, mutationArb } from "../../testing/hostile-text";
 import { bidsMotionText } from "../../synth/bids-motion-text";
 import { synthesizeSession } from "../../synth";
 import { type SensorRecording, SignalInputError } from "../../types";
-import { readBidsMotion } from "../read-bids-motion";
+import { BidsRows, readBidsMotion } from "../read-bids-motion";
 import { readBidsMotionBytes } from "../read-bids-motion-bytes";
 import { readSensorCsv } from "../read-sensor-csv";
 
@@ -117,6 +117,23 @@ describe("readBidsMotionBytes(bytes) — same as readBidsMotion(text)", () => {
     wide.forEach((r, i) => {
       for (const k of ARRAYS) expect(bitsOf(r[k]).equals(bitsOf(plain[i]![k])), `${k} bit for bit`).toBe(true);
     });
+  });
+
+  it("reads a file whose first MiB has much longer lines than the rest identically (the arrays grow)", () => {
+    // The byte reader sizes its arrays from the lines of the first MiB: 700 lines padded with
+    // trailing zeros (about 1.5 KiB each) followed by ~3300 plain ones (~150 bytes) make that
+    // estimate far too small, so the rows must survive several rounds of growth.
+    const pad = "0".repeat(60);
+    const lines = set.motionTsv.split("\n");
+    const motion = lines.map((line, i) => (i < 700 && line !== "" ? line.split("\t").map((c) => (c.includes(".") ? c + pad : c)).join("\t") : line)).join("\n");
+    expect(encode(motion.split("\n").slice(0, 700).join("\n")).length).toBeGreaterThan(1 << 20);
+    const widen = vi.spyOn(BidsRows.prototype, "widen");
+    try {
+      expect(same(motion)).toBe("read");
+      expect(widen).toHaveBeenCalled();
+    } finally {
+      widen.mockRestore();
+    }
   });
 
   it("refuses what the text reader refuses, with its message, line and column", () => {
