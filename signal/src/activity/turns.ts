@@ -80,26 +80,6 @@ function blockMeans3(x: ArrayLike<number>, y: ArrayLike<number>, z: ArrayLike<nu
   const mx = new Float64Array(m);
   const my = new Float64Array(m);
   const mz = new Float64Array(m);
-  blockMeansInto(x, y, z, valid, factor, mx, my, mz);
-  return [mx, my, mz];
-}
-
-/**
- * The loop of blockMeans3, into arrays the caller allocated, with nothing after it: the loop is
- * compiled while its first call is still running, and an array literal built after it then had never
- * run, so the compiled loop was thrown away there on every call until it was compiled again.
- */
-function blockMeansInto(
-  x: ArrayLike<number>,
-  y: ArrayLike<number>,
-  z: ArrayLike<number>,
-  valid: Uint8Array,
-  factor: number,
-  mx: Float64Array,
-  my: Float64Array,
-  mz: Float64Array,
-): void {
-  const m = valid.length;
   for (let k = 0; k < m; k++) {
     let sx = 0;
     let sy = 0;
@@ -115,6 +95,7 @@ function blockMeansInto(
     my[k] = ok ? sy / factor : 0;
     mz[k] = ok ? sz / factor : 0;
   }
+  return [mx, my, mz];
 }
 
 /**

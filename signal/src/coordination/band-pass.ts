@@ -89,28 +89,20 @@ function cascadeFiltFilt(sections: readonly Biquad[], y: Float64Array): void {
   const registers = new Float64Array(2 * count);
   for (let s = 0; s < count; s++) {
     const c = sections[s]!;
-    directFormTwoPass(y, c.b0, c.b1, c.b2, c.a1, c.a2, 0, 0);
-    registers[2 * s] = lastZ0;
-    registers[2 * s + 1] = lastZ1;
+    directFormTwoPass(y, c.b0, c.b1, c.b2, c.a1, c.a2, registers, 2 * s);
   }
   y.reverse();
   for (let s = 0; s < count; s++) {
     const c = sections[s]!;
-    directFormTwoPass(y, c.b0, c.b1, c.b2, c.a1, c.a2, registers[2 * s]!, registers[2 * s + 1]!);
+    directFormTwoPass(y, c.b0, c.b1, c.b2, c.a1, c.a2, registers, 2 * s);
   }
   y.reverse();
 }
 
-/**
- * One biquad (direct form II, fili's `runStage`) over y in place, from registers (z0, z1); the
- * registers it ends with are left in `lastZ0`, `lastZ1`. They go there rather than into an array
- * the caller passes: the loop is compiled while the first call is still running, before any store
- * after it has run, and a compiled loop meeting such a store is thrown away there on every call
- * until it is compiled again; assigning module variables needs no such history.
- */
-function directFormTwoPass(y: Float64Array, b0: number, b1: number, b2: number, a1: number, a2: number, z0In: number, z1In: number): void {
-  let z0 = z0In;
-  let z1 = z1In;
+/** One biquad (direct form II, fili's `runStage`) over y in place, registers read from and left in z[at], z[at + 1]. */
+function directFormTwoPass(y: Float64Array, b0: number, b1: number, b2: number, a1: number, a2: number, z: Float64Array, at: number): void {
+  let z0 = z[at]!;
+  let z1 = z[at + 1]!;
   const m = y.length;
   for (let i = 0; i < m; i++) {
     const temp = y[i]! - a1 * z0 - a2 * z1;
@@ -118,9 +110,6 @@ function directFormTwoPass(y: Float64Array, b0: number, b1: number, b2: number, 
     z1 = z0;
     z0 = temp;
   }
-  lastZ0 = z0;
-  lastZ1 = z1;
+  z[at] = z0;
+  z[at + 1] = z1;
 }
-/** Registers directFormTwoPass ended with (z0, z1). */
-let lastZ0 = 0;
-let lastZ1 = 0;

@@ -27,9 +27,7 @@ export function segmentAngleDeg(omegaDegS: ArrayLike<number>, sampleRateHz: numb
   assertPositiveFinite(highPassHz, "highPassHz");
   const n = omegaDegS.length;
   if (n === 0) return new Float64Array(0);
-  const sum = finiteSum(omegaDegS);
-  const mean = finiteCount > 0 ? sum / finiteCount : 0;
-  const angle = integrateTrapezoid(omegaDegS, mean, 1 / sampleRateHz);
+  const angle = integrateTrapezoid(omegaDegS, finiteMean(omegaDegS), 1 / sampleRateHz);
   if (n < 4 || highPassHz >= sampleRateHz / 2) return angle;
   subtractInPlace(angle, lowPassZeroPhase(angle, sampleRateHz, highPassHz, DRIFT_LOW_PASS_ORDER));
   return angle;
@@ -38,27 +36,19 @@ export function segmentAngleDeg(omegaDegS: ArrayLike<number>, sampleRateHz: numb
 // The sample loops are small functions of their own: called for every segment angle of the session,
 // they are compiled once, instead of segmentAngleDeg being compiled (filter inlined) mid-loop per call.
 
-/**
- * Sum of the finite samples in index order; their count is left in `finiteCount`. The division
- * is the caller's, and the count goes to a module variable: the loop is compiled while the first
- * call is still running, and a compiled loop meeting an operation after it that has never run
- * (a comparison, a division, a store) is thrown away there on every call and compiled again.
- */
-function finiteSum(x: ArrayLike<number>): number {
-  let sum = 0;
+/** Mean of the finite samples; 0 when there are none. */
+function finiteMean(x: ArrayLike<number>): number {
+  let mean = 0;
   let count = 0;
   for (let i = 0; i < x.length; i++) {
     const w = x[i]!;
     if (Number.isFinite(w)) {
-      sum += w;
+      mean += w;
       count++;
     }
   }
-  finiteCount = count;
-  return sum;
+  return count > 0 ? mean / count : 0;
 }
-/** Number of finite samples finiteSum last summed. */
-let finiteCount = 0;
 
 /** Trapezoid integral of (ω − mean), starting at 0; non-finite samples count as ω − mean = 0. */
 function integrateTrapezoid(omega: ArrayLike<number>, mean: number, dt: number): Float64Array {

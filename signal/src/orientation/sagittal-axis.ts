@@ -96,30 +96,11 @@ function maskedMoments3(
 // same sums: a sum that starts at +0 is never −0, and adding +0 leaves any other value unchanged).
 // A recording usually starts with a stretch outside the mask; a loop that skipped those samples was
 // compiled while it had not yet read or added a single one, and compiled again when it first did.
-// A loop is compiled while its first call is still running, so nothing after it has run yet: an
-// array built or stored into there is an operation with no history, and the compiled loop is thrown
-// away at it on every call until it is compiled again. So each loop returns one sum and leaves the
-// others in module variables (plain assignments, nothing to learn), and a small wrapper without a
-// loop builds the array.
+// The results come back as a new array, not stored into one: the stores after the loop have not
+// run either when the loop is first compiled.
 
 /** [count, Σx, Σy, Σz] of three channels over the masked samples (summed in sample order). */
 export function maskedSums3(gyroX: ArrayLike<number>, gyroY: ArrayLike<number>, gyroZ: ArrayLike<number>, mask: Uint8Array): [number, number, number, number] {
-  const count = maskedSumsLoop(gyroX, gyroY, gyroZ, mask);
-  return [count, sumX, sumY, sumZ];
-}
-
-/** Sums of the last maskedSumsLoop (x, y, z) and the last maskedProductsLoop (all but xx). */
-let sumX = 0;
-let sumY = 0;
-let sumZ = 0;
-let sumYY = 0;
-let sumZZ = 0;
-let sumXY = 0;
-let sumXZ = 0;
-let sumYZ = 0;
-
-/** Count of the masked samples; their sums in sumX, sumY, sumZ. */
-function maskedSumsLoop(gyroX: ArrayLike<number>, gyroY: ArrayLike<number>, gyroZ: ArrayLike<number>, mask: Uint8Array): number {
   const n = gyroX.length;
   let count = 0;
   let sx = 0;
@@ -135,10 +116,7 @@ function maskedSumsLoop(gyroX: ArrayLike<number>, gyroY: ArrayLike<number>, gyro
     sy += on ? y : 0;
     sz += on ? z : 0;
   }
-  sumX = sx;
-  sumY = sy;
-  sumZ = sz;
-  return count;
+  return [count, sx, sy, sz];
 }
 
 /** [Σ of xx yy zz xy xz yz] about (mx, my, mz) over the masked samples (in sample order). */
@@ -151,12 +129,6 @@ function maskedProducts3(
   my: number,
   mz: number,
 ): [number, number, number, number, number, number] {
-  const sxx = maskedProductsLoop(gyroX, gyroY, gyroZ, mask, mx, my, mz);
-  return [sxx, sumYY, sumZZ, sumXY, sumXZ, sumYZ];
-}
-
-/** Σxx about the means over the masked samples; the other five sums in sumYY … sumYZ. */
-function maskedProductsLoop(gyroX: ArrayLike<number>, gyroY: ArrayLike<number>, gyroZ: ArrayLike<number>, mask: Uint8Array, mx: number, my: number, mz: number): number {
   const n = gyroX.length;
   let sxx = 0;
   let syy = 0;
@@ -176,10 +148,5 @@ function maskedProductsLoop(gyroX: ArrayLike<number>, gyroY: ArrayLike<number>, 
     sxz += on ? x * z : 0;
     syz += on ? y * z : 0;
   }
-  sumYY = syy;
-  sumZZ = szz;
-  sumXY = sxy;
-  sumXZ = sxz;
-  sumYZ = syz;
-  return sxx;
+  return [sxx, syy, szz, sxy, sxz, syz];
 }

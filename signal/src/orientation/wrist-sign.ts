@@ -283,17 +283,6 @@ function finiteOrZero3(x: ArrayLike<number>, y: ArrayLike<number>, z: ArrayLike<
   const ox = new Float64Array(n);
   const oy = new Float64Array(n);
   const oz = new Float64Array(n);
-  finiteOrZeroInto(x, y, z, from, ox, oy, oz);
-  return [ox, oy, oz];
-}
-
-/**
- * The loop of finiteOrZero3 with nothing after it: the loop is compiled while its first call is
- * still running, and an array literal built after it then had never run, so the compiled loop was
- * thrown away there on every call until it was compiled again.
- */
-function finiteOrZeroInto(x: ArrayLike<number>, y: ArrayLike<number>, z: ArrayLike<number>, from: number, ox: Float64Array, oy: Float64Array, oz: Float64Array): void {
-  const n = ox.length;
   for (let i = 0; i < n; i++) {
     const u = x[from + i]!;
     const v = y[from + i]!;
@@ -302,6 +291,7 @@ function finiteOrZeroInto(x: ArrayLike<number>, y: ArrayLike<number>, z: ArrayLi
     oy[i] = Number.isFinite(v) ? v : 0;
     oz[i] = Number.isFinite(w) ? w : 0;
   }
+  return [ox, oy, oz];
 }
 
 /** Mean of x over the given indices shifted by each lag in [−halfStep, halfStep). */
