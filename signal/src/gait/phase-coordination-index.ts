@@ -1,4 +1,5 @@
 import { coefficientOfVariationPct, mean } from "./descriptive";
+import { firstIndexAbove } from "./sorted-search";
 
 export interface PhaseCoordination {
   /** φ_i in degrees, one per reference stride with exactly one contralateral IC inside it. */
@@ -39,17 +40,6 @@ export function phaseCoordinationIndex(
   return { phiDeg, phiAbsDeg, pPhiAbsPct, phiCvPct, pciPct: phiCvPct + pPhiAbsPct };
 }
 
-/** First index of the ascending `sorted` whose value is > t (sorted.length when none). */
-function firstIndexAbove(sorted: Float64Array, t: number): number {
-  let lo = 0;
-  let hi = sorted.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (sorted[mid]! > t) hi = mid;
-    else lo = mid + 1;
-  }
-  return lo;
-}
 
 /** First index ≥ from of the ascending `sorted` whose value is ≥ t (sorted.length when none). */
 function firstIndexAtOrAbove(sorted: Float64Array, t: number, from: number): number {

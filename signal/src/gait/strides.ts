@@ -1,6 +1,7 @@
 import type { Bout, Side, Stride } from "../types";
 import type { LegEvents } from "./gait-events";
 import { labelSteadyState, pooledRobustSdS, steadyBand } from "./steady-state";
+import { firstIndexAbove } from "./sorted-search";
 
 /**
  * Wide physiological limits on the time between same-side ICs (s). 0.25 s is the lower gate of a
@@ -200,22 +201,12 @@ function markEdge(s: Stride): void {
 
 /** Index of the first element > a and the number of elements in (a, b) of a sorted array (binary search). */
 function openRange(sorted: readonly number[], a: number, b: number): { from: number; count: number } {
-  const from = firstAbove(sorted, a);
+  const from = firstIndexAbove(sorted, a);
   let to = from;
   while (to < sorted.length && sorted[to]! < b) to++;
   return { from, count: to - from };
 }
 
-function firstAbove(sorted: readonly number[], t: number): number {
-  let lo = 0;
-  let hi = sorted.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (sorted[mid]! > t) hi = mid;
-    else lo = mid + 1;
-  }
-  return lo;
-}
 
 function lastBefore(sorted: readonly number[], t: number): number | null {
   let lo = 0;
