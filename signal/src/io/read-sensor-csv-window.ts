@@ -2,7 +2,7 @@ import type { SensorRecording } from "../types";
 import { readRowCells } from "./read-row-cells";
 import { sampledRowCapacityBytes } from "./row-capacity";
 import { COMMA, scanDecimalRowBytes } from "./scan-decimal-row-bytes";
-import { SENSOR_CSV_COLUMNS, type SensorCsvFail, type SensorCsvLayout, readSensorCsvHeader, sensorCsvFail } from "./sensor-csv-header";
+import { SENSOR_CSV_COLUMNS, type SensorCsvFail, type SensorCsvLayout, type SensorSamples, readSensorCsvHeader, sensorCsvFail, sensorRecording } from "./sensor-csv-header";
 
 /**
  * UTF-8 as Node's `readFileSync(path, "utf8")` decodes a file: bad sequences become U+FFFD and a
@@ -77,21 +77,7 @@ export function readSensorCsvWindow(window: SensorCsvWindow, more: MoreBytes, fi
     more(window);
   }
   if (state.count === 0) fail(state.lineNo, undefined, "file has a header but no data rows");
-  const count = state.count;
-  return {
-    fileName,
-    deviceSerial: layout.deviceSerial,
-    placement: layout.placement,
-    nominalSampleRateHz: layout.nominalSampleRateHz,
-    startUtc: layout.startUtc,
-    timeS: out.timeS.subarray(0, count),
-    accX: out.accX.subarray(0, count),
-    accY: out.accY.subarray(0, count),
-    accZ: out.accZ.subarray(0, count),
-    gyroX: out.gyroX.subarray(0, count),
-    gyroY: out.gyroY.subarray(0, count),
-    gyroZ: out.gyroZ.subarray(0, count),
-  };
+  return sensorRecording(fileName, layout, out, state.count);
 }
 
 /** The next header line without its `\n` or `\r\n` (moving the window as needed), null at the end of the file. */
@@ -122,7 +108,7 @@ function rowsToAllocate(w: SensorCsvWindow, fileSize: number, minRowBytes: numbe
   return sampledRowCapacityBytes(w.bytes, pos, filled, remaining, w.eof, minRowBytes);
 }
 
-type Samples = Pick<SensorRecording, "timeS" | "accX" | "accY" | "accZ" | "gyroX" | "gyroY" | "gyroZ">;
+type Samples = SensorSamples;
 
 /** Where the row loop stands between windows: the last line read, the rows stored, the last time. */
 interface RowState {

@@ -2,7 +2,7 @@ import type { SensorRecording } from "../types";
 import { readRowCells } from "./read-row-cells";
 import { rowCapacity } from "./row-capacity";
 import { scanDecimalRow } from "./scan-decimal-row";
-import { SENSOR_CSV_COLUMNS, readSensorCsvHeader, sensorCsvFail } from "./sensor-csv-header";
+import { SENSOR_CSV_COLUMNS, readSensorCsvHeader, sensorCsvFail, sensorRecording } from "./sensor-csv-header";
 
 /** Largest sensor file accepted, in characters of text (= bytes for the ASCII format): 64 MiB. */
 export const MAX_SENSOR_FILE_CHARS = 64 * 1024 * 1024;
@@ -88,18 +88,5 @@ export function readSensorCsv(text: string, fileName: string, options: ReadSenso
   }
   if (count === 0) fail(lineNo, undefined, "file has a header but no data rows");
 
-  return {
-    fileName,
-    deviceSerial: layout.deviceSerial,
-    placement: layout.placement,
-    nominalSampleRateHz: layout.nominalSampleRateHz,
-    startUtc: layout.startUtc,
-    timeS: timeS.subarray(0, count),
-    accX: ch[0]!.subarray(0, count),
-    accY: ch[1]!.subarray(0, count),
-    accZ: ch[2]!.subarray(0, count),
-    gyroX: ch[3]!.subarray(0, count),
-    gyroY: ch[4]!.subarray(0, count),
-    gyroZ: ch[5]!.subarray(0, count),
-  };
+  return sensorRecording(fileName, layout, { timeS, accX: ch[0]!, accY: ch[1]!, accZ: ch[2]!, gyroX: ch[3]!, gyroY: ch[4]!, gyroZ: ch[5]! }, count);
 }

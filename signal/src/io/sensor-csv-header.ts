@@ -1,4 +1,4 @@
-import { type Placement, SignalInputError } from "../types";
+import { type Placement, type SensorRecording, SignalInputError } from "../types";
 import { parseDecimal } from "./parse-number";
 import { placementFromLabel } from "./placement-names";
 
@@ -162,4 +162,25 @@ export function parseUtc(value: string): string | null {
   // Reject calendar overflow such as 2026-02-31 (Date.parse rolls it over).
   if (iso.slice(0, 19) !== value.slice(0, 19)) return null;
   return iso;
+}
+
+/** Time and the six sample columns of a sensor file, as the readers fill them. */
+export type SensorSamples = Pick<SensorRecording, "timeS" | "accX" | "accY" | "accZ" | "gyroX" | "gyroY" | "gyroZ">;
+
+/** The recording of a read file: its header's identity and views of the first `count` rows (no copy). */
+export function sensorRecording(fileName: string, layout: SensorCsvLayout, samples: SensorSamples, count: number): SensorRecording {
+  return {
+    fileName,
+    deviceSerial: layout.deviceSerial,
+    placement: layout.placement,
+    nominalSampleRateHz: layout.nominalSampleRateHz,
+    startUtc: layout.startUtc,
+    timeS: samples.timeS.subarray(0, count),
+    accX: samples.accX.subarray(0, count),
+    accY: samples.accY.subarray(0, count),
+    accZ: samples.accZ.subarray(0, count),
+    gyroX: samples.gyroX.subarray(0, count),
+    gyroY: samples.gyroY.subarray(0, count),
+    gyroZ: samples.gyroZ.subarray(0, count),
+  };
 }
