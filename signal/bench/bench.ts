@@ -193,6 +193,20 @@ function pythonWithScipy(): { ok: true; versions: string } | { ok: false; reason
 }
 
 /**
+ * The V8 flags `npm run analyze` starts Node with, read from the root package.json's script so the
+ * direct row runs under the same engine settings: a one-core batch run gains nothing from
+ * background compiler and GC threads (`--single-threaded`), and allocating feedback vectors on a
+ * function's first call instead of its eighth (`--no-lazy-feedback-allocation`) lets the sample
+ * loops, most of which run a few times per process, be optimised from better type feedback.
+ */
+function analyzeNodeFlags(): string[] {
+  const script = (JSON.parse(readFileSync(join(REPO_ROOT, "package.json"), "utf8")) as { scripts: Record<string, string> }).scripts.analyze ?? "";
+  const words = script.split(/\s+/);
+  const end = words.findIndex((w) => w.endsWith("run-built.mjs"));
+  return words.slice(1, end < 0 ? 1 : end).filter((w) => w.startsWith("--"));
+}
+
+/**
  * The built CLI (`node signal/dist/cli.js … --json`, and the same through `npm run --silent
  * analyze`) against numpy_pipeline.py on the same files, alternated WHOLE_PROCESS_RUNS times.
  */
@@ -201,10 +215,10 @@ function wholeProcessComparison(dir: string, minutes: number): string[] {
   const python = pythonWithScipy();
   if (!python.ok) return [`${minutes} min: whole-process comparison skipped (${python.reason}).`];
   if (!existsSync(BUILT_CLI)) return [`${minutes} min: whole-process comparison skipped (no ${BUILT_CLI}; run npm run build:node).`];
+  const flags = analyzeNodeFlags();
   const programs = [
-    // The same V8 flag as `npm run analyze`: a one-core batch run gains nothing from background
-    // compiler and GC threads, it only pays for handing work to them (outputs are identical).
-    { label: "node --single-threaded signal/dist/cli.js", command: [process.execPath, "--single-threaded", BUILT_CLI, ...files, "--json"] },
+    // The same V8 flags as `npm run analyze`, read from its script (outputs do not depend on them).
+    { label: `node ${flags.join(" ")} signal/dist/cli.js`, command: [process.execPath, ...flags, BUILT_CLI, ...files, "--json"] },
     { label: "npm run --silent analyze -- … --json", command: ["npm", "run", "--silent", "analyze", "--", ...files, "--json"] },
     { label: "python3 numpy_pipeline.py", command: ["python3", NUMPY_SCRIPT, ...files] },
   ];
