@@ -3,14 +3,12 @@ import { BidsRows, type BidsLayout, type BidsMotionTexts, bidsFail, readBidsMoti
 import { MAX_SENSOR_FILE_CHARS } from "./read-sensor-csv";
 import { sampledRowCapacityBytes } from "./row-capacity";
 import { scanDecimalRowBytes, TAB } from "./scan-decimal-row-bytes";
+import { UTF8, byteOrderMarkLength, firstVisibleByte, isAsciiBlank } from "./utf8";
 
 /** The files of one BIDS Motion tracking system with the data file as bytes; the sidecars are small texts. */
 export interface BidsMotionBytes extends Omit<BidsMotionTexts, "motionTsv"> {
   motionTsv: Uint8Array;
 }
-
-/** UTF-8 as Node's `readFileSync(path, "utf8")` decodes: bad sequences become U+FFFD, a BOM stays. */
-const UTF8 = new TextDecoder("utf-8", { ignoreBOM: true });
 
 /**
  * `readBidsMotion` with the `_motion.tsv` as bytes: the same recordings, bit for bit, and the same
@@ -28,9 +26,8 @@ export function readBidsMotionBytes(input: BidsMotionBytes): SensorRecording[] {
   const bytes = input.motionTsv;
   const maxChars = input.maxChars ?? MAX_SENSOR_FILE_CHARS;
   const n = bytes.length;
-  const pos = n >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
-  let firstVisible = pos;
-  while (firstVisible < n && isAsciiWhiteSpace(bytes[firstVisible]!)) firstVisible++;
+  const pos = byteOrderMarkLength(bytes, n);
+  const firstVisible = firstVisibleByte(bytes, pos, n);
   if (n > maxChars || (firstVisible < n && bytes[firstVisible]! >= 0x80)) {
     return readBidsMotion({ ...input, motionTsv: UTF8.decode(bytes) });
   }
@@ -96,14 +93,4 @@ function readMotionRows(bytes: Uint8Array, layout: BidsLayout, rows: BidsRows, s
     state.pos = pos;
     state.lineNo = lineNo;
   }
-}
-
-/** The ASCII characters String.prototype.trim removes: tab, LF, VT, FF, CR, space. */
-function isAsciiWhiteSpace(c: number): boolean {
-  return c === 32 || (c >= 9 && c <= 13);
-}
-
-function isAsciiBlank(bytes: Uint8Array, from: number, to: number): boolean {
-  for (let i = from; i < to; i++) if (!isAsciiWhiteSpace(bytes[i]!)) return false;
-  return true;
 }

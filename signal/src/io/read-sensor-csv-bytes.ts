@@ -1,6 +1,7 @@
 import type { SensorRecording } from "../types";
 import { MAX_SENSOR_FILE_CHARS, type ReadSensorCsvOptions, readSensorCsv } from "./read-sensor-csv";
-import { type MoreBytes, UTF8, byteOrderMarkLength, firstVisibleByte, readSensorCsvWindow } from "./read-sensor-csv-window";
+import { type MoreBytes, readSensorCsvWindow } from "./read-sensor-csv-window";
+import { UTF8, byteOrderMarkLength, firstVisibleByte } from "./utf8";
 import { sensorCsvFail } from "./sensor-csv-header";
 
 /**

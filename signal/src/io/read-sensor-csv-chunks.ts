@@ -1,7 +1,8 @@
 import type { SensorRecording } from "../types";
 import { MAX_SENSOR_FILE_CHARS, type ReadSensorCsvOptions } from "./read-sensor-csv";
 import { readSensorCsvBytes } from "./read-sensor-csv-bytes";
-import { type SensorCsvWindow, byteOrderMarkLength, firstVisibleByte, readSensorCsvWindow } from "./read-sensor-csv-window";
+import { type SensorCsvWindow, readSensorCsvWindow } from "./read-sensor-csv-window";
+import { byteOrderMarkLength, firstVisibleByte } from "./utf8";
 
 /**
  * Where a file's bytes come from: its size when opened, and positioned reads (`fs.readSync(fd, into,

@@ -2,13 +2,8 @@ import type { SensorRecording } from "../types";
 import { readRowCells } from "./read-row-cells";
 import { sampledRowCapacityBytes } from "./row-capacity";
 import { COMMA, scanDecimalRowBytes } from "./scan-decimal-row-bytes";
+import { UTF8, isAsciiBlank } from "./utf8";
 import { SENSOR_CSV_COLUMNS, type SensorCsvFail, type SensorCsvLayout, type SensorSamples, readSensorCsvHeader, sensorCsvFail, sensorRecording } from "./sensor-csv-header";
-
-/**
- * UTF-8 as Node's `readFileSync(path, "utf8")` decodes a file: bad sequences become U+FFFD and a
- * BOM stays (the readers skip it themselves).
- */
-export const UTF8 = new TextDecoder("utf-8", { ignoreBOM: true });
 
 /**
  * A sensor CSV's bytes seen through a window: bytes[0, filled) are the file's bytes up to file
@@ -30,18 +25,6 @@ export interface SensorCsvWindow {
  * widens the window when they fill it, and reads behind them, setting filled, end and eof.
  */
 export type MoreBytes = (window: SensorCsvWindow) => void;
-
-/** Length of a UTF-8 byte order mark at the start of bytes[0, filled), 0 without one. */
-export function byteOrderMarkLength(bytes: Uint8Array, filled: number): number {
-  return filled >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
-}
-
-/** Index of the first byte in bytes[from, to) that is not ASCII white space (see isAsciiWhiteSpace), `to` if none. */
-export function firstVisibleByte(bytes: Uint8Array, from: number, to: number): number {
-  let i = from;
-  while (i < to && isAsciiWhiteSpace(bytes[i]!)) i++;
-  return i;
-}
 
 /**
  * Reads a sensor CSV v1 file from a window on its bytes: the header lines, then the data rows
@@ -215,16 +198,6 @@ function readRows(
     state.prevT = prevT;
   }
   return pos;
-}
-
-/** The ASCII characters String.prototype.trim removes: tab, LF, VT, FF, CR, space. */
-function isAsciiWhiteSpace(c: number): boolean {
-  return c === 32 || (c >= 9 && c <= 13);
-}
-
-function isAsciiBlank(bytes: Uint8Array, from: number, to: number): boolean {
-  for (let i = from; i < to; i++) if (!isAsciiWhiteSpace(bytes[i]!)) return false;
-  return true;
 }
 
 function isSpacesAndTabs(bytes: Uint8Array, from: number, to: number): boolean {

@@ -3,7 +3,7 @@ import { BIDS_DEFAULT_START_UTC, bidsSidecarNames } from "./read-bids-motion";
 import { readBidsMotionBytes } from "./read-bids-motion-bytes";
 import { readSensorCsvBytes } from "./read-sensor-csv-bytes";
 import { type SniffedFormat, sniffFormat } from "./sniff";
-import { isWellFormedUtf8 } from "./utf8";
+import { UTF8, isWellFormedUtf8 } from "./utf8";
 
 /** One file as it arrives: its name (a path is cut to the base name) and its bytes. */
 export interface UploadFile {
@@ -69,8 +69,6 @@ const SUFFIX: Record<"bids-motion-tsv" | "bids-channels-tsv" | "bids-motion-json
   "bids-motion-json": /_motion\.json$/i,
 };
 
-/** UTF-8 of a file whose leading BOM is already set aside (as the upload has always decoded text); a second BOM stays. */
-const UTF8 = new TextDecoder("utf-8", { ignoreBOM: true });
 
 /** Removes directories a browser or client may have put into the name. */
 export function uploadBaseName(name: string): string {

@@ -1,4 +1,33 @@
 /**
+ * UTF-8 as Node's `readFileSync(path, "utf8")` decodes a file: bad sequences become U+FFFD and a
+ * BOM stays (the readers skip it themselves).
+ */
+export const UTF8 = new TextDecoder("utf-8", { ignoreBOM: true });
+
+/** Length of a UTF-8 byte order mark at the start of bytes[0, filled), 0 without one. */
+export function byteOrderMarkLength(bytes: Uint8Array, filled: number): number {
+  return filled >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
+}
+
+/** Index of the first byte in bytes[from, to) that is not ASCII white space (see isAsciiWhiteSpace), `to` if none. */
+export function firstVisibleByte(bytes: Uint8Array, from: number, to: number): number {
+  let i = from;
+  while (i < to && isAsciiWhiteSpace(bytes[i]!)) i++;
+  return i;
+}
+
+/** The ASCII characters String.prototype.trim removes: tab, LF, VT, FF, CR, space. */
+export function isAsciiWhiteSpace(c: number): boolean {
+  return c === 32 || (c >= 9 && c <= 13);
+}
+
+/** True when bytes[from, to) holds only ASCII white space: the line is blank without decoding it. */
+export function isAsciiBlank(bytes: Uint8Array, from: number, to: number): boolean {
+  for (let i = from; i < to; i++) if (!isAsciiWhiteSpace(bytes[i]!)) return false;
+  return true;
+}
+
+/**
  * True when `bytes` is well-formed UTF-8 as the WHATWG Encoding Standard's decoder accepts it with
  * `fatal: true` (RFC 3629: no overlong forms, no surrogates U+D800–DFFF, nothing above U+10FFFF,
  * no truncated sequence), checked without building a string. ASCII, nearly every byte of a sensor
