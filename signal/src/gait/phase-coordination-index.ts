@@ -1,5 +1,5 @@
 import { coefficientOfVariationPct, mean } from "./descriptive";
-import { firstIndexAbove } from "./sorted-search";
+import { firstIndexAbove, firstIndexAtOrAbove } from "./sorted-search";
 
 export interface PhaseCoordination {
   /** φ_i in degrees, one per reference stride with exactly one contralateral IC inside it. */
@@ -38,17 +38,4 @@ export function phaseCoordinationIndex(
   const pPhiAbsPct = (100 * phiAbsDeg) / 180;
   const phiCvPct = coefficientOfVariationPct(phiDeg, 1)!;
   return { phiDeg, phiAbsDeg, pPhiAbsPct, phiCvPct, pciPct: phiCvPct + pPhiAbsPct };
-}
-
-
-/** First index ≥ from of the ascending `sorted` whose value is ≥ t (sorted.length when none). */
-function firstIndexAtOrAbove(sorted: Float64Array, t: number, from: number): number {
-  let lo = from;
-  let hi = sorted.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (sorted[mid]! >= t) hi = mid;
-    else lo = mid + 1;
-  }
-  return lo;
 }

@@ -1,7 +1,7 @@
 import type { Bout, Side, Stride } from "../types";
 import type { LegEvents } from "./gait-events";
 import { labelSteadyState, pooledRobustSdS, steadyBand } from "./steady-state";
-import { firstIndexAbove } from "./sorted-search";
+import { firstIndexAbove, firstIndexAtOrAbove } from "./sorted-search";
 
 /**
  * Wide physiological limits on the time between same-side ICs (s). 0.25 s is the lower gate of a
@@ -202,9 +202,7 @@ function markEdge(s: Stride): void {
 /** Index of the first element > a and the number of elements in (a, b) of a sorted array (binary search). */
 function openRange(sorted: readonly number[], a: number, b: number): { from: number; count: number } {
   const from = firstIndexAbove(sorted, a);
-  let to = from;
-  while (to < sorted.length && sorted[to]! < b) to++;
-  return { from, count: to - from };
+  return { from, count: firstIndexAtOrAbove(sorted, b, from) - from };
 }
 
 

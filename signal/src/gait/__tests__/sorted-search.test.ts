@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { firstIndexAbove } from "../sorted-search";
+import { firstIndexAbove, firstIndexAtOrAbove } from "../sorted-search";
 
 // numpy.searchsorted(a, v, side="right"), NumPy reference documentation, "Examples":
 // np.searchsorted([11, 12, 13, 14, 15], 13, side='right') == 3.
@@ -24,6 +24,23 @@ describe("firstIndexAbove(sorted, t) = numpy.searchsorted(sorted, t, side='right
       const t = Math.round(rand() * 12) - 1;
       const scan = a.findIndex((v) => v > t);
       expect(firstIndexAbove(a, t)).toBe(scan === -1 ? a.length : scan);
+      const scanLeft = a.findIndex((v) => v >= t);
+      expect(firstIndexAtOrAbove(a, t)).toBe(scanLeft === -1 ? a.length : scanLeft);
     }
+  });
+});
+
+// np.searchsorted([11, 12, 13, 14, 15], 13) == 2 (side='left', the default), same documentation.
+describe("firstIndexAtOrAbove(sorted, t) = numpy.searchsorted(sorted, t, side='left')", () => {
+  it("matches NumPy's documented example and stops at the first equal value", () => {
+    expect(firstIndexAtOrAbove([11, 12, 13, 14, 15], 13)).toBe(2);
+    expect(firstIndexAtOrAbove([1, 2, 2, 2, 3], 2)).toBe(1);
+    expect(firstIndexAtOrAbove([1, 2, 3], 4)).toBe(3);
+  });
+
+  it("searches only from `from` on, as both functions do", () => {
+    expect(firstIndexAtOrAbove([1, 2, 3, 4], 0, 2)).toBe(2);
+    expect(firstIndexAbove([1, 2, 3, 4], 0, 3)).toBe(3);
+    expect(firstIndexAtOrAbove([1, 2, 3, 4], 3.5, 1)).toBe(3);
   });
 });
